@@ -1,0 +1,37 @@
+import { z } from 'zod';
+
+/**
+ * The adoption policy: the rules that turn a report's evidence into a recommendation.
+ * Admin-editable and versioned on the server; the version is stored with every verdict.
+ * Defaults: DESIGN.md ("Verdict"). Materiality of 2 Gini points and 300 bads are common practice,
+ * no source.
+ */
+export const adoptionPolicySchema = z.object({
+  version: z.number().int().min(1),
+  /** Significance level for the DeLong test of ΔGini. */
+  alpha: z.number().gt(0).lt(0.5),
+  /** one-sided: H1 is "the challenger is better"; two-sided: H1 is "they differ". */
+  sided: z.enum(['one-sided', 'two-sided']),
+  /** Minimum ΔGini, in Gini points (1 point = 0.01). */
+  materialityGiniPoints: z.number().min(0).max(100),
+  /** Require the lower bound of the ΔGini interval to be above 0. */
+  requireIntervalAboveZero: z.boolean(),
+  /** Require the swap-in bad rate not above the swap-out bad rate at this approval rate. */
+  swapRule: z.object({ enabled: z.boolean(), approvalRate: z.number().gt(0).lt(1) }),
+  /** Minimum number of bads in the holdout. */
+  minBads: z.number().int().min(0),
+  /** Committee votes needed before a decision can be recorded; 0 = no quorum. */
+  quorum: z.number().int().min(0),
+});
+export type AdoptionPolicy = z.infer<typeof adoptionPolicySchema>;
+
+export const defaultAdoptionPolicy: AdoptionPolicy = {
+  version: 1,
+  alpha: 0.05,
+  sided: 'one-sided',
+  materialityGiniPoints: 2,
+  requireIntervalAboveZero: true,
+  swapRule: { enabled: true, approvalRate: 0.7 },
+  minBads: 300,
+  quorum: 0,
+};

@@ -1,0 +1,358 @@
+import { z } from 'zod';
+import { adoptionPolicySchema } from './policy';
+
+/**
+ * The comparison report: what the engine computes for one holdout scored by both models.
+ * The CLI prints it (`npm run compare -- FILE --json`), the API serves it, the client draws it.
+ *
+ * Conventions used throughout:
+ * - "bad" is the event (the positive class); difference = challenger − champion.
+ * - Scores are reported in each model's own units and orientation (`higherIs`).
+ * - Gini and AUC are fractions (0.4213), not points; the client shows Gini in points (42.1).
+ * - Rates and shares are fractions in [0, 1].
+ * - A quantity that is undefined for the data (a bad rate of an empty group, a test with an empty
+ *   side) is `null`, never NaN; the client shows it as "—" with the reason where one is given.
+ * - Bands are numbered from 1 = riskiest.
+ */
+
+export const higherIsSchema = z.enum(['safer', 'riskier']);
+export type HigherIs = z.infer<typeof higherIsSchema>;
+
+export const intervalSchema = z.tuple([z.number(), z.number()]);
+export type Interval = z.infer<typeof intervalSchema>;
+
+export const modelMetricsSchema = z.object({
+  higherIs: higherIsSchema,
+  auc: z.number(),
+  /** DeLong standard error of the AUC. */
+  aucSe: z.number(),
+  aucCi: intervalSchema,
+  gini: z.number(),
+  giniCi: intervalSchema,
+  ks: z.number(),
+  /** The score (in the model's own units) at which the KS gap is reached. */
+  ksScore: z.number(),
+  /** Bootstrap percentile interval of KS; null when the bootstrap was skipped. */
+  ksCi: intervalSchema.nullable(),
+});
+export type ModelMetrics = z.infer<typeof modelMetricsSchema>;
+
+export const differenceSchema = z.object({
+  auc: z.number(),
+  gini: z.number(),
+  /** DeLong standard error of ΔAUC: sqrt(V1 + V2 − 2C). */
+  se: z.number(),
+  giniSe: z.number(),
+  z: z.number(),
+  pTwoSided: z.number(),
+  /** One-sided p for H1: the challenger's AUC is higher. */
+  pOneSided: z.number(),
+  aucCi: intervalSchema,
+  giniCi: intervalSchema,
+  /** Bootstrap percentile interval of ΔGini, the cross-check on DeLong; null without bootstrap. */
+  giniBootstrapCi: intervalSchema.nullable(),
+  ks: z.number(),
+  ksCi: intervalSchema.nullable(),
+  /** DeLong covariance pieces, for audit: V(champion), V(challenger), C. */
+  varianceChampion: z.number(),
+  varianceChallenger: z.number(),
+  covariance: z.number(),
+  /** Correlation of the two AUC estimates, C / sqrt(V1·V2); null when a variance is 0. */
+  correlation: z.number().nullable(),
+});
+export type Difference = z.infer<typeof differenceSchema>;
+
+/** Counts of a distribution over equal-width bins; `edges` has one more entry than `counts`. */
+export const histogramSchema = z.object({
+  edges: z.array(z.number()),
+  counts: z.array(z.number().int()),
+});
+export type Histogram = z.infer<typeof histogramSchema>;
+
+export const bootstrapSchema = z.object({
+  replicates: z.number().int(),
+  seed: z.number().int(),
+  confidence: z.number(),
+  /** Paired (same accounts for both models), stratified by outcome, percentile intervals. */
+  method: z.literal('paired-stratified-percentile'),
+  /** Replicate distributions, binned for histograms; null when replicates = 0. */
+  histograms: z
+    .object({
+      deltaGini: histogramSchema,
+      deltaKs: histogramSchema,
+      championKs: histogramSchema,
+      challengerKs: histogramSchema,
+    })
+    .nullable(),
+});
+export type Bootstrap = z.infer<typeof bootstrapSchema>;
+
+export const swapCellSchema = z.object({
+  count: z.number().int(),
+  /** Share of all accounts in the holdout. */
+  share: z.number(),
+  bads: z.number().int(),
+  badRate: z.number().nullable(),
+  /** Wilson score interval of the bad rate at the report's confidence. */
+  badRateCi: intervalSchema.nullable(),
+  /** Sum of the exposure column for these accounts; null when no exposure column is mapped. */
+  amount: z.number().nullable(),
+});
+export type SwapCell = z.infer<typeof swapCellSchema>;
+
+export const cutoffPositionSchema = z.object({
+  /** Accounts on the safe side of the cut-off, the cut-off itself included, are accepted. */
+  cutoff: z.number(),
+  approvalRate: z.number(),
+});
+export type CutoffPosition = z.infer<typeof cutoffPositionSchema>;
+
+export const swapTestSchema = z.object({
+  /** Swap-in bad rate vs swap-out bad rate. */
+  method: z.enum(['two-proportion-z', 'fisher-exact']),
+  z: z.number().nullable(),
+  /** Two-sided p; null when either side is empty (with `reason`). */
+  p: z.number().nullable(),
+  reason: z.string().nullable(),
+});
+
+export const swapSetsSchema = z.object({
+  /** How the cut-offs were chosen: given per model, or matched to one approval rate. */
+  basis: z.enum(['cutoffs', 'approval-rate']),
+  requestedApprovalRate: z.number().nullable(),
+  champion: cutoffPositionSchema,
+  challenger: cutoffPositionSchema,
+  bothAccept: swapCellSchema,
+  /** Champion rejects, challenger accepts. */
+  swapIn: swapCellSchema,
+  /** Champion accepts, challenger rejects. */
+  swapOut: swapCellSchema,
+  bothReject: swapCellSchema,
+  test: swapTestSchema,
+});
+export type SwapSets = z.infer<typeof swapSetsSchema>;
+
+export const swapMatrixSchema = z.object({
+  /** Number of quantile bands per model (10 = deciles); band 1 is the riskiest. */
+  bands: z.number().int(),
+  /** Score range of each band, per model, in the model's own units. */
+  championBands: z.array(z.object({ band: z.number().int(), scoreMin: z.number(), scoreMax: z.number() })),
+  challengerBands: z.array(z.object({ band: z.number().int(), scoreMin: z.number(), scoreMax: z.number() })),
+  /** cells[i][j]: champion band i+1 × challenger band j+1. */
+  cells: z.array(z.array(z.object({ count: z.number().int(), bads: z.number().int(), badRate: z.number().nullable() }))),
+});
+export type SwapMatrix = z.infer<typeof swapMatrixSchema>;
+
+export const strategyModelPointSchema = z.object({
+  cutoff: z.number(),
+  /** Approval rate actually achieved at that cut-off (ties can push it past the target). */
+  achievedApprovalRate: z.number(),
+  /** Bad rate of the whole approved book. */
+  portfolioBadRate: z.number().nullable(),
+  /** Bad rate of the accounts added since the previous point (the marginal band). */
+  marginalBadRate: z.number().nullable(),
+});
+
+export const strategyCurveSchema = z.object({
+  points: z.array(
+    z.object({
+      approvalRate: z.number(),
+      champion: strategyModelPointSchema,
+      challenger: strategyModelPointSchema,
+    }),
+  ),
+  /** At the report's approval rate. */
+  atApprovalRate: z.object({
+    approvalRate: z.number(),
+    championBads: z.number().int(),
+    challengerBads: z.number().int(),
+    /** Champion's approved bads minus the challenger's, at the same approval rate. */
+    badsAvoided: z.number().int(),
+    /** Extra approvals the challenger makes while keeping the champion's portfolio bad rate. */
+    approvalsGainedAtEqualBadRate: z.number().int().nullable(),
+  }),
+});
+export type StrategyCurve = z.infer<typeof strategyCurveSchema>;
+
+export const bandRowSchema = z.object({
+  band: z.number().int(),
+  scoreMin: z.number(),
+  scoreMax: z.number(),
+  count: z.number().int(),
+  goods: z.number().int(),
+  bads: z.number().int(),
+  badRate: z.number().nullable(),
+  /** Cumulative shares of all bads and of all goods, riskiest band first. */
+  cumBadShare: z.number(),
+  cumGoodShare: z.number(),
+  /** cumBadShare − cumGoodShare at the end of this band. */
+  ks: z.number(),
+  /** Good:bad odds in the band; null when the band has no bads. */
+  odds: z.number().nullable(),
+});
+
+export const bandTableSchema = z.object({
+  rows: z.array(bandRowSchema),
+  /** Trapezoid Gini over the band table (Engelmann, Hayden & Tasche 2003). */
+  giniTrapezoid: z.number(),
+});
+export type BandTable = z.infer<typeof bandTableSchema>;
+
+export const segmentRowSchema = z.object({
+  column: z.string(),
+  value: z.string(),
+  n: z.number().int(),
+  goods: z.number().int(),
+  bads: z.number().int(),
+  championGini: z.number().nullable(),
+  challengerGini: z.number().nullable(),
+  deltaGini: z.number().nullable(),
+  giniSe: z.number().nullable(),
+  /** DeLong p for the segment, with the same sidedness as the adoption policy. */
+  p: z.number().nullable(),
+  /** Holm-adjusted p across every segment row of the report. */
+  pHolm: z.number().nullable(),
+  tooFewBads: z.boolean(),
+  /** Why a value is null (one class only, …); null when everything is defined. */
+  note: z.string().nullable(),
+});
+export type SegmentRow = z.infer<typeof segmentRowSchema>;
+
+export const scoreSummarySchema = z.object({
+  min: z.number(),
+  max: z.number(),
+  mean: z.number(),
+  distinct: z.number().int(),
+});
+
+export const dataQualitySchema = z.object({
+  rowsRead: z.number().int(),
+  rowsUsed: z.number().int(),
+  /** Rows left out because a score was missing (only with drop-missing). */
+  rowsDroppedMissingScore: z.number().int(),
+  /** Empty cells per mapped column. */
+  missingByColumn: z.record(z.string(), z.number().int()),
+  champion: scoreSummarySchema,
+  challenger: scoreSummarySchema,
+  /** Correlation of the two scores as given (each in its own orientation). */
+  scoreCorrelation: z.object({ pearson: z.number().nullable(), spearman: z.number().nullable() }),
+  duplicateIds: z.number().int().nullable(),
+  warnings: z.array(z.string()),
+});
+export type DataQuality = z.infer<typeof dataQualitySchema>;
+
+export const curvePointSchema = z.object({ x: z.number(), y: z.number() });
+export const ksPointSchema = z.object({ score: z.number(), cumBad: z.number(), cumGood: z.number() });
+
+/** Curve points, downsampled to at most 500 per model and curve. */
+export const curvesSchema = z.object({
+  /** x = false-positive rate (share of goods declined), y = share of bads declined, riskiest first. */
+  roc: z.object({ champion: z.array(curvePointSchema), challenger: z.array(curvePointSchema) }),
+  /** x = share of all accounts declined, y = share of bads declined, riskiest first. */
+  cap: z.object({ champion: z.array(curvePointSchema), challenger: z.array(curvePointSchema) }),
+  ks: z.object({ champion: z.array(ksPointSchema), challenger: z.array(ksPointSchema) }),
+});
+export type Curves = z.infer<typeof curvesSchema>;
+
+export const economicsSchema = z.object({
+  profitPerGood: z.number(),
+  lossPerBad: z.number().nullable(),
+  /** When set, a bad's loss is lgd × its exposure instead of lossPerBad. */
+  lgd: z.number().nullable(),
+  champion: z.object({
+    bestCutoff: z.number(),
+    bestApprovalRate: z.number(),
+    bestProfit: z.number(),
+    curve: z.array(z.object({ approvalRate: z.number(), cutoff: z.number(), profit: z.number() })),
+  }),
+  challenger: z.object({
+    bestCutoff: z.number(),
+    bestApprovalRate: z.number(),
+    bestProfit: z.number(),
+    curve: z.array(z.object({ approvalRate: z.number(), cutoff: z.number(), profit: z.number() })),
+  }),
+});
+export type Economics = z.infer<typeof economicsSchema>;
+
+export const verdictOutcomeSchema = z.enum(['supported', 'not-proven', 'champion-better']);
+export type VerdictOutcome = z.infer<typeof verdictOutcomeSchema>;
+
+export const criterionSchema = z.object({
+  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads']),
+  label: z.string(),
+  met: z.boolean(),
+  /** Plain-language reason with the numbers, e.g. "one-sided p = 0.0003 < α = 0.05". */
+  detail: z.string(),
+});
+export type Criterion = z.infer<typeof criterionSchema>;
+
+export const verdictSchema = z.object({
+  outcome: verdictOutcomeSchema,
+  policyVersion: z.number().int(),
+  criteria: z.array(criterionSchema),
+  /** One plain-language sentence summarising the evidence. */
+  summary: z.string(),
+});
+export type Verdict = z.infer<typeof verdictSchema>;
+
+export const columnMappingSchema = z.object({
+  outcome: z.string().min(1),
+  /** The outcome value that means bad (the event); the other observed value means good. */
+  badValue: z.string().min(1),
+  champion: z.string().min(1),
+  challenger: z.string().min(1),
+  higherIs: z.object({ champion: higherIsSchema, challenger: higherIsSchema }),
+  id: z.string().min(1).nullable().optional(),
+  segments: z.array(z.string().min(1)).optional(),
+  exposure: z.string().min(1).nullable().optional(),
+  weight: z.string().min(1).nullable().optional(),
+});
+export type ColumnMapping = z.infer<typeof columnMappingSchema>;
+
+export const analysisSettingsSchema = z.object({
+  bootstrap: z.number().int().min(0).max(20000).default(2000),
+  seed: z.number().int().min(0).max(2 ** 31 - 1).default(1),
+  confidence: z.number().gt(0.5).lt(1).default(0.95),
+  /** Matched approval rate for the swap sets when no cut-offs are given. */
+  approvalRate: z.number().gt(0).lt(1).default(0.7),
+  cutoffs: z.object({ champion: z.number(), challenger: z.number() }).nullable().default(null),
+  dropMissing: z.boolean().default(false),
+  /** Bands for band tables and the swap matrix. */
+  bands: z.number().int().min(2).max(50).default(10),
+  economics: z
+    .object({
+      profitPerGood: z.number(),
+      lossPerBad: z.number().nullable().default(null),
+      lgd: z.number().min(0).max(1).nullable().default(null),
+    })
+    .nullable()
+    .default(null),
+});
+export type AnalysisSettings = z.infer<typeof analysisSettingsSchema>;
+
+export const reportSchema = z.object({
+  engineVersion: z.string(),
+  input: z.object({ fileName: z.string(), sha256: z.string(), bytes: z.number().int() }),
+  mapping: columnMappingSchema,
+  settings: analysisSettingsSchema,
+  /** The adoption policy the verdict was evaluated under. */
+  policy: adoptionPolicySchema,
+  rows: z.number().int(),
+  goods: z.number().int(),
+  bads: z.number().int(),
+  badRate: z.number(),
+  champion: modelMetricsSchema,
+  challenger: modelMetricsSchema,
+  difference: differenceSchema,
+  bootstrap: bootstrapSchema,
+  swap: swapSetsSchema,
+  swapMatrix: swapMatrixSchema,
+  strategyCurve: strategyCurveSchema,
+  bands: z.object({ champion: bandTableSchema, challenger: bandTableSchema }),
+  segments: z.array(segmentRowSchema),
+  dataQuality: dataQualitySchema,
+  curves: curvesSchema,
+  economics: economicsSchema.nullable(),
+  verdict: verdictSchema,
+});
+export type Report = z.infer<typeof reportSchema>;
