@@ -1,0 +1,30 @@
+import type { HigherIs } from '@shared/report';
+
+/**
+ * A holdout in column form, as the engine reads it: one entry per account, typed arrays for
+ * everything per-row. Scores are kept as given in the file (each model's own units and
+ * orientation); `safety()` in order.ts turns them into "higher = safer" for the statistics.
+ */
+export interface Holdout {
+  n: number;
+  /** 1 = bad (the event), 0 = good. */
+  bad: Uint8Array;
+  champion: Float64Array;
+  challenger: Float64Array;
+  higherIs: { champion: HigherIs; challenger: HigherIs };
+  /** Exposure / amount per account, when mapped. */
+  exposure: Float64Array | null;
+  /** Account ids as read, when mapped. */
+  ids: string[] | null;
+  /** Categorical columns: the distinct values and each account's index into them. */
+  segments: SegmentColumn[];
+}
+
+export interface SegmentColumn {
+  column: string;
+  levels: string[];
+  codes: Uint32Array;
+}
+
+export type ModelName = 'champion' | 'challenger';
+export const modelNames: readonly ModelName[] = ['champion', 'challenger'];
