@@ -1,0 +1,25 @@
+import { z } from 'zod';
+
+/** The one JSON error shape every API error uses. */
+export const apiErrorSchema = z.object({
+  error: z.object({
+    code: z.string(),
+    message: z.string(),
+    details: z.unknown().optional(),
+  }),
+});
+export type ApiErrorBody = z.infer<typeof apiErrorSchema>;
+
+/** Error codes the client may branch on. Others may appear; the message is always readable. */
+export const errorCodes = {
+  validation: 'validation_failed',
+  unauthenticated: 'unauthenticated',
+  forbidden: 'forbidden',
+  notFound: 'not_found',
+  conflict: 'conflict',
+  csrf: 'csrf_invalid',
+  rateLimited: 'rate_limited',
+  tooLarge: 'payload_too_large',
+  badInput: 'bad_input',
+  internal: 'internal_error',
+} as const;
