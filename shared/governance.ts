@@ -1,0 +1,158 @@
+import { z } from 'zod';
+import { comparisonStateSchema } from './comparisons';
+import { adoptionPolicySchema } from './policy';
+import { criterionSchema, verdictOutcomeSchema } from './report';
+
+/**
+ * API contract for the review workflow, committee decisions, notes, the adoption policy, verdict
+ * records and the audit trail (issue: governance). Wrong state → 409; wrong role, or a committee
+ * member acting on a comparison they created → 403.
+ */
+
+const personRefSchema = z.object({ id: z.number().int(), name: z.string() });
+
+// --- transitions --------------------------------------------------------------------------
+/** POST /api/comparisons/:id/submit (modeler): analysed → in review. Body may be empty. */
+export const submitInputSchema = z.object({ message: z.string().trim().max(4000).default('') });
+
+/** POST /api/comparisons/:id/review (analyst): in review → validated | returned. */
+export const reviewInputSchema = z.object({
+  outcome: z.enum(['validated', 'returned']),
+  findings: z.string().trim().min(1, 'Write your findings').max(20000),
+});
+export type ReviewInput = z.infer<typeof reviewInputSchema>;
+
+export const voteChoiceSchema = z.enum(['adopt', 'keep', 'defer']);
+export type VoteChoice = z.infer<typeof voteChoiceSchema>;
+export const voteChoiceLabels: Record<VoteChoice, string> = {
+  adopt: 'Adopt the challenger',
+  keep: 'Keep the champion',
+  defer: 'Defer',
+};
+
+/** POST /api/comparisons/:id/votes (committee; state validated): one vote per person, a new vote replaces theirs. */
+export const voteInputSchema = z.object({
+  vote: voteChoiceSchema,
+  comment: z.string().trim().max(4000).default(''),
+});
+export type VoteInput = z.infer<typeof voteInputSchema>;
+
+/** POST /api/comparisons/:id/decision (committee; state validated; quorum when the policy sets one) → decided. */
+export const decisionInputSchema = z.object({
+  outcome: voteChoiceSchema,
+  rationale: z.string().trim().min(1, 'Record the rationale').max(20000),
+  conditions: z.string().trim().max(20000).optional(),
+  /** ISO date (YYYY-MM-DD) from which the decision applies. */
+  effectiveDate: z.iso.date().optional(),
+});
+export type DecisionInput = z.infer<typeof decisionInputSchema>;
+
+export const reviewSchema = z.object({
+  id: z.number().int(),
+  outcome: z.enum(['validated', 'returned']),
+  findings: z.string(),
+  reviewer: personRefSchema,
+  runId: z.number().int(),
+  createdAt: z.string(),
+});
+export const voteSchema = z.object({
+  id: z.number().int(),
+  vote: voteChoiceSchema,
+  comment: z.string(),
+  voter: personRefSchema,
+  createdAt: z.string(),
+});
+export const decisionSchema = z.object({
+  id: z.number().int(),
+  outcome: voteChoiceSchema,
+  rationale: z.string(),
+  conditions: z.string().nullable(),
+  effectiveDate: z.string().nullable(),
+  decidedBy: personRefSchema,
+  runId: z.number().int(),
+  policyVersion: z.number().int(),
+  createdAt: z.string(),
+});
+
+// --- verdict records ----------------------------------------------------------------------
+/** A verdict as stored: the policy version it used is pinned; a new policy never rewrites it. */
+export const verdictRecordSchema = z.object({
+  id: z.number().int(),
+  runId: z.number().int(),
+  policyVersion: z.number().int(),
+  outcome: verdictOutcomeSchema,
+  criteria: z.array(criterionSchema),
+  summary: z.string(),
+  createdAt: z.string(),
+  createdBy: personRefSchema.nullable(),
+});
+export type VerdictRecord = z.infer<typeof verdictRecordSchema>;
+// POST /api/comparisons/:id/verdicts (analyst, committee or admin): re-evaluate the current run
+// under the current policy → 201 a new verdict record.
+
+/** GET /api/comparisons/:id/governance → everything the review & decision page needs. */
+export const governanceSchema = z.object({
+  state: comparisonStateSchema,
+  createdBy: personRefSchema,
+  reviews: z.array(reviewSchema),
+  /** Votes on the current validation round. */
+  votes: z.array(voteSchema),
+  decision: decisionSchema.nullable(),
+  verdicts: z.array(verdictRecordSchema),
+  quorum: z.number().int(),
+});
+export type Governance = z.infer<typeof governanceSchema>;
+
+// --- notes --------------------------------------------------------------------------------
+/** Where a note is attached: the general discussion, or one of the swap sets (policy annotations). */
+export const noteAnchorSchema = z.enum(['discussion', 'swap-in', 'swap-out', 'both-accept', 'both-reject', 'swap-matrix']);
+/** GET /api/comparisons/:id/notes; POST (any signed-in person; swap anchors: policy role). */
+export const noteInputSchema = z.object({
+  anchor: noteAnchorSchema.default('discussion'),
+  body: z.string().trim().min(1, 'Write something').max(8000),
+  scenarioId: z.number().int().nullable().default(null),
+});
+export type NoteInput = z.infer<typeof noteInputSchema>;
+export const noteSchema = z.object({
+  id: z.number().int(),
+  anchor: noteAnchorSchema,
+  body: z.string(),
+  scenarioId: z.number().int().nullable(),
+  author: personRefSchema,
+  createdAt: z.string(),
+});
+export type Note = z.infer<typeof noteSchema>;
+
+// --- adoption policy ----------------------------------------------------------------------
+/** GET /api/policy (signed in) → the current version; PUT (admin) with the fields but `version` → a new version. */
+export const policyInputSchema = adoptionPolicySchema.omit({ version: true });
+export type PolicyInput = z.infer<typeof policyInputSchema>;
+export const policyVersionSchema = z.object({
+  policy: adoptionPolicySchema,
+  createdBy: personRefSchema.nullable(),
+  createdAt: z.string(),
+  /** Why the admin changed it. */
+  reason: z.string(),
+});
+export type PolicyVersion = z.infer<typeof policyVersionSchema>;
+/** GET /api/policy/versions → every version, newest first. */
+export const policyVersionsSchema = z.object({ versions: z.array(policyVersionSchema) });
+
+// --- audit --------------------------------------------------------------------------------
+export const auditEventSchema = z.object({
+  id: z.number().int(),
+  actor: personRefSchema.nullable(),
+  action: z.string(),
+  targetType: z.string(),
+  targetId: z.string().nullable(),
+  details: z.record(z.string(), z.unknown()),
+  createdAt: z.string(),
+  hash: z.string(),
+  prevHash: z.string().nullable(),
+});
+export type AuditEvent = z.infer<typeof auditEventSchema>;
+/** GET /api/comparisons/:id/audit → the comparison's events in order, and whether the whole chain verifies. */
+export const auditTrailSchema = z.object({ events: z.array(auditEventSchema), chainValid: z.boolean() });
+
+// GET /api/comparisons/:id/evidence.json → the evidence pack: report, settings, hashes, verdicts,
+// reviews, votes, decision and the audit trail, as one JSON download.
