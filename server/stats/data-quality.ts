@@ -32,7 +32,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
     if (goods < FEW_CLASS) warnings.push(`Only ${goods} goods: intervals are wide and the large-sample approximations are rough.`);
   }
   if (read.rowsDroppedMissingScore > 0) {
-    warnings.push(`${read.rowsDroppedMissingScore} rows were left out because a score was missing.`);
+    warnings.push(`${plural(read.rowsDroppedMissingScore, 'row was', 'rows were')} left out because a score was missing.`);
   }
 
   const summaries = [data.champion, data.challenger].map((model) => {
@@ -65,12 +65,12 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
       if (seen.has(id)) duplicateIds++;
       else seen.add(id);
     }
-    if (duplicateIds > 0) warnings.push(`${duplicateIds} accounts repeat an earlier account id.`);
+    if (duplicateIds > 0) warnings.push(`${plural(duplicateIds, 'account repeats', 'accounts repeat')} an earlier account id.`);
   }
   if (data.exposure) {
     let negative = 0;
     for (let i = 0; i < n; i++) if (data.exposure[i] < 0) negative++;
-    if (negative > 0) warnings.push(`${negative} accounts have a negative exposure.`);
+    if (negative > 0) warnings.push(`${plural(negative, 'account has', 'accounts have')} a negative exposure.`);
   }
 
   // A constant score has no correlation; tested on the distinct count, since a rounded mean can
@@ -166,4 +166,8 @@ function pearson(x: Float64Array, y: Float64Array): number | null {
 function sameValues(x: Float64Array, y: Float64Array): boolean {
   for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false;
   return true;
+}
+
+function plural(n: number, one: string, many: string): string {
+  return `${n.toLocaleString('en-US')} ${n === 1 ? one : many}`;
 }
