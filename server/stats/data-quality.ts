@@ -5,8 +5,9 @@ import type { PreparedHoldout, PreparedModel } from './policy-data';
 /**
  * Data-quality summary of a holdout: rows read / used / dropped, empty cells per mapped column
  * (from the reader), each score's min, max, mean and number of distinct values, the Pearson and
- * Spearman (Pearson of midranks; Spearman 1904) correlation of the two scores as given, duplicate
- * account ids, and plain-language warnings. Warning thresholds are rules of thumb, no source:
+ * Spearman correlation of the two scores as given (Spearman = Pearson of midranks; C. Spearman
+ * 1904, American Journal of Psychology 15:72–101, from memory), duplicate account ids, and
+ * plain-language warnings. Warning thresholds are rules of thumb, no source:
  * fewer than 100 bads or goods; fewer than 20 distinct score values; a model whose AUC in its
  * declared orientation is below 0.5 (it ranks bads as safer than goods, so the orientation looks
  * reversed).

@@ -7,8 +7,9 @@
  * The p-value is the sum of the hypergeometric probabilities (margins fixed) of every table no
  * more probable than the observed one, with the relative tolerance 1e-7 that R's `fisher.test`
  * (and `scipy.stats.fisher_exact`) use so that ties in probability are counted despite rounding.
- * Source: R. A. Fisher (1935), "The logic of inductive inference", JRSS 98:39–82; the two-sided
- * rule as in R's stats::fisher.test.
+ * Source: R. A. Fisher (1922), "On the interpretation of χ² from contingency tables, and the
+ * calculation of P", JRSS 85:87–94, and The Design of Experiments (1935) (citations from memory);
+ * the two-sided rule as in R's stats::fisher.test, checked against it and scipy in the tests.
  *
  * Probabilities are built in log space by the recursion
  *   P(x + 1) / P(x) = (m − x)(k − x) / ((x + 1)(n − k + x + 1))

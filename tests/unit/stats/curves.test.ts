@@ -92,6 +92,15 @@ describe('curves', () => {
     }
   });
 
+  it('is the diagonal for a constant score', () => {
+    const result = curves(preparePolicyData(makeHoldout({ champion: [4, 4, 4], challenger: [1, 2, 3], bad: [1, 0, 0] }), { bands: 2 }));
+    expect(result.roc.champion).toEqual([
+      { x: 0, y: 0 },
+      { x: 1, y: 1 },
+    ]);
+    expect(result.ks.champion).toEqual([{ score: 4, cumBad: 1, cumGood: 1 }]);
+  });
+
   it('requires both outcomes', () => {
     expect(() => curves(preparePolicyData(makeHoldout({ champion: [1, 2], challenger: [1, 2], bad: [1, 1] }), { bands: 2 }))).toThrow(/one good and one bad/);
   });

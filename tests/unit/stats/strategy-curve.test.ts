@@ -74,6 +74,15 @@ describe('strategyCurve', () => {
     expect(curve.atApprovalRate).toEqual(reference.atApprovalRate);
   });
 
+  it('approves the whole book at every rate when all accounts are tied', () => {
+    const tied = preparePolicyData(makeHoldout({ champion: [2, 2, 2, 2], challenger: [0.5, 0.5, 0.5, 0.5], bad: [1, 0, 0, 0], higherIs: { champion: 'safer', challenger: 'riskier' } }), { bands: 2 });
+    const curve = strategyCurve(tied, 0.7);
+    // Computed by hand: one block, so 1% already accepts all 4 (bad rate 1/4); later points add nobody.
+    expect(curve.points[0].champion).toEqual({ cutoff: 2, achievedApprovalRate: 1, portfolioBadRate: 0.25, marginalBadRate: 0.25 });
+    expect(curve.points.slice(1).every((p) => p.champion.marginalBadRate === null && p.challenger.marginalBadRate === null)).toBe(true);
+    expect(curve.atApprovalRate).toEqual({ approvalRate: 0.7, championBads: 1, challengerBads: 1, badsAvoided: 0, approvalsGainedAtEqualBadRate: 0 });
+  });
+
   it('rejects an approval rate of 0', () => {
     expect(() => strategyCurve(data, 0)).toThrow(/above 0/);
   });
