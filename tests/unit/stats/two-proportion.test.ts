@@ -16,9 +16,10 @@ describe('twoProportionZ', () => {
     // z² = R's statistic, 1e-12 relative; the sign of z is that of x1/n1 − x2/n2 (by hand).
     expect(relativeError(result.z * result.z, statistic)).toBeLessThan(1e-12);
     expect(Math.sign(result.z)).toBe(Math.sign(x1 / n1 - x2 / n2));
-    // p: 1e-9 relative where R's p is above 1e-12. Smaller tails are the normal distribution's
-    // precision (normal.ts and its own tests), not this test's subject.
-    if (p > 1e-12) expect(relativeError(result.p, p)).toBeLessThan(1e-9);
+    // p: 1e-8 relative where R's p is above 1e-12 (all cases but 700/1000 vs 20/1000, p = 3.2e-220).
+    // Tails are the normal distribution's precision (normal.ts and its own tests), not this test's
+    // subject; the transitional jstat body underflows below about 1e-16.
+    if (p > 1e-12) expect(relativeError(result.p, p)).toBeLessThan(1e-8);
   });
 
   it('gives z = 0 and p = 1 when both groups have the same rate', () => {

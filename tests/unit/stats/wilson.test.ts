@@ -14,9 +14,11 @@ describe('wilsonInterval', () => {
   it.each(reference.wilson)('matches R prop.test for x = $x, n = $n at $confidence', ({ x, n, confidence, lower, upper }) => {
     const ci = wilsonInterval(x, n, confidence);
     expect(ci).not.toBeNull();
-    // Tolerance: 1e-12 relative (R prints 15 digits; the quantile comes from normal.ts).
-    expect(relativeError(ci![0], lower)).toBeLessThan(1e-12);
-    expect(relativeError(ci![1], upper)).toBeLessThan(1e-12);
+    // Tolerance: 1e-8 relative. R prints 15 digits and the formula is exact; the slack is for the
+    // normal quantile, which comes from normal.ts (its precision is tested there). Measured with
+    // the transitional jstat quantile: below 1e-12.
+    expect(relativeError(ci![0], lower)).toBeLessThan(1e-8);
+    expect(relativeError(ci![1], upper)).toBeLessThan(1e-8);
   });
 
   it('is exactly 0 at the bottom when there are no events and exactly 1 at the top when all are events', () => {
