@@ -39,9 +39,10 @@ export async function issueToken(
   return { token, expiresAt };
 }
 
-/** Retires every unused link of a person. */
-export async function retireTokens(manager: EntityManager, userId: number, now = new Date()): Promise<void> {
-  await manager.getRepository(OneTimeToken).update({ userId, usedAt: IsNull() }, { usedAt: now });
+/** Retires every unused link of a person; returns how many there were. */
+export async function retireTokens(manager: EntityManager, userId: number, now = new Date()): Promise<number> {
+  const result = await manager.getRepository(OneTimeToken).update({ userId, usedAt: IsNull() }, { usedAt: now });
+  return result.affected ?? 0;
 }
 
 export type TokenState = 'valid' | 'used' | 'expired';

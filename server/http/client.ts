@@ -1,10 +1,10 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import express, { type Router } from 'express';
+import express, { type Request, type Response, type Router } from 'express';
 
 /**
  * Serves the built React client (dist/client, made by `vite build`) with a fallback to
- * index.html for every other non-API GET, so client-side routes survive a reload. When the client
+ * index.html for every other non-API GET outside /assets, so client-side routes survive a reload. When the client
  * has not been built, those requests get a plain message saying how to build it.
  */
 export function clientRouter(clientDir: string): Router {
@@ -13,6 +13,9 @@ export function clientRouter(clientDir: string): Router {
   router.use(
     '/assets',
     express.static(join(clientDir, 'assets'), { immutable: true, maxAge: '1y', index: false, fallthrough: true }),
+    (_req: Request, res: Response) => {
+      res.status(404).type('text/plain').send('No such file.\n');
+    },
   );
   router.use(express.static(clientDir, { index: false, maxAge: 0 }));
   router.get('/{*path}', (_req, res) => {

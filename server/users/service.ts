@@ -51,7 +51,8 @@ export async function inviteUser(ctx: AppContext, actor: User, input: InviteInpu
 
 /**
  * Renames, changes roles, deactivates or reactivates a person; one audit event per kind of
- * change. Deactivating ends the person's sessions and retires their unused links. Reactivating
+ * change. Deactivating ends the person's sessions and retires their unused links (for a pending
+ * invitee it withdraws the invitation). Reactivating
  * someone who never set a password sends them a fresh invitation. An admin cannot deactivate
  * themselves or drop their own admin role, so there is always an active admin.
  */
@@ -82,6 +83,10 @@ export async function updateUser(ctx: AppContext, actor: User, id: number, chang
       const ended = await manager.getRepository(Session).delete({ userId: user.id });
       await retireTokens(manager, user.id);
       await recordAudit(manager, { actor, action: 'user.deactivated', target, details: { sessionsEnded: ended.affected ?? 0 } });
+    } else if (changes.active === false && user.passwordHash === null) {
+      // Still inactive because the invitation is pending: deactivating withdraws it.
+      const withdrawn = await retireTokens(manager, user.id);
+      if (withdrawn > 0) await recordAudit(manager, { actor, action: 'user.invitation_withdrawn', target, details: { links: withdrawn } });
     } else if (changes.active === true && !user.active) {
       user.active = true;
       const invitationSent = user.passwordHash === null;
