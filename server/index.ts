@@ -32,10 +32,7 @@ async function main(): Promise<void> {
   const log = createLogger(config.logLevel);
 
   const dataSource = await openDatabase(config.databasePath);
-  if (!config.isProduction) {
-    const seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
-    if (seeded.seeded) log.info(`empty database: added ${seeded.people.length} demo people`);
-  }
+  const seeded = config.isProduction ? null : await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
   const sessionSecret = config.sessionSecret ?? (await storedSessionSecret(dataSource));
 
   const mail = await createMailTransport(config, dataSource, log);
@@ -59,6 +56,7 @@ async function main(): Promise<void> {
   ];
   if (!config.isProduction) {
     const demo = await presentDemoPeople(dataSource);
+    if (seeded?.seeded) lines.push('', `The database was empty: added ${seeded.people.length} demo people.`);
     if (demo.length > 0) {
       lines.push('', `Demo sign-ins (password "${demoPassword}"):`);
       for (const person of demo) lines.push(`  ${person.email.padEnd(28)} ${person.roles.join(', ')}`);

@@ -80,6 +80,18 @@ describe('invitations', () => {
     expect((await t.dataSource.getRepository(User).findOneByOrFail({ id: user.id })).active).toBe(false);
   });
 
+  it('lets only one of two simultaneous uses of a link succeed', async () => {
+    await invite('twice@tallowmere.test', 'Twice Clicked', ['analyst']);
+    const token = tokenFrom((await t.deliveredMail({ to: 'twice@tallowmere.test' })).receivedText!);
+    const [a, b] = await Promise.all([
+      new TestClient(t.app).post(`/api/auth/tokens/${token}/accept`, { password: 'first long password' }),
+      new TestClient(t.app).post(`/api/auth/tokens/${token}/accept`, { password: 'second long password' }),
+    ]);
+    expect([a.status, b.status].sort()).toEqual([200, 410]);
+    const winner = a.status === 200 ? 'first long password' : 'second long password';
+    expect((await new TestClient(t.app).signIn('twice@tallowmere.test', winner)).status).toBe(200);
+  });
+
   it('answers an unknown link with 404', async () => {
     await new TestClient(t.app).get(`/api/auth/tokens/${'A'.repeat(43)}`).expect(404);
   });
