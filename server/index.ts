@@ -27,7 +27,6 @@ function readConfig(): Config {
 }
 
 async function main(): Promise<void> {
-  const started = performance.now();
   const config = readConfig();
   const log = createLogger(config.logLevel);
 
@@ -50,7 +49,7 @@ async function main(): Promise<void> {
 
   const lines = [
     '',
-    `Scorecourt is running at http://localhost:${port} (${Math.round(performance.now() - started)} ms to start)`,
+    `Scorecourt is running at http://localhost:${port} (ready ${Math.round(performance.now())} ms after the process started)`,
     `  database: ${config.databasePath}`,
     `  mail:     ${mail.description}`,
   ];

@@ -60,8 +60,14 @@ export class SqliteSessionStore extends session.Store {
       .catch((error: unknown) => callback?.(error));
   }
 
+  /**
+   * Extends an unchanged session. Rolling sessions touch on every request, so the row is written
+   * only when its expiry would move by more than a minute.
+   */
   override touch(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
-    withWriteLock(this.dataSource, () => this.repository.update({ sid }, { expiresAt: this.expiry(data), data: JSON.stringify(data) }))
+    const expiresAt = this.expiry(data);
+    const staleBefore = new Date(expiresAt.getTime() - 60_000);
+    withWriteLock(this.dataSource, () => this.repository.update({ sid, expiresAt: LessThan(staleBefore) }, { expiresAt }))
       .then(() => callback?.())
       .catch((error: unknown) => callback?.(error));
   }

@@ -43,6 +43,9 @@ describe('SQLite session store', () => {
     const evenLater = new Date(Date.now() + 120_000);
     await call((cb) => store.touch('s1', sessionFor(evenLater, 1), cb));
     expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's1' })).expiresAt.getTime()).toBe(evenLater.getTime());
+    // A touch that would move the expiry by less than a minute is not written.
+    await call((cb) => store.touch('s1', sessionFor(new Date(evenLater.getTime() + 30_000), 1), cb));
+    expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's1' })).expiresAt.getTime()).toBe(evenLater.getTime());
 
     await call((cb) => store.destroy('s1', cb));
     expect(await call((cb) => store.get('s1', cb))).toBeNull();
