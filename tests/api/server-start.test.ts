@@ -11,7 +11,12 @@ import { afterAll, describe, expect, it } from 'vitest';
  */
 
 const directory = mkdtempSync(join(tmpdir(), 'scorecourt-start-'));
-afterAll(() => rmSync(directory, { recursive: true, force: true }));
+const children: ChildProcess[] = [];
+afterAll(() => {
+  // A failed assertion must not leave a server running.
+  for (const child of children) if (child.exitCode === null && child.signalCode === null) child.kill('SIGKILL');
+  rmSync(directory, { recursive: true, force: true });
+});
 
 interface Running {
   child: ChildProcess;
@@ -24,6 +29,7 @@ function start(): Promise<Running> {
     env: { ...process.env, NODE_ENV: 'development', PORT: '0', DATABASE_PATH: join(directory, 'db.sqlite'), BCRYPT_COST: '4', SMTP_URL: '', LOG_LEVEL: 'warn' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
+  children.push(child);
   let text = '';
   child.stdout!.on('data', (chunk: Buffer) => (text += chunk.toString()));
   child.stderr!.on('data', (chunk: Buffer) => (text += chunk.toString()));
