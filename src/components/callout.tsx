@@ -1,6 +1,6 @@
 import { type ReactNode } from 'react';
 import { cn } from '@/lib/cn';
-import { CautionIcon, CheckCircleIcon, ErrorIcon, InfoIcon } from '@/components/icons';
+import { CautionIcon, CheckCircleIcon, CrossIcon, ErrorIcon, InfoIcon } from '@/components/icons';
 
 export type CalloutTone = 'info' | 'caution' | 'error' | 'success';
 
@@ -24,21 +24,33 @@ type CalloutProps = {
    * messages that appear after an action; leave off for standing notes such as cautions.
    */
   live?: boolean;
+  /** Shows a small "Dismiss" (×) button at the right. */
+  onDismiss?: () => void;
 };
 
 /** A boxed note with an icon and words: information, a caution, an error or a success. */
-export function Callout({ tone = 'info', title, children, actions, className, live = false }: CalloutProps) {
+export function Callout({ tone = 'info', title, children, actions, className, live = false, onDismiss }: CalloutProps) {
   const { box, icon, Icon, label } = tones[tone];
   const role = live ? (tone === 'error' || tone === 'caution' ? 'alert' : 'status') : undefined;
   return (
     <div role={role} className={cn('flex gap-3 rounded-md border p-3.5 text-sm text-ink print:bg-transparent', box, className)}>
       <Icon className={cn('mt-0.5 size-5 shrink-0', icon)} />
-      <div className="min-w-0 space-y-1">
+      <div className="min-w-0 flex-1 space-y-1">
         {/* The tone in words, so the icon's colour and shape are never the only signal. */}
         <p className={title ? 'font-semibold' : 'sr-only'}>{title ?? label}</p>
         {children ? <div className="space-y-1 text-ink [&_a]:font-medium [&_a]:underline">{children}</div> : null}
         {actions ? <div className="flex flex-wrap gap-2 pt-1.5">{actions}</div> : null}
       </div>
+      {onDismiss ? (
+        <button
+          type="button"
+          onClick={onDismiss}
+          aria-label="Dismiss"
+          className="-m-1 self-start rounded-sm p-1 text-ink-soft hover:bg-paper-raised/60 hover:text-ink focus-visible:outline-2 focus-visible:outline-court-500 print:hidden"
+        >
+          <CrossIcon className="size-4" />
+        </button>
+      ) : null}
     </div>
   );
 }

@@ -217,6 +217,48 @@ describe('people and the outbox', () => {
   });
 });
 
+describe('password reset', () => {
+  it('a person asks for a reset link, and the e-mailed link sets a new password', async () => {
+    const person = await openPage(browser, server.url);
+    const admin = await openPage(browser, server.url);
+    const email = 'committee2@tallowmere.test';
+    try {
+      await person.page.goto(paths.auth.signIn());
+      await person.page.getByRole('link', { name: 'Forgot your password?' }).click();
+      await person.page.getByRole('heading', { level: 1, name: 'Reset your password' }).waitFor();
+      await person.page.getByLabel('E-mail address').fill(email);
+      await person.page.getByRole('button', { name: 'Send reset link' }).click();
+      await person.page.getByText('Check your e-mail').waitFor();
+      await person.screenshot('forgot-password-sent');
+
+      // The link, read from the outbox by an admin (the SMTP sink stands in for the person's inbox).
+      await admin.page.goto(paths.admin.outbox());
+      await signIn(admin, 'admin@tallowmere.test');
+      await admin.page.getByRole('heading', { level: 1, name: 'Outbox' }).waitFor();
+      const row = admin.page.getByRole('row').filter({ hasText: email }).first();
+      await row.waitFor();
+      await row.getByRole('button').first().click();
+      const text = await admin.page.getByRole('dialog').getByRole('document').innerText();
+      const link = /\/accept\/[A-Za-z0-9._~%-]+/.exec(text);
+      expect(link, `no /accept/<token> link in the reset e-mail:\n${text}`).not.toBeNull();
+
+      await person.page.goto(link![0]);
+      await person.page.getByRole('heading', { level: 1, name: 'Choose a new password' }).waitFor();
+      await person.screenshot('reset-password');
+      await person.page.getByLabel('New password').fill('committee two new password');
+      await person.page.getByLabel('Type it again').fill('committee two new password');
+      await person.page.getByRole('button', { name: /Save new password and sign in/ }).click();
+      await person.page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
+
+      expect(person.unexpectedErrors()).toEqual([]);
+      expect(admin.unexpectedErrors()).toEqual([]);
+    } finally {
+      await person.close();
+      await admin.close();
+    }
+  });
+});
+
 describe('sign-in failures', () => {
   it('says so when the password is wrong', async () => {
     const tab = await openPage(browser, server.url);

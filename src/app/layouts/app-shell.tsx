@@ -1,4 +1,4 @@
-import { Link, NavLink, Navigate, Outlet, useLocation, useNavigation } from 'react-router';
+import { Link, NavLink, Navigate, Outlet, ScrollRestoration, useLocation, useNavigation } from 'react-router';
 import { paths } from '@/config/paths';
 import { cn } from '@/lib/cn';
 import { describeRoles, hasRole, useLogout, useUser } from '@/lib/auth';
@@ -83,6 +83,7 @@ export function AppShell() {
       <main id="main" tabIndex={-1} className="mx-auto w-full max-w-7xl flex-1 px-4 py-8 focus:outline-none sm:px-6">
         <Outlet />
       </main>
+      <ScrollRestoration />
       <footer data-print="hide" className="border-t border-line">
         <p className="mx-auto max-w-7xl px-4 py-4 text-xs text-ink-soft sm:px-6">
           Scorecourt advises; your institution decides. Follow your model risk policy, local regulation and licensed advice.

@@ -60,7 +60,7 @@ export function Component() {
       />
       <div className="space-y-4">
         {notice ? (
-          <Alert tone="success" actions={<Button size="sm" variant="ghost" onClick={() => setNotice(null)}>Dismiss</Button>}>
+          <Alert tone="success" onDismiss={() => setNotice(null)}>
             <p>{notice}</p>
           </Alert>
         ) : null}

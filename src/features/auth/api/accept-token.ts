@@ -18,8 +18,9 @@ export function useAcceptToken(token: string) {
     mutationFn: (input: AcceptTokenInput) => acceptToken(token, input),
     onSuccess: (user) => {
       signedIn(user);
-      // The link is spent now; forget what it said.
-      queryClient.removeQueries({ queryKey: ['auth', 'tokens', token] });
+      // The link is spent: mark what it said as stale for the next visit, without refetching now
+      // (a refetch would answer 410 and flash "link used" before the page moves on).
+      void queryClient.invalidateQueries({ queryKey: ['auth', 'tokens', token], refetchType: 'none' });
     },
   });
 }
