@@ -96,7 +96,7 @@ function radixArgsort(values: Float64Array): Uint32Array {
   }
 
   let index: Uint32Array | null = null;
-  let nextIndex = new Uint32Array(n);
+  let nextIndex: Uint32Array = new Uint32Array(n);
   let nextLo = passes.length > 1 ? new Uint32Array(n) : lo;
   let nextHi = passes.length > 1 ? new Uint32Array(n) : hi;
   for (let p = 0; p < passes.length; p++) {
@@ -119,7 +119,7 @@ function radixArgsort(values: Float64Array): Uint32Array {
         nextHi[at] = hi[i];
       }
     }
-    const previous: Uint32Array = index ?? new Uint32Array(n);
+    const previous = index ?? new Uint32Array(n);
     index = nextIndex;
     nextIndex = previous;
     if (!last) {
