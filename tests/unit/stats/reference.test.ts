@@ -81,8 +81,14 @@ describe.each(cases.filter((c) => !c.single))('reference holdout $file', (refere
         const code = column.levels.indexOf(expectedSegment.value);
         const rows: number[] = [];
         for (let i = 0; i < holdout.n; i++) if (column.codes[i] === code) rows.push(i);
-        const pick = <T extends Float64Array | Uint8Array>(values: T): T => (values.constructor as new (v: number[]) => T).from(rows.map((i) => values[i])) as T;
-        const sub: Holdout = { ...holdout, n: rows.length, bad: pick(holdout.bad), champion: pick(holdout.champion), challenger: pick(holdout.challenger), segments: [] };
+        const sub: Holdout = {
+          ...holdout,
+          n: rows.length,
+          bad: Uint8Array.from(rows, (i) => holdout.bad[i]),
+          champion: Float64Array.from(rows, (i) => holdout.champion[i]),
+          challenger: Float64Array.from(rows, (i) => holdout.challenger[i]),
+          segments: [],
+        };
         const blocks = blocksOf(sub);
         const result = pairedDelong(blocks.champion, blocks.challenger, sub.bad, 0.95);
         expect(sub.n).toBe(expectedSegment.n);
