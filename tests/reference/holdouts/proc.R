@@ -57,8 +57,18 @@ for (case in cases) {
         rows <- d[[case$segment]] == level
         c(list(value = level), paired(bad[rows], d[rows, ], case$higherIs))
       })
+      # Holm-adjusted p across the segments, one- and two-sided: p.adjust(method = "holm")
+      holm1 <- p.adjust(sapply(result$segments, function(s) s$pOneSided), method = "holm")
+      holm2 <- p.adjust(sapply(result$segments, function(s) s$pTwoSided), method = "holm")
+      for (i in seq_along(holm1)) {
+        result$segments[[i]]$pOneSidedHolm <- holm1[i]
+        result$segments[[i]]$pTwoSidedHolm <- holm2[i]
+      }
     }
   }
   out$cases[[case$file]] <- result
 }
+# Holm's adjustment on a fixed vector with a tie and values that cap at 1: p.adjust(method = "holm").
+holm_input <- c(0.01, 0.04, 0.03, 0.04, 0.2, 0.5)
+out$holm <- list(input = holm_input, adjusted = p.adjust(holm_input, method = "holm"))
 cat(toJSON(out, auto_unbox = TRUE, digits = NA, pretty = TRUE), "\n")
