@@ -111,14 +111,19 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
       }
     }
     let offset = 0;
-    if (layout!.header.length === 0 && rows.length > 0) {
-      const header = rows[0].map((name) => name.trim());
+    if (layout!.header.length === 0) {
+      // Blank lines before the header are skipped.
+      while (offset < rows.length && rows[offset].length === 1 && rows[offset][0].trim() === '') offset++;
+      if (offset === rows.length) return input.substring(consumed);
+    }
+    if (layout!.header.length === 0) {
+      const header = rows[offset].map((name) => name.trim());
       if (header.length > MAX_COLUMNS) {
         throw new HoldoutInputError('too_many_columns', `the header has ${header.length.toLocaleString('en-US')} columns; at most ${MAX_COLUMNS} are read`, 1);
       }
       layout!.header = header;
       handlers.onHeader(layout!);
-      offset = 1;
+      offset++;
     }
     if (rows.length > offset) {
       records += rows.length - offset;

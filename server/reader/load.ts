@@ -189,10 +189,11 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     if (value === MISSING) {
       missingByColumn[name]++;
       if (dropMissing) return true;
+      const shown = cell.trim().length > 0 ? `missing (${quoteCell(cell.trim())})` : 'empty';
       sink.report(
         new HoldoutInputError(
           'missing_score',
-          `${where(line, name)}: the score is empty (rows with a missing score can be left out with the drop-missing option)`,
+          `${where(line, name)}: the score is ${shown}; rows with a missing score can be left out with the drop-missing option`,
           line,
           name,
         ),
