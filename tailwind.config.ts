@@ -1,7 +1,9 @@
 import type { Config } from 'tailwindcss';
 
-// Scorecourt's own palette: ink for text, slate-blue for structure, and two muted signal colours
-// (verdict green-teal, caution amber) that always come with a word or a symbol, never alone.
+// Scorecourt's own palette: ink for text, slate-blue ("court") for structure, one colour per model
+// (champion violet, challenger copper) and three muted signal colours (good, caution, bad) that
+// always come with a word or a symbol, never alone. `strong` shades are for text on the `soft`
+// backgrounds; every text pairing used by the components is at least 4.5:1 (WCAG 2.2 AA).
 export default {
   content: ['./index.html', './src/**/*.{ts,tsx}'],
   theme: {
@@ -11,9 +13,9 @@ export default {
         mono: ['ui-monospace', 'SFMono-Regular', 'Menlo', 'monospace'],
       },
       colors: {
-        ink: { DEFAULT: '#1d2430', soft: '#4a5567', faint: '#7b8596' },
+        ink: { DEFAULT: '#1d2430', soft: '#4a5567', faint: '#687284' },
         paper: { DEFAULT: '#f7f6f2', raised: '#ffffff', sunk: '#eeece6' },
-        line: { DEFAULT: '#d9d6cc', strong: '#b9b4a6' },
+        line: { DEFAULT: '#dedbd2', strong: '#b9b4a6' },
         court: {
           50: '#eef3f8',
           100: '#d8e3ee',
@@ -26,11 +28,11 @@ export default {
           800: '#1c3147',
           900: '#142333',
         },
-        champion: { DEFAULT: '#6b5b95', soft: '#e7e2f1' },
-        challenger: { DEFAULT: '#c26a2e', soft: '#f6e4d6' },
-        good: { DEFAULT: '#2d7a66', soft: '#dcefe8' },
-        caution: { DEFAULT: '#a6731c', soft: '#f5ead2' },
-        bad: { DEFAULT: '#a33a3a', soft: '#f4dcdc' },
+        champion: { DEFAULT: '#6b5b95', soft: '#e7e2f1', strong: '#4f4172' },
+        challenger: { DEFAULT: '#c26a2e', soft: '#f6e4d6', strong: '#8a4515' },
+        good: { DEFAULT: '#2d7a66', soft: '#dcefe8', strong: '#1f5d4d' },
+        caution: { DEFAULT: '#a6731c', soft: '#f5ead2', strong: '#7a5210' },
+        bad: { DEFAULT: '#a33a3a', soft: '#f4dcdc', strong: '#842c2c' },
       },
     },
   },

@@ -1,0 +1,123 @@
+import { randomUUID } from 'node:crypto';
+import { join } from 'node:path';
+import express, { type Express, type RequestHandler } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import type { DataSource } from 'typeorm';
+import { csrfProtection } from './auth/csrf';
+import { createPassport } from './auth/passport';
+import { authRoutes } from './auth/router';
+import { SqliteSessionStore } from './auth/session-store';
+import type { Config } from './config';
+import type { AppContext } from './context';
+import { apiNotFound, errorMiddleware } from './errors';
+import { clientRouter, noClientRouter } from './http/client';
+import { healthRoutes } from './http/health';
+import { mountRoutes, type RouteDefinition } from './http/routes';
+import { createLogger, type Logger } from './log';
+import type { Mailer } from './mail/mailer';
+import { outboxRoutes } from './mail/router';
+import { projectRoot } from './runtime';
+import { userRoutes } from './users/router';
+
+export interface AppDeps {
+  config: Config;
+  dataSource: DataSource;
+  mailer: Mailer;
+  /** The secret that signs session cookies (config.sessionSecret, or the database's generated one). */
+  sessionSecret: string;
+  log?: Logger;
+  /** Where the built client is; defaults to dist/client in the project folder. */
+  clientDir?: string;
+}
+
+/** Sessions last 8 hours from the last request. */
+const sessionIdleMs = 8 * 60 * 60 * 1000;
+
+/** Every API route, feature by feature. A new feature adds its `…Routes(ctx)` here. */
+function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>): RouteDefinition[] {
+  return [...healthRoutes(), ...authRoutes(ctx, passport), ...userRoutes(ctx), ...outboxRoutes(ctx)];
+}
+
+const requestId: RequestHandler = (_req, res, next) => {
+  res.setHeader('X-Request-Id', randomUUID());
+  next();
+};
+
+/**
+ * Builds the Express app: security headers, the API under /api (JSON body, session, passport,
+ * CSRF, the route registry, JSON 404), the built client for everything else, and the one error
+ * middleware. Tests build their own with a temporary database.
+ */
+export function createApp(deps: AppDeps): Express {
+  const { config, dataSource, mailer } = deps;
+  const log = deps.log ?? createLogger(config.logLevel);
+  const ctx: AppContext = { config, dataSource, mailer, log };
+
+  const app = express();
+  app.set('trust proxy', config.trustProxy);
+  app.set('query parser', 'simple');
+  app.use(requestId);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          fontSrc: ["'self'", 'data:'],
+          imgSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          frameAncestors: ["'none'"],
+        },
+      },
+      strictTransportSecurity: config.isProduction,
+    }),
+  );
+
+  const store = new SqliteSessionStore(dataSource, log, { defaultTtlMs: sessionIdleMs, pruneEveryMs: 10 * 60_000 });
+  const passport = createPassport(dataSource, config.bcryptCost);
+  const routes = apiRoutes(ctx, passport);
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(
+    session({
+      name: 'scorecourt.sid',
+      secret: deps.sessionSecret,
+      store,
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      unset: 'destroy',
+      cookie: { httpOnly: true, sameSite: 'lax', secure: config.isProduction, maxAge: sessionIdleMs, path: '/' },
+    }),
+  );
+  api.use(passport.initialize());
+  api.use(passport.session());
+  api.use(csrfProtection);
+  mountRoutes(api, routes);
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  app.use(config.serveClient ? clientRouter(deps.clientDir ?? join(projectRoot, 'dist', 'client')) : noClientRouter());
+  app.use(errorMiddleware(log));
+
+  app.locals.routes = routes;
+  app.locals.close = () => store.close();
+  return app;
+}
+
+/** The route registry of an app made by createApp (for the role matrix and the docs). */
+export function routeTable(app: Express): readonly RouteDefinition[] {
+  return app.locals.routes as RouteDefinition[];
+}
+
+/** Stops the app's timers (the session pruner); the caller closes the server and database. */
+export function closeApp(app: Express): void {
+  (app.locals.close as () => void)();
+}

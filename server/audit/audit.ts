@@ -1,0 +1,106 @@
+import { createHash } from 'node:crypto';
+import type { DataSource, EntityManager } from 'typeorm';
+import { AuditEvent } from '../db/entities/index';
+import { canonicalJson } from './canonical-json';
+
+/**
+ * The append-only audit trail with a hash chain.
+ *
+ * hash_i = SHA-256( prevHash_i + "\n" + canonical_i ), prevHash_i = hash_{i−1} (64 zeros for the
+ * first event), canonical_i = canonical JSON of { action, actorId, createdAt (ISO 8601),
+ * details, prevHash, targetId, targetType }. Changing, removing or reordering any stored event
+ * breaks the chain at that event or the next; `verifyAuditChain` finds where. (Removing only the
+ * newest events cannot be detected from the chain alone.)
+ *
+ * There is no update or delete here, and database triggers refuse both.
+ */
+
+export const genesisHash = '0'.repeat(64);
+
+export interface AuditInput {
+  /** The signed-in person, or null for the system. */
+  actor: { id: number } | null;
+  action: string;
+  target: { type: string; id: string | number | null };
+  details?: Record<string, unknown>;
+}
+
+function canonicalEvent(event: Pick<AuditEvent, 'action' | 'actorId' | 'createdAt' | 'details' | 'prevHash' | 'targetId' | 'targetType'>): string {
+  return canonicalJson({
+    action: event.action,
+    actorId: event.actorId,
+    createdAt: event.createdAt.toISOString(),
+    details: JSON.parse(event.details) as unknown,
+    prevHash: event.prevHash,
+    targetId: event.targetId,
+    targetType: event.targetType,
+  });
+}
+
+export function hashEvent(event: Parameters<typeof canonicalEvent>[0]): string {
+  return createHash('sha256').update(`${event.prevHash}\n${canonicalEvent(event)}`).digest('hex');
+}
+
+/**
+ * Appends one event. Call it with the transaction's manager, inside the same transaction as the
+ * change it records (see db/transaction.ts), so the change and its record are stored together.
+ */
+export async function recordAudit(manager: EntityManager, input: AuditInput): Promise<AuditEvent> {
+  if (!manager.queryRunner?.isTransactionActive) {
+    throw new Error('recordAudit must run inside the transaction of the change it records');
+  }
+  const repository = manager.getRepository(AuditEvent);
+  const [last] = await repository.find({ order: { id: 'DESC' }, take: 1, select: { id: true, hash: true } });
+  const event = repository.create({
+    actorId: input.actor?.id ?? null,
+    action: input.action,
+    targetType: input.target.type,
+    targetId: input.target.id === null ? null : String(input.target.id),
+    details: canonicalJson(input.details ?? {}),
+    createdAt: new Date(),
+    prevHash: last?.hash ?? genesisHash,
+  });
+  event.hash = hashEvent(event);
+  return repository.save(event);
+}
+
+export type ChainCheck = { ok: true; events: number } | { ok: false; events: number; brokenAt: number; reason: string };
+
+/** Re-computes every hash in order; reports the first event where the chain breaks. */
+export async function verifyAuditChain(source: DataSource | EntityManager, batchSize = 1000): Promise<ChainCheck> {
+  const repository = source.getRepository(AuditEvent);
+  let prevHash = genesisHash;
+  let afterId = 0;
+  let events = 0;
+  for (;;) {
+    const batch = await repository
+      .createQueryBuilder('event')
+      .where('event.id > :afterId', { afterId })
+      .orderBy('event.id', 'ASC')
+      .take(batchSize)
+      .getMany();
+    if (batch.length === 0) return { ok: true, events };
+    for (const event of batch) {
+      if (event.prevHash !== prevHash) {
+        return { ok: false, events, brokenAt: event.id, reason: 'its link to the previous event does not match (an event was removed, added or reordered)' };
+      }
+      let expected: string;
+      try {
+        expected = hashEvent(event);
+      } catch {
+        return { ok: false, events, brokenAt: event.id, reason: 'its details are not valid JSON' };
+      }
+      if (event.hash !== expected) {
+        return { ok: false, events, brokenAt: event.id, reason: 'its content does not match its hash (the event was changed)' };
+      }
+      prevHash = event.hash;
+      afterId = event.id;
+      events += 1;
+    }
+  }
+}
+
+/** The details of a stored event, parsed. */
+export function auditDetails(event: AuditEvent): Record<string, unknown> {
+  return JSON.parse(event.details) as Record<string, unknown>;
+}

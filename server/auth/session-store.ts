@@ -1,0 +1,103 @@
+import session from 'express-session';
+import { LessThan, type DataSource } from 'typeorm';
+import { Session } from '../db/entities/index';
+import { withWriteLock } from '../db/transaction';
+import type { Logger } from '../log';
+
+/**
+ * express-session store on the `sessions` table. Sessions survive restarts; each row records the
+ * signed-in person (`userId`) so deactivating someone can end their sessions at once. Expired
+ * rows are ignored when read and pruned every few minutes.
+ */
+export class SqliteSessionStore extends session.Store {
+  private readonly timer: NodeJS.Timeout;
+
+  constructor(
+    private readonly dataSource: DataSource,
+    private readonly log: Logger,
+    private readonly options: { defaultTtlMs: number; pruneEveryMs: number } = { defaultTtlMs: 86_400_000, pruneEveryMs: 10 * 60_000 },
+  ) {
+    super();
+    this.timer = setInterval(() => {
+      this.prune().catch((error: unknown) => this.log.warn('session prune failed', error));
+    }, this.options.pruneEveryMs);
+    this.timer.unref();
+  }
+
+  private get repository() {
+    return this.dataSource.getRepository(Session);
+  }
+
+  private expiry(data: session.SessionData): Date {
+    const expires = data.cookie?.expires;
+    if (expires) return new Date(expires);
+    return new Date(Date.now() + this.options.defaultTtlMs);
+  }
+
+  private static userIdOf(data: session.SessionData): number | null {
+    const user = (data as { passport?: { user?: unknown } }).passport?.user;
+    return typeof user === 'number' ? user : null;
+  }
+
+  override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
+    this.repository
+      .findOneBy({ sid })
+      .then((row) => {
+        if (!row) return callback(null, null);
+        if (row.expiresAt.getTime() <= Date.now()) {
+          this.destroy(sid);
+          return callback(null, null);
+        }
+        callback(null, JSON.parse(row.data) as session.SessionData);
+      })
+      .catch((error: unknown) => callback(error));
+  }
+
+  override set(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
+    const row = { sid, data: JSON.stringify(data), expiresAt: this.expiry(data), userId: SqliteSessionStore.userIdOf(data) };
+    withWriteLock(this.dataSource, () => this.repository.upsert(row, ['sid']))
+      .then(() => callback?.())
+      .catch((error: unknown) => callback?.(error));
+  }
+
+  /**
+   * Extends an unchanged session. Rolling sessions touch on every request, so the row is written
+   * only when its expiry would move by more than a minute.
+   */
+  override touch(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
+    const expiresAt = this.expiry(data);
+    const staleBefore = new Date(expiresAt.getTime() - 60_000);
+    withWriteLock(this.dataSource, () => this.repository.update({ sid, expiresAt: LessThan(staleBefore) }, { expiresAt }))
+      .then(() => callback?.())
+      .catch((error: unknown) => callback?.(error));
+  }
+
+  override destroy(sid: string, callback?: (err?: unknown) => void): void {
+    withWriteLock(this.dataSource, () => this.repository.delete({ sid }))
+      .then(() => callback?.())
+      .catch((error: unknown) => callback?.(error));
+  }
+
+  override clear(callback?: (err?: unknown) => void): void {
+    withWriteLock(this.dataSource, () => this.repository.clear())
+      .then(() => callback?.())
+      .catch((error: unknown) => callback?.(error));
+  }
+
+  override length(callback: (err: unknown, length?: number) => void): void {
+    this.repository
+      .count()
+      .then((count) => callback(null, count))
+      .catch((error: unknown) => callback(error));
+  }
+
+  /** Removes expired sessions; returns how many. */
+  async prune(): Promise<number> {
+    const result = await withWriteLock(this.dataSource, () => this.repository.delete({ expiresAt: LessThan(new Date()) }));
+    return result.affected ?? 0;
+  }
+
+  close(): void {
+    clearInterval(this.timer);
+  }
+}

@@ -1,0 +1,13 @@
+import { defineRoute, type RouteDefinition } from './routes';
+
+export function healthRoutes(): RouteDefinition[] {
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/health',
+      access: 'public',
+      summary: 'Liveness → { ok: true }',
+      handler: () => ({ ok: true }),
+    }),
+  ];
+}

@@ -1,0 +1,99 @@
+import type { Server } from 'node:http';
+import { closeApp, createApp } from './app';
+import { ConfigError, loadConfig, type Config } from './config';
+import { openDatabase } from './db/data-source';
+import { storedSessionSecret } from './db/settings';
+import { createLogger } from './log';
+import { Mailer } from './mail/mailer';
+import { createMailTransport } from './mail/transport';
+import { demoPassword, presentDemoPeople, seedDemo } from './seed';
+
+/**
+ * `node dist/server/index.js`: opens the database and migrates it, seeds the demo people (not in
+ * production), starts mail (the local sink unless SMTP_URL is set), listens, prints where, and
+ * shuts down cleanly on SIGTERM or SIGINT.
+ */
+
+function readConfig(): Config {
+  try {
+    return loadConfig();
+  } catch (error) {
+    if (error instanceof ConfigError) {
+      console.error(error.message);
+      process.exit(1);
+    }
+    throw error;
+  }
+}
+
+async function main(): Promise<void> {
+  const config = readConfig();
+  const log = createLogger(config.logLevel);
+
+  const dataSource = await openDatabase(config.databasePath);
+  const seeded = config.isProduction ? null : await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
+  const sessionSecret = config.sessionSecret ?? (await storedSessionSecret(dataSource));
+
+  const mail = await createMailTransport(config, dataSource, log);
+  const mailer = new Mailer(dataSource, mail.transport, { from: config.mailFrom, log });
+  await mailer.start();
+
+  const app = createApp({ config, dataSource, mailer, sessionSecret, log });
+  const server: Server = await new Promise((resolve, reject) => {
+    const listening = config.host ? app.listen(config.port, config.host) : app.listen(config.port);
+    listening.once('listening', () => resolve(listening));
+    listening.once('error', reject);
+  });
+  const address = server.address();
+  const port = address && typeof address === 'object' ? address.port : config.port;
+
+  const lines = [
+    '',
+    `Scorecourt is running at http://localhost:${port} (ready ${Math.round(performance.now())} ms after the process started)`,
+    `  database: ${config.databasePath}`,
+    `  mail:     ${mail.description}`,
+  ];
+  if (!config.isProduction) {
+    const demo = await presentDemoPeople(dataSource);
+    if (seeded?.seeded) lines.push('', `The database was empty: added ${seeded.people.length} demo people.`);
+    if (demo.length > 0) {
+      lines.push('', `Demo sign-ins (password "${demoPassword}"):`);
+      for (const person of demo) lines.push(`  ${person.email.padEnd(28)} ${person.roles.join(', ')}`);
+    }
+  }
+  console.log(lines.join('\n') + '\n');
+
+  let stopping = false;
+  const shutdown = (signal: string) => {
+    if (stopping) return;
+    stopping = true;
+    log.info(`${signal}: shutting down`);
+    const force = setTimeout(() => {
+      log.warn('shutdown took longer than 10 s; exiting');
+      process.exit(1);
+    }, 10_000);
+    force.unref();
+    server.close(() => {
+      (async () => {
+        closeApp(app);
+        await mailer.stop();
+        await mail.sink?.close();
+        await dataSource.destroy();
+      })().then(
+        () => process.exit(0),
+        (error: unknown) => {
+          log.error('error while shutting down', error);
+          process.exit(1);
+        },
+      );
+    });
+    server.closeIdleConnections();
+  };
+  process.on('SIGTERM', () => shutdown('SIGTERM'));
+  process.on('SIGINT', () => shutdown('SIGINT'));
+}
+
+main().catch((error: unknown) => {
+  console.error('Scorecourt could not start:', error);
+  process.exit(1);
+});

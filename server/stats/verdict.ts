@@ -1,0 +1,220 @@
+import type { AdoptionPolicy } from '@shared/policy';
+import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
+import { normalCdf } from './normal';
+
+/**
+ * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
+ * the policy enables is shown met or not met with its numbers; the outcome is
+ *   champion-better  the challenger is significantly worse at the policy's α (one-sided: the
+ *                    opposite one-sided test, p = Φ(z); two-sided: p < α with ΔGini < 0), or the
+ *                    ΔGini interval lies entirely below 0;
+ *   supported        otherwise, when every criterion is met;
+ *   not-proven       otherwise.
+ * Defaults and thresholds: DESIGN.md "Verdict" (materiality and minimum bads are common practice,
+ * no source). The criteria use the report's ΔGini interval at the report's confidence.
+ *
+ * A pure function of the report, the policy, and the swap sets at the policy's approval rate
+ * (which can differ from the report's): a stored report can be re-judged under a new policy
+ * version. When `swapAtPolicyRate` is not given, the report's own swap sets are used if they were
+ * matched to the policy's approval rate; otherwise the swap criterion is not met and says so.
+ * Cost: O(1).
+ */
+
+export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'>;
+
+export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null): Verdict {
+  const { difference } = report;
+  const alpha = policy.alpha;
+  const level = `${percent(report.settings.confidence)} interval`;
+  const giniPoints = difference.gini * 100;
+  const [lowPoints, highPoints] = [difference.giniCi[0] * 100, difference.giniCi[1] * 100];
+  const criteria: Criterion[] = [];
+
+  if (policy.sided === 'one-sided') {
+    const p = difference.pOneSided;
+    criteria.push({
+      id: 'significance',
+      label: 'Significant uplift',
+      met: p < alpha,
+      detail:
+        p < alpha
+          ? `one-sided ${pText(p)} < α = ${alpha} (DeLong test that the challenger's Gini is higher)`
+          : `one-sided ${pText(p)} is not below α = ${alpha} (DeLong test that the challenger's Gini is higher)`,
+    });
+  } else {
+    const p = difference.pTwoSided;
+    const higher = difference.gini > 0;
+    criteria.push({
+      id: 'significance',
+      label: 'Significant uplift',
+      met: p < alpha && higher,
+      detail:
+        p < alpha
+          ? `two-sided ${pText(p)} < α = ${alpha} (DeLong test)${higher ? " and the challenger's Gini is higher" : ", but the challenger's Gini is not higher"}`
+          : `two-sided ${pText(p)} is not below α = ${alpha} (DeLong test)`,
+    });
+  }
+
+  const required = policy.materialityGiniPoints;
+  const material = giniPoints >= required - 1e-9;
+  const digits = Math.abs(giniPoints - required) < 0.05 ? 2 : 1;
+  criteria.push({
+    id: 'materiality',
+    label: 'Material uplift',
+    met: material,
+    detail: `ΔGini = ${signedPoints(giniPoints, digits)} points, ${material ? 'at least' : 'below'} the ${required.toFixed(digits)} points required`,
+  });
+
+  if (policy.requireIntervalAboveZero) {
+    const above = difference.giniCi[0] > 0;
+    criteria.push({
+      id: 'interval',
+      label: 'Interval above zero',
+      met: above,
+      detail: `the ${level} of ΔGini is ${signedPoints(lowPoints)} to ${signedPoints(highPoints)} points: ${
+        above ? 'its lower bound is above 0' : difference.giniCi[1] < 0 ? 'it lies entirely below 0' : 'it includes 0'
+      }`,
+    });
+  }
+
+  const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
+  if (policy.swapRule.enabled) criteria.push(swapCriterion(swap, policy.swapRule.approvalRate));
+
+  criteria.push({
+    id: 'minimum-bads',
+    label: 'Enough bads',
+    met: report.bads >= policy.minBads,
+    detail:
+      report.bads >= policy.minBads
+        ? `${count(report.bads)} bads in the holdout, at least the ${count(policy.minBads)} required`
+        : `only ${count(report.bads)} bads in the holdout; the policy requires at least ${count(policy.minBads)}`,
+  });
+
+  const significantlyWorse =
+    policy.sided === 'one-sided'
+      ? normalCdf(difference.z) < alpha
+      : difference.pTwoSided < alpha && difference.gini < 0;
+  const outcome = significantlyWorse || difference.giniCi[1] < 0 ? 'champion-better' : criteria.every((c) => c.met) ? 'supported' : 'not-proven';
+
+  const p = policy.sided === 'one-sided' ? difference.pOneSided : difference.pTwoSided;
+  const direction =
+    Math.abs(giniPoints) < 0.05
+      ? "The challenger's Gini is the same as the champion's to one decimal"
+      : `The challenger's Gini is ${unsignedPoints(giniPoints)} points ${giniPoints > 0 ? 'higher' : 'lower'}`;
+  let summary = `${direction} (${level} ${signedPoints(lowPoints)} to ${signedPoints(highPoints)}, ${policy.sided} ${pText(p)})`;
+  const swapSentence = swap ? swapSummary(swap, policy.swapRule.approvalRate) : null;
+  summary += swapSentence ? `; ${swapSentence}.` : '.';
+
+  return { outcome, policyVersion: policy.version, criteria, summary };
+}
+
+function swapAt(report: VerdictEvidence, policy: AdoptionPolicy, given: SwapSets | null | undefined): SwapSets | null {
+  const rate = policy.swapRule.approvalRate;
+  const matches = (s: SwapSets) =>
+    s.basis === 'approval-rate' && s.requestedApprovalRate !== null && Math.abs(s.requestedApprovalRate - rate) < 1e-12;
+  if (given) {
+    if (!matches(given)) throw new Error(`verdict needs swap sets matched to the policy's ${percent(rate)} approval rate`);
+    return given;
+  }
+  return matches(report.swap) ? report.swap : null;
+}
+
+function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
+  const base = { id: 'swap-bad-rate' as const, label: 'Swap-in bad rate not above swap-out' };
+  const at = `at a ${percent(rate)} approval rate`;
+  if (!swap) {
+    return { ...base, met: false, detail: `swap sets ${at} were not computed for this report, so the rule cannot be checked` };
+  }
+  const { swapIn, swapOut, test } = swap;
+  if (swapIn.count === 0 && swapOut.count === 0) {
+    return { ...base, met: true, detail: `${at} both models accept the same accounts: there is no swap-in and no swap-out` };
+  }
+  if (swapIn.count === 0) {
+    return { ...base, met: true, detail: `${at} there is no swap-in; the swap-out is ${group(swapOut.count, swapOut.badRate)}` };
+  }
+  if (swapOut.count === 0) {
+    return {
+      ...base,
+      met: false,
+      detail: `${at} there is no swap-out to compare the swap-in (${group(swapIn.count, swapIn.badRate)}) with`,
+    };
+  }
+  // swapIn.bads / swapIn.count ≤ swapOut.bads / swapOut.count, compared exactly in integers.
+  const met = swapIn.bads * swapOut.count <= swapOut.bads * swapIn.count;
+  const testText =
+    test.p === null ? '' : ` (two-sided ${pText(test.p)}, ${test.method === 'fisher-exact' ? "Fisher's exact test" : 'two-proportion z test'})`;
+  return {
+    ...base,
+    met,
+    detail: `${at} the swap-in is ${group(swapIn.count, swapIn.badRate)} and the swap-out ${group(swapOut.count, swapOut.badRate)}: the swap-in bad rate is ${
+      met ? 'not above' : 'above'
+    } the swap-out's${testText}`,
+  };
+}
+
+function swapSummary(swap: SwapSets, rate: number): string {
+  const at = `at a ${percent(rate)} approval rate`;
+  const { swapIn, swapOut } = swap;
+  if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
+  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(swapIn.count)} with a ${rateText(swapIn.badRate)} bad rate`;
+  const outText = swapOut.count === 0 ? 'none' : `${count(swapOut.count)} with a ${rateText(swapOut.badRate)} bad rate`;
+  return `${at} it swaps in ${inText} for ${outText}`;
+}
+
+function group(n: number, badRate: number | null): string {
+  return `${accounts(n)} with a ${rateText(badRate)} bad rate`;
+}
+
+function accounts(n: number): string {
+  return `${count(n)} ${n === 1 ? 'account' : 'accounts'}`;
+}
+
+function count(n: number): string {
+  return n.toLocaleString('en-US');
+}
+
+function rateText(rate: number | null): string {
+  return rate === null ? 'undefined' : `${(rate * 100).toFixed(1)}%`;
+}
+
+/** 0.7 → "70%", 0.725 → "72.5%". */
+function percent(fraction: number): string {
+  return `${Number((fraction * 100).toFixed(1))}%`;
+}
+
+function signedPoints(points: number, digits = 1): string {
+  const text = points.toFixed(digits);
+  return Number(text) === 0 ? (0).toFixed(digits) : text.replace('-', '−');
+}
+
+function unsignedPoints(points: number): string {
+  return signedPoints(Math.abs(points));
+}
+
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '⁻',
+  '0': '⁰',
+  '1': '¹',
+  '2': '²',
+  '3': '³',
+  '4': '⁴',
+  '5': '⁵',
+  '6': '⁶',
+  '7': '⁷',
+  '8': '⁸',
+  '9': '⁹',
+};
+
+/** "p = 0.012", "p = 3.0 × 10⁻⁴" below 0.001, "p < 1 × 10⁻³⁰⁰" when it underflowed. */
+function pText(p: number): string {
+  if (p <= 0) return 'p < 1 × 10⁻³⁰⁰';
+  if (p < 0.001) {
+    const [mantissa, exponent] = p.toExponential(1).split('e');
+    const power = String(Number(exponent))
+      .split('')
+      .map((ch) => SUPERSCRIPT[ch])
+      .join('');
+    return `p = ${mantissa} × 10${power}`;
+  }
+  return `p = ${Number(p.toPrecision(2))}`;
+}

@@ -1,0 +1,78 @@
+import { type QueryClient } from '@tanstack/react-query';
+import { type ComponentType } from 'react';
+import { type LoaderFunction, type RouteObject, createBrowserRouter } from 'react-router';
+import { paths } from '@/config/paths';
+import { LoadingState } from '@/components/loading-state';
+import { requireUser } from '@/app/guards';
+import { AppShell } from '@/app/layouts/app-shell';
+import { RootErrorBoundary, RouteErrorBoundary } from '@/app/route-error';
+
+/**
+ * A route module in app/routes exports `Component` and, when the page needs data or a guard,
+ * `loader(queryClient)`: a loader factory that fills the query cache (`ensureQueryData`) so the
+ * component reads it. Modules load lazily: each page is its own chunk.
+ */
+interface RouteModule {
+  Component: ComponentType;
+  loader?: (queryClient: QueryClient) => LoaderFunction;
+}
+
+function page(queryClient: QueryClient, load: () => Promise<RouteModule>): Pick<RouteObject, 'lazy'> {
+  return {
+    lazy: async () => {
+      const module = await load();
+      return { Component: module.Component, ...(module.loader ? { loader: module.loader(queryClient) } : {}) };
+    },
+  };
+}
+
+function HydrateFallback() {
+  return (
+    <div className="flex min-h-screen items-center justify-center">
+      <LoadingState label="Loading Scorecourt…" />
+    </div>
+  );
+}
+
+export function createRoutes(queryClient: QueryClient): RouteObject[] {
+  return [
+    {
+      id: 'root',
+      ErrorBoundary: RootErrorBoundary,
+      HydrateFallback,
+      children: [
+        { path: paths.auth.signIn.pattern, ...page(queryClient, () => import('@/app/routes/auth/sign-in')) },
+        { path: paths.auth.forgotPassword.pattern, ...page(queryClient, () => import('@/app/routes/auth/forgot-password')) },
+        { path: paths.auth.accept.pattern, ...page(queryClient, () => import('@/app/routes/auth/accept')) },
+        {
+          id: 'app',
+          // Every page inside the shell needs a signed-in person; pages add their role guards.
+          loader: async ({ request }) => {
+            await requireUser(queryClient, request);
+            return null;
+          },
+          Component: AppShell,
+          children: [
+            {
+              // Errors of a page render inside the shell, so navigation stays available.
+              ErrorBoundary: RouteErrorBoundary,
+              children: [
+                { index: true, ...page(queryClient, () => import('@/app/routes/home')) },
+                { path: paths.admin.people.pattern, ...page(queryClient, () => import('@/app/routes/admin/people')) },
+                { path: paths.admin.outbox.pattern, ...page(queryClient, () => import('@/app/routes/admin/outbox')) },
+                ...(import.meta.env.DEV
+                  ? [{ path: paths.dev.components.pattern, ...page(queryClient, () => import('@/app/routes/dev/components')) }]
+                  : []),
+                { path: '*', ...page(queryClient, () => import('@/app/routes/not-found')) },
+              ],
+            },
+          ],
+        },
+      ],
+    },
+  ];
+}
+
+export function createAppRouter(queryClient: QueryClient) {
+  return createBrowserRouter(createRoutes(queryClient));
+}

@@ -1,0 +1,5 @@
+import { NotFoundPage } from '@/app/route-error';
+
+export function Component() {
+  return <NotFoundPage />;
+}

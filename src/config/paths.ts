@@ -1,0 +1,87 @@
+/**
+ * Every client URL, built here and nowhere else. Each entry is a function that builds the URL
+ * (`paths.comparisons.detail(12)` → "/comparisons/12") and carries the router pattern it matches
+ * (`paths.comparisons.detail.pattern` → "/comparisons/:id"), so routes and links cannot drift.
+ *
+ * The comparison pages are listed ahead of their screens so later work only adds the routes.
+ * The server builds the one-time link in e-mails as `/accept/:token` (paths.auth.accept).
+ */
+
+type Id = number | string;
+
+type Path<Args extends unknown[]> = ((...args: Args) => string) & { readonly pattern: string };
+
+function path<Args extends unknown[]>(pattern: string, build: (...args: Args) => string): Path<Args> {
+  return Object.assign(build, { pattern });
+}
+
+function fixed(pattern: string): Path<[]> {
+  return path(pattern, () => pattern);
+}
+
+const segment = (value: Id) => encodeURIComponent(String(value));
+
+/**
+ * A return path is only followed when it is a path on this site: it starts with one "/" and is
+ * not a protocol-relative "//host" or "/\host" (which browsers treat as another site).
+ */
+export function safeReturnPath(value: string | null | undefined): string | null {
+  if (!value || !value.startsWith('/') || value.startsWith('//') || value.startsWith('/\\')) return null;
+  return value;
+}
+
+function withQuery(base: string, query: Record<string, string | number | null | undefined>): string {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(query)) if (value !== null && value !== undefined && value !== '') params.set(key, String(value));
+  const text = params.toString();
+  return text ? `${base}?${text}` : base;
+}
+
+const comparison = (suffix: string) =>
+  path(`/comparisons/:id${suffix}`, (id: Id) => `/comparisons/${segment(id)}${suffix}`);
+
+export const paths = {
+  home: fixed('/'),
+
+  auth: {
+    /**
+     * Sign-in, with the page to return to afterwards, and why the person is here: `signed-out`
+     * (they chose to) or `expired` (their session ended while a page was open).
+     */
+    signIn: path('/sign-in', (options: { next?: string | null; reason?: 'signed-out' | 'expired' } = {}) =>
+      withQuery('/sign-in', { next: safeReturnPath(options.next), reason: options.reason }),
+    ),
+    forgotPassword: fixed('/forgot-password'),
+    /** The one-time link of an invitation or password reset. */
+    accept: path('/accept/:token', (token: string) => `/accept/${segment(token)}`),
+  },
+
+  comparisons: {
+    list: path('/comparisons', (filters: { state?: string; q?: string; page?: number } = {}) =>
+      withQuery('/comparisons', filters),
+    ),
+    new: fixed('/comparisons/new'),
+    /** The verdict is a comparison's front page. */
+    detail: comparison(''),
+    curves: comparison('/curves'),
+    swapSets: comparison('/swap-sets'),
+    segments: comparison('/segments'),
+    bands: comparison('/bands'),
+    data: comparison('/data'),
+    review: comparison('/review'),
+    report: comparison('/report'),
+  },
+
+  admin: {
+    people: fixed('/admin/people'),
+    policy: fixed('/admin/policy'),
+    outbox: path('/admin/outbox', (options: { page?: number } = {}) =>
+      withQuery('/admin/outbox', { page: options.page && options.page > 1 ? options.page : null }),
+    ),
+  },
+
+  /** Development only (`npm run dev`): the shared components in their states. */
+  dev: {
+    components: fixed('/dev/components'),
+  },
+} as const;

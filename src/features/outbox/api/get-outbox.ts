@@ -1,0 +1,30 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { outboxResponseSchema } from '@shared/users';
+import { api } from '@/lib/api-client';
+
+export interface OutboxPage {
+  /** 1-based page number. */
+  page: number;
+  pageSize: number;
+}
+
+export const OUTBOX_PAGE_SIZE = 25;
+
+/** GET /api/outbox?page=&pageSize= → { messages, total }, newest first (admin). */
+export async function getOutbox({ page, pageSize }: OutboxPage) {
+  return api.get('/api/outbox', { query: { page, pageSize }, schema: outboxResponseSchema });
+}
+
+export const outboxQueryOptions = (params: OutboxPage) =>
+  queryOptions({
+    queryKey: ['outbox', 'list', params],
+    queryFn: () => getOutbox(params),
+    // The outbox is a live log: always check on opening, and keep checking while mail is queued.
+    staleTime: 0,
+    placeholderData: keepPreviousData,
+    refetchInterval: (query) => (query.state.data?.messages.some((message) => message.status === 'queued') ? 3000 : false),
+  });
+
+export function useOutbox(params: OutboxPage) {
+  return useQuery(outboxQueryOptions(params));
+}

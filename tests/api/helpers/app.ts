@@ -1,0 +1,83 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { Express } from 'express';
+import nodemailer, { type Transporter } from 'nodemailer';
+import type { DataSource } from 'typeorm';
+import { closeApp, createApp } from '@server/app';
+import { loadConfig, type Config } from '@server/config';
+import { openDatabase } from '@server/db/data-source';
+import { MailMessage } from '@server/db/entities/index';
+import { createLogger } from '@server/log';
+import { Mailer, type MailerOptions } from '@server/mail/mailer';
+import { startSmtpSink, type SmtpSink } from '@server/mail/sink';
+import { seedDemo } from '@server/seed';
+
+/**
+ * A real app on a real temporary SQLite file, with the real local SMTP sink, for API tests.
+ * bcrypt runs at cost 4 so the suite stays quick; everything else is as in production.
+ */
+export interface TestApp {
+  app: Express;
+  dataSource: DataSource;
+  mailer: Mailer;
+  sink: SmtpSink;
+  config: Config;
+  directory: string;
+  /** Waits for the outbox to deliver, then for the sink to have stored message `id` (or the newest). */
+  deliveredMail(where?: { to?: string; afterId?: number }): Promise<MailMessage>;
+  close(): Promise<void>;
+}
+
+export function testConfig(overrides: Partial<Config> = {}, directory = mkdtempSync(join(tmpdir(), 'scorecourt-test-'))): Config {
+  return {
+    ...loadConfig({ NODE_ENV: 'test', PORT: '0', BCRYPT_COST: '4', LOG_LEVEL: 'silent', PUBLIC_URL: 'http://scorecourt.test' }),
+    databasePath: join(directory, 'test.sqlite'),
+    ...overrides,
+  };
+}
+
+export async function buildTestApp(
+  options: { seed?: boolean; config?: Partial<Config>; directory?: string; transport?: Transporter; mailer?: Partial<MailerOptions> } = {},
+): Promise<TestApp> {
+  const directory = options.directory ?? mkdtempSync(join(tmpdir(), 'scorecourt-test-'));
+  const config = testConfig(options.config, directory);
+  const log = createLogger(config.logLevel);
+  const dataSource = await openDatabase(config.databasePath);
+  if (options.seed !== false) await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
+  const sink = await startSmtpSink(dataSource, log);
+  const transport = options.transport ?? nodemailer.createTransport({ host: sink.host, port: sink.port, secure: false, ignoreTLS: true });
+  const mailer = new Mailer(dataSource, transport, { from: config.mailFrom, log, pollMs: 60_000, ...options.mailer });
+  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log });
+
+  async function deliveredMail(where: { to?: string; afterId?: number } = {}): Promise<MailMessage> {
+    const deadline = Date.now() + 10_000;
+    for (;;) {
+      await mailer.whenIdle();
+      const messages = await dataSource.getRepository(MailMessage).find({ order: { id: 'DESC' } });
+      const found = messages.find(
+        (message) => (!where.to || message.to.includes(where.to)) && message.id > (where.afterId ?? 0) && message.receivedAt !== null,
+      );
+      if (found) return found;
+      if (Date.now() > deadline) throw new Error(`no delivered mail${where.to ? ` to ${where.to}` : ''} within 10 s`);
+      await new Promise((resolve) => setTimeout(resolve, 20));
+    }
+  }
+
+  return {
+    app,
+    dataSource,
+    mailer,
+    sink,
+    config,
+    directory,
+    deliveredMail,
+    async close() {
+      closeApp(app);
+      await mailer.stop();
+      await sink.close();
+      await dataSource.destroy();
+      if (!options.directory) rmSync(directory, { recursive: true, force: true });
+    },
+  };
+}

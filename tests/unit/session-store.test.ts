@@ -1,0 +1,62 @@
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import type { SessionData } from 'express-session';
+import type { DataSource } from 'typeorm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { SqliteSessionStore } from '@server/auth/session-store';
+import { openDatabase } from '@server/db/data-source';
+import { Session, User } from '@server/db/entities/index';
+import { createLogger } from '@server/log';
+
+let directory: string;
+let dataSource: DataSource;
+let store: SqliteSessionStore;
+
+beforeAll(async () => {
+  directory = mkdtempSync(join(tmpdir(), 'scorecourt-sessions-'));
+  dataSource = await openDatabase(join(directory, 'db.sqlite'));
+  store = new SqliteSessionStore(dataSource, createLogger('silent'));
+  await dataSource.getRepository(User).save({ email: 'a@tallowmere.test', name: 'A', passwordHash: null, roles: ['admin'], active: true, createdAt: new Date() });
+});
+afterAll(async () => {
+  store.close();
+  await dataSource.destroy();
+  rmSync(directory, { recursive: true, force: true });
+});
+
+const call = <T>(run: (callback: (error: unknown, value?: T) => void) => void) =>
+  new Promise<T | undefined>((resolve, reject) => run((error, value) => (error ? reject(error) : resolve(value))));
+
+function sessionFor(expires: Date, user?: number): SessionData {
+  return { cookie: { expires, originalMaxAge: 1000, httpOnly: true, path: '/' }, ...(user ? { passport: { user } } : {}) } as unknown as SessionData;
+}
+
+describe('SQLite session store', () => {
+  it('stores, reads, touches and destroys a session, recording whose it is', async () => {
+    const later = new Date(Date.now() + 60_000);
+    await call((cb) => store.set('s1', sessionFor(later, 1), cb));
+    expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's1' })).userId).toBe(1);
+    const read = await call<SessionData | null>((cb) => store.get('s1', cb));
+    expect((read as unknown as { passport: { user: number } }).passport.user).toBe(1);
+
+    const evenLater = new Date(Date.now() + 120_000);
+    await call((cb) => store.touch('s1', sessionFor(evenLater, 1), cb));
+    expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's1' })).expiresAt.getTime()).toBe(evenLater.getTime());
+    // A touch that would move the expiry by less than a minute is not written.
+    await call((cb) => store.touch('s1', sessionFor(new Date(evenLater.getTime() + 30_000), 1), cb));
+    expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's1' })).expiresAt.getTime()).toBe(evenLater.getTime());
+
+    await call((cb) => store.destroy('s1', cb));
+    expect(await call((cb) => store.get('s1', cb))).toBeNull();
+  });
+
+  it('ignores and prunes expired sessions', async () => {
+    await call((cb) => store.set('old', sessionFor(new Date(Date.now() - 1000)), cb));
+    await call((cb) => store.set('new', sessionFor(new Date(Date.now() + 60_000)), cb));
+    expect(await call((cb) => store.get('old', cb))).toBeNull();
+    await call((cb) => store.set('old2', sessionFor(new Date(Date.now() - 1000)), cb));
+    expect(await store.prune()).toBe(1);
+    expect(await call((cb) => store.get('new', cb))).not.toBeNull();
+  });
+});

@@ -1,0 +1,89 @@
+import { readFileSync } from 'node:fs';
+import { strategyCurveSchema } from '@shared/report';
+import { describe, expect, it } from 'vitest';
+import { preparePolicyData } from '@server/stats/policy-data';
+import { strategyCurve } from '@server/stats/strategy-curve';
+import { makeHoldout } from './policy-fixtures';
+
+// The ten accounts of swap-sets.test.ts.
+const data = preparePolicyData(
+  makeHoldout({
+    champion: [10, 20, 30, 40, 50, 60, 70, 80, 90, 100],
+    challenger: [0.9, 0.1, 0.8, 0.2, 0.7, 0.3, 0.6, 0.4, 0.5, 0.05],
+    bad: [1, 0, 1, 0, 1, 1, 0, 0, 1, 0],
+    higherIs: { champion: 'safer', challenger: 'riskier' },
+  }),
+  { bands: 2 },
+);
+
+describe('strategyCurve', () => {
+  it('has a point for every whole percent and the report rate, in order', () => {
+    const curve = strategyCurve(data, 0.305);
+    expect(strategyCurveSchema.parse(curve)).toEqual(curve);
+    expect(curve.points).toHaveLength(101);
+    expect(curve.points.map((p) => p.approvalRate).slice(29, 32)).toEqual([0.3, 0.305, 0.31]);
+    expect(strategyCurve(data, 0.3).points).toHaveLength(100);
+  });
+
+  it('gives portfolio and marginal bad rates computed by hand', () => {
+    const curve = strategyCurve(data, 0.3);
+    const at = (rate: number) => curve.points.find((p) => p.approvalRate === rate)!;
+    // Champion safest first: 100 g, 90 B, 80 g, 70 g, 60 B, … (computed by hand). With n = 10,
+    // 1% already needs k = ⌈0.1⌉ = 1 account, and 2% … 10% the same one: they add nobody.
+    expect(at(0.01).champion).toEqual({ cutoff: 100, achievedApprovalRate: 0.1, portfolioBadRate: 0, marginalBadRate: 0 });
+    expect(at(0.1).champion).toEqual({ cutoff: 100, achievedApprovalRate: 0.1, portfolioBadRate: 0, marginalBadRate: null });
+    // 11% needs k = 2: it adds account 90, a bad (marginal 1); 12% … 20% add nobody.
+    expect(at(0.11).champion).toEqual({ cutoff: 90, achievedApprovalRate: 0.2, portfolioBadRate: 0.5, marginalBadRate: 1 });
+    expect(at(0.2).champion).toEqual({ cutoff: 90, achievedApprovalRate: 0.2, portfolioBadRate: 0.5, marginalBadRate: null });
+    // Challenger lowest PDs first: 0.05 g, 0.1 g, 0.2 g, 0.3 B, 0.4 g.
+    expect(at(0.4).challenger).toMatchObject({ cutoff: 0.3, achievedApprovalRate: 0.4, portfolioBadRate: 0.25 });
+    expect(at(1).champion).toMatchObject({ cutoff: 10, achievedApprovalRate: 1, portfolioBadRate: 0.5 });
+  });
+
+  it('counts bads avoided at equal approval and approvals gained at equal bad rate', () => {
+    const { atApprovalRate } = strategyCurve(data, 0.3);
+    // Computed by hand at 30%: champion approves 100, 90, 80 (1 bad); challenger 0.05, 0.1, 0.2 (0 bads).
+    // Challenger books by size and bads: 4/1, 5/1, 6/2, 7/2, 8/3 …; the largest with a bad rate
+    // ≤ 1/3 is 7 accounts (2/7), so 7 − 3 = 4 approvals gained.
+    expect(atApprovalRate).toEqual({ approvalRate: 0.3, championBads: 1, challengerBads: 0, badsAvoided: 1, approvalsGainedAtEqualBadRate: 4 });
+  });
+
+  it('is null for approvals gained when no challenger book reaches the champion bad rate', () => {
+    // Champion accepts a bad-free account first; the challenger's safest account is bad (by hand).
+    const worse = preparePolicyData(makeHoldout({ champion: [1, 2, 3, 4], challenger: [4, 3, 2, 1], bad: [1, 1, 0, 0] }), { bands: 2 });
+    expect(strategyCurve(worse, 0.25).atApprovalRate).toEqual({ approvalRate: 0.25, championBads: 0, challengerBads: 1, badsAvoided: -1, approvalsGainedAtEqualBadRate: null });
+  });
+
+  it('agrees with an independent numpy implementation on a 3,000-account holdout', () => {
+    // tests/reference/policy/swaps_numpy.py → swaps-numpy.json; counts exact.
+    const reference = JSON.parse(readFileSync('tests/reference/policy/swaps-numpy.json', 'utf8')) as {
+      holdout: { champion: number[]; challenger: number[]; bad: number[] };
+      strategy: ({ approvalRate: number } & Record<'champion' | 'challenger', { cutoff: number; accepted: number; bads: number }>)[];
+      atApprovalRate: Record<string, number | null>;
+    };
+    const big = preparePolicyData(makeHoldout({ ...reference.holdout, higherIs: { champion: 'safer', challenger: 'riskier' } }), { bands: 10 });
+    const curve = strategyCurve(big, 0.7);
+    for (const expected of reference.strategy) {
+      const point = curve.points.find((p) => Math.abs(p.approvalRate - expected.approvalRate) < 1e-12)!;
+      for (const model of ['champion', 'challenger'] as const) {
+        expect(point[model].cutoff).toBe(expected[model].cutoff);
+        expect(point[model].achievedApprovalRate).toBe(expected[model].accepted / 3000);
+        expect(point[model].portfolioBadRate).toBe(expected[model].bads / expected[model].accepted);
+      }
+    }
+    expect(curve.atApprovalRate).toEqual(reference.atApprovalRate);
+  });
+
+  it('approves the whole book at every rate when all accounts are tied', () => {
+    const tied = preparePolicyData(makeHoldout({ champion: [2, 2, 2, 2], challenger: [0.5, 0.5, 0.5, 0.5], bad: [1, 0, 0, 0], higherIs: { champion: 'safer', challenger: 'riskier' } }), { bands: 2 });
+    const curve = strategyCurve(tied, 0.7);
+    // Computed by hand: one block, so 1% already accepts all 4 (bad rate 1/4); later points add nobody.
+    expect(curve.points[0].champion).toEqual({ cutoff: 2, achievedApprovalRate: 1, portfolioBadRate: 0.25, marginalBadRate: 0.25 });
+    expect(curve.points.slice(1).every((p) => p.champion.marginalBadRate === null && p.challenger.marginalBadRate === null)).toBe(true);
+    expect(curve.atApprovalRate).toEqual({ approvalRate: 0.7, championBads: 1, challengerBads: 1, badsAvoided: 0, approvalsGainedAtEqualBadRate: 0 });
+  });
+
+  it('rejects an approval rate of 0', () => {
+    expect(() => strategyCurve(data, 0)).toThrow(/above 0/);
+  });
+});
