@@ -99,10 +99,24 @@ function number(value: string | undefined, flag: string, check: (v: number) => b
   return parsed;
 }
 
+/** `--cutoff-champion -1.5` → `--cutoff-champion=-1.5`: parseArgs would read -1.5 as an option. */
+function joinNegativeValues(argv: string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const name = argv[i].startsWith('--') ? argv[i].slice(2) : '';
+    const spec = (options as Record<string, { type: string }>)[name];
+    if (spec?.type === 'string' && i + 1 < argv.length && /^-\d|^-\.\d/.test(argv[i + 1])) {
+      out.push(`${argv[i]}=${argv[i + 1]}`);
+      i++;
+    } else out.push(argv[i]);
+  }
+  return out;
+}
+
 export function parseCommand(argv: string[]): CompareCommand {
   let parsed;
   try {
-    parsed = parseArgs({ args: argv, options, allowPositionals: true, strict: true });
+    parsed = parseArgs({ args: joinNegativeValues(argv), options, allowPositionals: true, strict: true });
   } catch (error) {
     throw new UsageError((error as Error).message.split('\n')[0]);
   }

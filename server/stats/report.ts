@@ -71,7 +71,11 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   const { holdout, mapping } = request;
   const settings = analysisSettingsSchema.parse(request.settings ?? {});
   const policy = request.policy ?? defaultAdoptionPolicy;
-  const report = (fraction: number, stage: string) => request.onProgress?.({ fraction, stage });
+  let last = 0;
+  const report = (fraction: number, stage: string) => {
+    last = Math.max(last, Math.min(1, fraction));
+    request.onProgress?.({ fraction: last, stage });
+  };
   const { n, bad } = holdout;
   let bads = 0;
   for (let i = 0; i < n; i++) bads += bad[i];
