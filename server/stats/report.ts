@@ -1,6 +1,6 @@
+import type { z } from 'zod';
 import { type AdoptionPolicy, defaultAdoptionPolicy } from '@shared/policy';
 import {
-  type AnalysisSettings,
   analysisSettingsSchema,
   type ColumnMapping,
   type Difference,
@@ -52,7 +52,7 @@ export interface BuildReportInput {
   input: Report['input'];
   mapping: ColumnMapping;
   /** Missing fields take analysisSettingsSchema's defaults. */
-  settings?: Partial<AnalysisSettings>;
+  settings?: z.input<typeof analysisSettingsSchema>;
   /** Default: defaultAdoptionPolicy (shared/policy.ts). */
   policy?: AdoptionPolicy;
   /** What the reader counted (reader/load.ts `ReadSummary`); without it the holdout is taken as read. */

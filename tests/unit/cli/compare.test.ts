@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { reportSchema } from '@shared/report';
+import { type ColumnMapping, reportSchema } from '@shared/report';
 import { parseCommand, runCompare, usage } from '@server/cli/compare';
 import { loadHoldout } from '@server/reader/load';
 import { buildReport } from '@server/stats/report';
@@ -28,7 +28,7 @@ describe('compare CLI', () => {
     const report = reportSchema.parse(JSON.parse(stdout));
     expect(report.settings.bootstrap).toBe(50);
     expect(report.segments.map((row) => row.value)).toEqual(['branch', 'broker', 'web']);
-    const mapping = {
+    const mapping: ColumnMapping = {
       outcome: 'bad_12m',
       badValue: '1',
       champion: 'champion_points',
@@ -37,7 +37,7 @@ describe('compare CLI', () => {
       id: null,
       segments: ['channel'],
       exposure: null,
-    } as const;
+    };
     const loaded = await loadHoldout({ path: demo }, mapping);
     const direct = await buildReport({ ...loaded, mapping, settings: { bootstrap: 50, dropMissing: false } });
     expect(report).toEqual(JSON.parse(JSON.stringify(direct)));
