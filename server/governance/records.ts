@@ -1,17 +1,16 @@
-import type { DataSource, EntityManager } from 'typeorm';
-import { AnalysisRun, Comparison, Review, Vote } from '../db/entities/index';
-import { conflict, forbidden, notFound } from '../errors';
 import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
+import type { DataSource, EntityManager } from 'typeorm';
+import { findComparison } from '../comparisons/service';
+import { AnalysisRun, Review, Vote, type Comparison } from '../db/entities/index';
+import { conflict, forbidden } from '../errors';
 
 /** Look-ups and rules the governance steps share. */
 
 type Source = DataSource | EntityManager;
 
 /** The comparison with its creator and holdout (for the four-eyes rule), or 404. */
-export async function loadComparison(source: Source, id: number): Promise<Comparison> {
-  const comparison = await source.getRepository(Comparison).findOne({ where: { id }, relations: { createdBy: true, holdout: true } });
-  if (!comparison) throw notFound(`There is no comparison ${id}.`);
-  return comparison;
+export function loadComparison(source: Source, id: number): Promise<Comparison> {
+  return findComparison(source, id);
 }
 
 /** The person who created the comparison or uploaded its holdout: they cannot review, vote on or decide it. */

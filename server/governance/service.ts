@@ -25,10 +25,6 @@ import { countingVotes, currentRound, forbidOwn, isOwnComparison, latestReview, 
  * it (403) —, then the state (409), then the step's own conditions (409).
  */
 
-interface StepResult {
-  governance: Governance;
-}
-
 async function activeWithRole(manager: EntityManager, role: Role): Promise<User[]> {
   const active = await manager.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
   return active.filter((user) => user.roles.includes(role));
@@ -44,7 +40,7 @@ async function creatorOf(manager: EntityManager, comparison: Comparison): Promis
 }
 
 /** analysed → in review, or returned → in review after a new analysis run. */
-export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<StepResult> {
+export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
     requireState(comparison, ['analysed', 'returned']);
@@ -90,11 +86,11 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
     );
   });
   ctx.mailer.kick();
-  return { governance: await getGovernance(ctx, id) };
+  return getGovernance(ctx, id);
 }
 
 /** in review → validated or returned, with the analyst's findings on the current run. */
-export async function reviewComparison(ctx: AppContext, actor: User, id: number, input: ReviewInput): Promise<StepResult> {
+export async function reviewComparison(ctx: AppContext, actor: User, id: number, input: ReviewInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
     forbidOwn(comparison, actor, 'review');
@@ -140,11 +136,11 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
     }
   });
   ctx.mailer.kick();
-  return { governance: await getGovernance(ctx, id) };
+  return getGovernance(ctx, id);
 }
 
 /** A committee member's vote in the current validation round; a second vote replaces their first. */
-export async function castVote(ctx: AppContext, actor: User, id: number, input: VoteInput): Promise<StepResult> {
+export async function castVote(ctx: AppContext, actor: User, id: number, input: VoteInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
     forbidOwn(comparison, actor, 'vote on');
@@ -176,11 +172,11 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
       },
     });
   });
-  return { governance: await getGovernance(ctx, id) };
+  return getGovernance(ctx, id);
 }
 
 /** validated → decided: the committee's decision, once the policy's quorum of votes is reached. */
-export async function recordDecision(ctx: AppContext, actor: User, id: number, input: DecisionInput): Promise<StepResult> {
+export async function recordDecision(ctx: AppContext, actor: User, id: number, input: DecisionInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
     forbidOwn(comparison, actor, 'decide');
@@ -249,7 +245,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
     );
   });
   ctx.mailer.kick();
-  return { governance: await getGovernance(ctx, id) };
+  return getGovernance(ctx, id);
 }
 
 /** Everything the review & decision page needs. */
