@@ -1,6 +1,7 @@
 import { existsSync } from 'node:fs';
 import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { Worker, type WorkerOptions } from 'node:worker_threads';
 
 /**
  * Where the code runs from: compiled JavaScript in dist/ (npm start, the CLI, the benchmark) or
@@ -32,4 +33,18 @@ export const projectRoot = findRoot(here);
 export function workerEntry(sourcePath: string): { file: string; execArgv: string[] } {
   if (compiled) return { file: join(projectRoot, 'dist', `${sourcePath}.js`), execArgv: [] };
   return { file: join(projectRoot, `${sourcePath}.ts`), execArgv: ['--import', 'tsx'] };
+}
+
+/**
+ * Starts a worker thread on `sourcePath` (as for workerEntry): the compiled file, or from the
+ * sources the TypeScript file through tsx's loader. Node 20 does not apply `--import tsx` from a
+ * worker's execArgv ("Unknown file extension .ts"), so from sources the worker is a two-line
+ * script that registers tsx and then imports the file.
+ */
+export function startWorker(sourcePath: string, options: WorkerOptions = {}): Worker {
+  const { file, execArgv } = workerEntry(sourcePath);
+  if (compiled) return new Worker(file, { ...options, execArgv: [...execArgv, ...(options.execArgv ?? [])] });
+  const target = JSON.stringify(pathToFileURL(file).href);
+  const code = `import('tsx/esm/api').then(({ register }) => { register(); return import(${target}); });`;
+  return new Worker(code, { ...options, eval: true });
 }

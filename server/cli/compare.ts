@@ -1,0 +1,322 @@
+import { parseArgs } from 'node:util';
+import type { AnalysisSettings, ColumnMapping, HigherIs, Report } from '@shared/report';
+import { HoldoutInputError } from '@server/reader/errors';
+import { loadHoldout } from '@server/reader/load';
+import { buildReport } from '@server/stats/report';
+import { StatisticError } from '@server/stats/statistic-error';
+
+/**
+ * `npm run compare -- FILE [options]`: the champion–challenger comparison of one holdout file,
+ * the same report the API serves. With --json the report is printed as JSON on stdout and nothing
+ * else; without it, a readable summary. Exit 0 on success, 2 on bad input (one line on stderr,
+ * naming the row and column), 1 on anything unexpected — never a stack trace.
+ */
+
+export const usage = `Usage: npm run -s compare -- FILE [options]
+
+Compares a challenger credit-scoring model with the champion on one holdout CSV (one row per
+account: the observed outcome and both models' scores) and prints the report.
+
+Columns
+  --outcome COL              outcome column (default: bad)
+  --bad-value V              the outcome value that means bad (default: 1)
+  --champion COL             champion's score column (default: champion)
+  --challenger COL           challenger's score column (default: challenger)
+  --higher-is safer|riskier  orientation of both scores (default: safer; points are safer,
+                             probabilities of default riskier)
+  --champion-higher-is safer|riskier     orientation of the champion's score only
+  --challenger-higher-is safer|riskier   orientation of the challenger's score only
+  --segment COL              a categorical column to compare within (repeatable)
+  --exposure COL             exposure / amount column, summed in the swap sets
+  --id COL                   account id column
+  --drop-missing             leave out (and count) rows with an empty score instead of stopping
+
+Analysis
+  --bootstrap B              bootstrap replicates, 0 to skip (default: 2000)
+  --seed N                   random seed of the bootstrap (default: 1)
+  --confidence C             confidence level of every interval (default: 0.95)
+  --cutoff-champion X        champion's cut-off (accounts on the safe side, X included, are
+  --cutoff-challenger Y      accepted); give both, or neither to match an approval rate
+  --approval-rate R          approval rate for matched cut-offs (default: 0.7)
+
+Output
+  --json                     the report as JSON on stdout, nothing else
+  --help                     this text
+
+Exit status: 0 done, 2 bad input (a one-line message on stderr naming the row and column),
+1 unexpected failure. Use "npm run -s compare" (or node dist/server/cli/compare.js): plain
+"npm run compare" prints npm's own banner on stdout before the report.
+
+The verdict follows the default adoption policy. Statistical significance is not business
+approval: a new model changes who is approved and declined, so fair-lending and adverse-action
+duties apply; defer to your institution's model risk policy, local regulation and licensed advice.
+`;
+
+/** Bad command-line input: exit 2 with this message. */
+class UsageError extends Error {}
+
+const options = {
+  outcome: { type: 'string' },
+  'bad-value': { type: 'string' },
+  champion: { type: 'string' },
+  challenger: { type: 'string' },
+  'higher-is': { type: 'string' },
+  'champion-higher-is': { type: 'string' },
+  'challenger-higher-is': { type: 'string' },
+  bootstrap: { type: 'string' },
+  seed: { type: 'string' },
+  confidence: { type: 'string' },
+  'cutoff-champion': { type: 'string' },
+  'cutoff-challenger': { type: 'string' },
+  'approval-rate': { type: 'string' },
+  segment: { type: 'string', multiple: true },
+  exposure: { type: 'string' },
+  id: { type: 'string' },
+  'drop-missing': { type: 'boolean' },
+  json: { type: 'boolean' },
+  help: { type: 'boolean', short: 'h' },
+} as const;
+
+export interface CompareCommand {
+  help: boolean;
+  file: string;
+  json: boolean;
+  dropMissing: boolean;
+  mapping: ColumnMapping;
+  settings: Partial<AnalysisSettings>;
+}
+
+function orientation(value: string | undefined, fallback: HigherIs, flag: string): HigherIs {
+  if (value === undefined) return fallback;
+  if (value === 'safer' || value === 'riskier') return value;
+  throw new UsageError(`${flag} must be "safer" or "riskier", got "${value}"`);
+}
+
+function number(value: string | undefined, flag: string, check: (v: number) => boolean, rule: string): number | undefined {
+  if (value === undefined) return undefined;
+  const parsed = value.trim() === '' ? NaN : Number(value);
+  if (!Number.isFinite(parsed) || !check(parsed)) throw new UsageError(`${flag} must be ${rule}, got "${value}"`);
+  return parsed;
+}
+
+/** `--cutoff-champion -1.5` → `--cutoff-champion=-1.5`: parseArgs would read -1.5 as an option. */
+function joinNegativeValues(argv: string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const name = argv[i].startsWith('--') ? argv[i].slice(2) : '';
+    const spec = (options as Record<string, { type: string }>)[name];
+    if (spec?.type === 'string' && i + 1 < argv.length && /^-\d|^-\.\d/.test(argv[i + 1])) {
+      out.push(`${argv[i]}=${argv[i + 1]}`);
+      i++;
+    } else out.push(argv[i]);
+  }
+  return out;
+}
+
+export function parseCommand(argv: string[]): CompareCommand {
+  let parsed;
+  try {
+    parsed = parseArgs({ args: joinNegativeValues(argv), options, allowPositionals: true, strict: true });
+  } catch (error) {
+    throw new UsageError((error as Error).message.split('\n')[0]);
+  }
+  const { values, positionals } = parsed;
+  if (values.help) {
+    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {} };
+  }
+  if (positionals.length !== 1) {
+    throw new UsageError(positionals.length === 0 ? 'give the holdout CSV file (see --help)' : `give one holdout file, got ${positionals.length}: ${positionals.join(', ')}`);
+  }
+  const both = orientation(values['higher-is'], 'safer', '--higher-is');
+  const mapping: ColumnMapping = {
+    outcome: values.outcome ?? 'bad',
+    badValue: values['bad-value'] ?? '1',
+    champion: values.champion ?? 'champion',
+    challenger: values.challenger ?? 'challenger',
+    higherIs: {
+      champion: orientation(values['champion-higher-is'], both, '--champion-higher-is'),
+      challenger: orientation(values['challenger-higher-is'], both, '--challenger-higher-is'),
+    },
+    id: values.id ?? null,
+    segments: values.segment ?? [],
+    exposure: values.exposure ?? null,
+  };
+  for (const [flag, value] of Object.entries({ '--outcome': mapping.outcome, '--bad-value': mapping.badValue, '--champion': mapping.champion, '--challenger': mapping.challenger })) {
+    if (value.trim() === '') throw new UsageError(`${flag} must not be empty`);
+  }
+  const settings: Partial<AnalysisSettings> = {};
+  const replicates = number(values.bootstrap, '--bootstrap', (v) => Number.isInteger(v) && v >= 0 && v <= 20000, 'a whole number from 0 to 20000');
+  if (replicates !== undefined) settings.bootstrap = replicates;
+  const seed = number(values.seed, '--seed', (v) => Number.isInteger(v) && v >= 0 && v <= 2 ** 31 - 1, 'a whole number from 0 to 2147483647');
+  if (seed !== undefined) settings.seed = seed;
+  const confidence = number(values.confidence, '--confidence', (v) => v > 0.5 && v < 1, 'between 0.5 and 1 (e.g. 0.95)');
+  if (confidence !== undefined) settings.confidence = confidence;
+  const approvalRate = number(values['approval-rate'], '--approval-rate', (v) => v > 0 && v < 1, 'between 0 and 1 (e.g. 0.7)');
+  if (approvalRate !== undefined) settings.approvalRate = approvalRate;
+  const cutoffChampion = number(values['cutoff-champion'], '--cutoff-champion', () => true, 'a number');
+  const cutoffChallenger = number(values['cutoff-challenger'], '--cutoff-challenger', () => true, 'a number');
+  if ((cutoffChampion === undefined) !== (cutoffChallenger === undefined)) {
+    throw new UsageError('give both --cutoff-champion and --cutoff-challenger, or neither (then --approval-rate matches them)');
+  }
+  if (cutoffChampion !== undefined && cutoffChallenger !== undefined) {
+    if (approvalRate !== undefined) throw new UsageError('give cut-offs or --approval-rate, not both');
+    settings.cutoffs = { champion: cutoffChampion, challenger: cutoffChallenger };
+  }
+  settings.dropMissing = values['drop-missing'] ?? false;
+  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings };
+}
+
+// --- the readable summary ------------------------------------------------------------------
+const pct = (value: number | null, digits = 1) => (value === null ? '—' : `${(value * 100).toFixed(digits)}%`);
+const points = (value: number, digits = 1) => (value * 100).toFixed(digits);
+const signed = (value: number, digits = 1) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(digits)}`;
+const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? '—' : `[${format(ci[0])}, ${format(ci[1])}]`);
+const int = (value: number) => value.toLocaleString('en-US');
+function pValue(p: number): string {
+  if (p === 0) return '< 1e-300';
+  if (p >= 0.001) return p.toFixed(4);
+  return p.toExponential(1);
+}
+const pad = (text: string, width: number) => text.padEnd(width);
+
+export function summary(report: Report): string {
+  const level = `${Math.round(report.settings.confidence * 1000) / 10}%`;
+  const lines: string[] = [];
+  const { champion, challenger, difference, swap } = report;
+  lines.push(`Scorecourt comparison of ${report.input.fileName}`);
+  lines.push(`  ${int(report.rows)} accounts, ${int(report.bads)} bads (bad rate ${pct(report.badRate, 2)}); SHA-256 ${report.input.sha256}`);
+  lines.push(`  engine ${report.engineVersion}; orientation: champion higher = ${champion.higherIs}, challenger higher = ${challenger.higherIs}`);
+  lines.push('');
+  lines.push(`${pad('', 12)}${pad('Gini', 8)}${pad(`${level} CI (DeLong)`, 22)}${pad('AUC', 9)}${pad('KS', 7)}${pad(`KS ${level} CI`, 18)}KS at score`);
+  for (const [name, model] of [
+    ['Champion', champion],
+    ['Challenger', challenger],
+  ] as const) {
+    lines.push(
+      `${pad(name, 12)}${pad(points(model.gini), 8)}${pad(range(model.giniCi, (v) => points(v)), 22)}${pad(model.auc.toFixed(4), 9)}${pad(points(model.ks), 7)}${pad(range(model.ksCi, (v) => points(v)), 18)}${model.ksScore}`,
+    );
+  }
+  lines.push('');
+  lines.push('Difference, challenger − champion (Gini and KS in points)');
+  lines.push(
+    `  ΔGini ${signed(difference.gini, 2)}, ${level} CI ${range(difference.giniCi, (v) => signed(v, 2))} (DeLong)` +
+      (difference.giniBootstrapCi ? `, ${range(difference.giniBootstrapCi, (v) => signed(v, 2))} (bootstrap, ${int(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed})` : ', bootstrap skipped'),
+  );
+  lines.push(`  DeLong z = ${difference.z.toFixed(3)}, one-sided p = ${pValue(difference.pOneSided)} (challenger better), two-sided p = ${pValue(difference.pTwoSided)}`);
+  lines.push(`  ΔKS ${signed(difference.ks, 2)}${difference.ksCi ? `, ${level} CI ${range(difference.ksCi, (v) => signed(v, 2))} (bootstrap)` : ''}`);
+  lines.push('');
+  const basis =
+    swap.basis === 'approval-rate'
+      ? `matched approval rate ${pct(swap.requestedApprovalRate)} (achieved: champion ${pct(swap.champion.approvalRate)}, challenger ${pct(swap.challenger.approvalRate)})`
+      : `given cut-offs (approval rate: champion ${pct(swap.champion.approvalRate)}, challenger ${pct(swap.challenger.approvalRate)})`;
+  lines.push(`Swap sets at ${basis}; cut-offs champion ${swap.champion.cutoff}, challenger ${swap.challenger.cutoff}`);
+  for (const [label, cell] of [
+    ['both accept', swap.bothAccept],
+    ['swap-in', swap.swapIn],
+    ['swap-out', swap.swapOut],
+    ['both reject', swap.bothReject],
+  ] as const) {
+    const amount = cell.amount === null ? '' : `, amount ${int(Math.round(cell.amount))}`;
+    lines.push(`  ${pad(label, 12)}${pad(int(cell.count), 10)}${pad(pct(cell.share), 8)}bad rate ${pct(cell.badRate, 2)} ${range(cell.badRateCi, (v) => pct(v, 2))}${amount}`);
+  }
+  const test = swap.test;
+  lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${test.z.toFixed(3)}`}, p = ${test.p === null ? `— (${test.reason})` : pValue(test.p)}`);
+  const atRate = report.strategyCurve.atApprovalRate;
+  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${int(atRate.badsAvoided)} fewer bads` + (atRate.approvalsGainedAtEqualBadRate === null ? '' : `; at the champion's bad rate it approves ${int(atRate.approvalsGainedAtEqualBadRate)} more accounts`));
+  if (report.segments.length > 0) {
+    lines.push('');
+    lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
+    for (const row of report.segments) {
+      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
+      lines.push(`  ${pad(`${row.column} = ${row.value}`, 30)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 28)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
+    }
+  }
+  if (report.dataQuality.warnings.length > 0) {
+    lines.push('');
+    lines.push('Data quality');
+    for (const warning of report.dataQuality.warnings) lines.push(`  ! ${warning}`);
+  }
+  lines.push('');
+  lines.push(`Verdict under adoption policy v${report.verdict.policyVersion}: ${report.verdict.outcome.toUpperCase()}`);
+  lines.push(`  ${report.verdict.summary}`);
+  for (const criterion of report.verdict.criteria) lines.push(`  [${criterion.met ? 'met' : 'not met'}] ${criterion.label}: ${criterion.detail}`);
+  lines.push('');
+  lines.push('The verdict advises; the committee decides. Statistical significance is not business approval: a new');
+  lines.push("model changes who is approved and declined, so fair-lending and adverse-action duties apply. Defer to the");
+  lines.push("institution's model risk policy, local regulation and licensed advice.");
+  return lines.join('\n') + '\n';
+}
+
+// --- running -------------------------------------------------------------------------------
+export interface CompareIo {
+  stdout: (text: string) => void;
+  stderr: (text: string) => void;
+  /** Show progress on stderr (a terminal). */
+  progress: boolean;
+}
+
+/** Runs the command; returns the exit status. */
+export async function runCompare(argv: string[], io: CompareIo): Promise<number> {
+  let command: CompareCommand;
+  try {
+    command = parseCommand(argv);
+  } catch (error) {
+    io.stderr(`compare: ${(error as Error).message}\n`);
+    return 2;
+  }
+  if (command.help) {
+    io.stdout(usage);
+    return 0;
+  }
+  const { file } = command;
+  try {
+    const loaded = await loadHoldout({ path: file }, command.mapping, { dropMissing: command.dropMissing });
+    let shown = -1;
+    const report = await buildReport({
+      holdout: loaded.holdout,
+      input: loaded.input,
+      mapping: command.mapping,
+      settings: command.settings,
+      read: loaded.read,
+      onProgress: io.progress
+        ? ({ fraction, stage }) => {
+            const percent = Math.floor(fraction * 100);
+            if (percent !== shown) {
+              shown = percent;
+              io.stderr(`\r${String(percent).padStart(3)}% ${stage.padEnd(40)}`);
+            }
+          }
+        : undefined,
+    });
+    if (io.progress) io.stderr('\r'.padEnd(50) + '\r');
+    io.stdout(command.json ? `${JSON.stringify(report)}\n` : summary(report));
+    return 0;
+  } catch (error) {
+    if (error instanceof HoldoutInputError || error instanceof StatisticError) {
+      io.stderr(`compare: ${file}: ${error.message}\n`);
+      return 2;
+    }
+    const code = (error as NodeJS.ErrnoException).code;
+    if (code === 'ENOENT' || code === 'EISDIR' || code === 'EACCES') {
+      io.stderr(`compare: cannot read ${file}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : 'permission denied'}\n`);
+      return 2;
+    }
+    io.stderr(`compare: unexpected failure: ${(error as Error).message ?? String(error)}\n`);
+    return 1;
+  }
+}
+
+const isMain = process.argv[1] !== undefined && /compare\.(js|ts)$/.test(process.argv[1]);
+if (isMain) {
+  const write = (stream: NodeJS.WriteStream) => (text: string) => {
+    stream.write(text);
+  };
+  runCompare(process.argv.slice(2), { stdout: write(process.stdout), stderr: write(process.stderr), progress: process.stderr.isTTY === true })
+    .then((status) => {
+      process.exitCode = status;
+    })
+    .catch((error: unknown) => {
+      process.stderr.write(`compare: unexpected failure: ${(error as Error)?.message ?? String(error)}\n`);
+      process.exitCode = 1;
+    });
+}

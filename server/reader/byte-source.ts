@@ -1,0 +1,92 @@
+import { createHash } from 'node:crypto';
+import { createReadStream, statSync } from 'node:fs';
+import { basename } from 'node:path';
+import { HoldoutInputError } from './errors';
+
+/**
+ * Where a holdout's bytes come from: a file on disk (the CLI, and uploads after multer has
+ * written them to disk) or bytes already in memory (tests, small inputs). The reader streams
+ * either in 1 MB chunks and never holds the whole file as text.
+ */
+export type HoldoutSource = { path: string; fileName?: string } | { bytes: Uint8Array; fileName: string };
+
+export interface SourceInfo {
+  fileName: string;
+  bytes: number;
+  /** Hex SHA-256 of the bytes, filled in when the stream has been read to the end. */
+  sha256: string;
+}
+
+const CHUNK = 1 << 20;
+
+/**
+ * Streams the source as UTF-8 text chunks (BOM removed), hashing the bytes on the way.
+ * Rejects binary input: bytes that are not UTF-8, NUL characters, or the signature of a ZIP
+ * (xlsx) or gzip file.
+ */
+export async function* textChunks(source: HoldoutSource, info: SourceInfo, onBytes?: (read: number) => void): AsyncGenerator<string> {
+  const hash = createHash('sha256');
+  const decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
+  let read = 0;
+  let first = true;
+  const decode = (chunk: Uint8Array, last: boolean): string => {
+    if (first && chunk.length > 0) {
+      first = false;
+      if (chunk[0] === 0x50 && chunk[1] === 0x4b && chunk[2] === 0x03 && chunk[3] === 0x04) {
+        throw new HoldoutInputError('binary_file', 'the file is a ZIP archive (an .xlsx workbook?), not CSV text: save the sheet as CSV');
+      }
+      if (chunk[0] === 0x1f && chunk[1] === 0x8b) {
+        throw new HoldoutInputError('binary_file', 'the file is gzip-compressed, not CSV text: decompress it first');
+      }
+    }
+    let text: string;
+    try {
+      text = decoder.decode(chunk, { stream: !last });
+    } catch {
+      throw new HoldoutInputError(
+        'not_utf8',
+        `the file is not UTF-8 text (invalid bytes within the first ${(read + chunk.length).toLocaleString('en-US')} bytes): save it as CSV in UTF-8`,
+      );
+    }
+    if (text.indexOf('\0') !== -1) {
+      throw new HoldoutInputError('binary_file', 'the file contains NUL bytes: it is binary, not CSV text');
+    }
+    return text;
+  };
+
+  if ('bytes' in source) {
+    const all = source.bytes;
+    info.bytes = all.length;
+    for (let at = 0; at < all.length; at += CHUNK) {
+      const chunk = all.subarray(at, Math.min(all.length, at + CHUNK));
+      hash.update(chunk);
+      const text = decode(chunk, at + CHUNK >= all.length);
+      read += chunk.length;
+      onBytes?.(read);
+      if (text.length > 0) yield text;
+    }
+  } else {
+    info.bytes = statSync(source.path).size;
+    const stream = createReadStream(source.path, { highWaterMark: CHUNK });
+    try {
+      for await (const chunk of stream as AsyncIterable<Buffer>) {
+        hash.update(chunk);
+        const text = decode(chunk, false);
+        read += chunk.length;
+        onBytes?.(read);
+        if (text.length > 0) yield text;
+      }
+      const tail = decode(new Uint8Array(0), true);
+      if (tail.length > 0) yield tail;
+    } finally {
+      stream.destroy();
+    }
+  }
+  info.bytes = read;
+  info.sha256 = hash.digest('hex');
+}
+
+export function sourceInfo(source: HoldoutSource): SourceInfo {
+  const fileName = source.fileName ?? ('path' in source ? basename(source.path) : 'holdout.csv');
+  return { fileName, bytes: 0, sha256: '' };
+}

@@ -1,0 +1,160 @@
+import Papa from 'papaparse';
+import { type HoldoutSource, type SourceInfo, textChunks } from './byte-source';
+import { HoldoutInputError } from './errors';
+
+/**
+ * The one streaming CSV reader behind the CLI and the uploads, on papaparse's parser (its fast
+ * path, a plain split, runs on every chunk without a quote character). Handles a header row;
+ * comma, semicolon or tab, detected from the header line; quoted fields (also across lines);
+ * UTF-8 with or without BOM; LF, CRLF or CR line ends; no trailing newline.
+ *
+ * Guards against absurd input with a clear error instead of running out of memory: more than
+ * MAX_COLUMNS columns, or a row (a record, quotes included) longer than MAX_ROW_CHARS — which is
+ * also what an unclosed quote looks like.
+ */
+
+export const MAX_COLUMNS = 5000;
+export const MAX_ROW_CHARS = 8 << 20;
+export const MAX_ROWS = 50_000_000;
+
+export type Delimiter = ',' | ';' | '\t';
+
+export interface CsvLayout {
+  delimiter: Delimiter;
+  newline: '\n' | '\r\n' | '\r';
+  header: string[];
+}
+
+export interface CsvHandlers {
+  onHeader(layout: CsvLayout): void;
+  /**
+   * A batch of records in file order. `lines[i]` is the line number where rows[i] starts (header
+   * = line 1). Empty lines come through as `['']`; callers skip them.
+   */
+  onRows(rows: string[][], lines: Float64Array): void;
+  onBytes?(read: number): void;
+}
+
+/** Counts delimiter candidates outside quotes in the header line. */
+function detectDelimiter(headerLine: string): Delimiter {
+  let quoted = false;
+  const counts = { ',': 0, ';': 0, '\t': 0 };
+  for (let i = 0; i < headerLine.length; i++) {
+    const c = headerLine[i];
+    if (c === '"') quoted = !quoted;
+    else if (!quoted && (c === ',' || c === ';' || c === '\t')) counts[c]++;
+  }
+  if (counts[';'] > counts[','] && counts[';'] >= counts['\t']) return ';';
+  if (counts['\t'] > counts[','] && counts['\t'] > counts[';']) return '\t';
+  return ',';
+}
+
+function detectNewline(text: string, at: number): CsvLayout['newline'] {
+  if (text[at] === '\r') return text[at + 1] === '\n' ? '\r\n' : '\r';
+  return '\n';
+}
+
+function firstLineEnd(text: string): number {
+  const lf = text.indexOf('\n');
+  const cr = text.indexOf('\r');
+  if (lf === -1) return cr;
+  if (cr === -1) return lf;
+  return Math.min(lf, cr);
+}
+
+/** Reads the whole source; returns its layout (the header is also passed to onHeader). */
+export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers: CsvHandlers): Promise<CsvLayout> {
+  let partial = '';
+  let parser: Papa.Parser | null = null;
+  let layout: CsvLayout | null = null;
+  let line = 1;
+  let records = 0;
+  let sawText = false;
+
+  const start = (text: string, end: number) => {
+    const newline = end === -1 ? '\n' : detectNewline(text, end);
+    const delimiter = detectDelimiter(end === -1 ? text : text.slice(0, end));
+    parser = new Papa.Parser({ delimiter, newline, quoteChar: '"' });
+    layout = { delimiter, newline, header: [] };
+  };
+
+  const take = (input: string, last: boolean) => {
+    const result = parser!.parse(input, 0, !last) as { data: string[][]; meta: { cursor: number } };
+    const rows = result.data;
+    const consumed = last ? input.length : result.meta.cursor;
+    if (!last) {
+      const rest = input.length - consumed;
+      if (rest > MAX_ROW_CHARS) {
+        throw new HoldoutInputError(
+          'row_too_long',
+          `row ${line + rows.length} is longer than ${MAX_ROW_CHARS >> 20} MB: is a quote left open?`,
+          line + rows.length,
+        );
+      }
+    }
+    const quoted = input.indexOf('"') !== -1 && input.indexOf('"') < consumed;
+    const newlineChar = layout!.newline === '\r' ? '\r' : '\n';
+    const lines = new Float64Array(rows.length);
+    for (let i = 0; i < rows.length; i++) {
+      lines[i] = line;
+      line++;
+      if (quoted) {
+        const row = rows[i];
+        for (let f = 0; f < row.length; f++) {
+          const field = row[f];
+          let at = field.indexOf(newlineChar);
+          while (at !== -1) {
+            line++;
+            at = field.indexOf(newlineChar, at + 1);
+          }
+        }
+      }
+    }
+    let offset = 0;
+    if (layout!.header.length === 0) {
+      // Blank lines before the header are skipped.
+      while (offset < rows.length && rows[offset].length === 1 && rows[offset][0].trim() === '') offset++;
+      if (offset === rows.length) return input.substring(consumed);
+    }
+    if (layout!.header.length === 0) {
+      const header = rows[offset].map((name) => name.trim());
+      if (header.length > MAX_COLUMNS) {
+        throw new HoldoutInputError('too_many_columns', `the header has ${header.length.toLocaleString('en-US')} columns; at most ${MAX_COLUMNS} are read`, 1);
+      }
+      layout!.header = header;
+      handlers.onHeader(layout!);
+      offset++;
+    }
+    if (rows.length > offset) {
+      records += rows.length - offset;
+      if (records > MAX_ROWS) {
+        throw new HoldoutInputError('too_many_rows', `the file has more than ${MAX_ROWS.toLocaleString('en-US')} rows`, null);
+      }
+      handlers.onRows(offset === 0 ? rows : rows.slice(offset), offset === 0 ? lines : lines.subarray(offset));
+    }
+    return input.substring(consumed);
+  };
+
+  for await (const text of textChunks(source, info, handlers.onBytes)) {
+    sawText = sawText || text.trim().length > 0;
+    let input = partial + text;
+    if (parser === null) {
+      const end = firstLineEnd(input);
+      if (end === -1) {
+        if (input.length > MAX_ROW_CHARS) {
+          throw new HoldoutInputError('too_many_columns', `the header line is longer than ${MAX_ROW_CHARS >> 20} MB`, 1);
+        }
+        partial = input;
+        continue;
+      }
+      start(input, end);
+    }
+    partial = take(input, false);
+    input = '';
+  }
+  if (!sawText) throw new HoldoutInputError('empty_file', 'the file is empty');
+  if (parser === null) start(partial, firstLineEnd(partial));
+  if (partial.length > 0) take(partial, true);
+  if (layout === null || (layout as CsvLayout).header.length === 0) throw new HoldoutInputError('empty_file', 'the file is empty');
+  return layout;
+}

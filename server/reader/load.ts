@@ -1,0 +1,401 @@
+import type { ValidationReport } from '@shared/comparisons';
+import type { ColumnMapping } from '@shared/report';
+import type { Holdout, SegmentColumn } from '@server/stats/holdout';
+import { type HoldoutSource, sourceInfo } from './byte-source';
+import { type CsvLayout, readCsv } from './csv-records';
+import { HoldoutInputError, quoteCell, where } from './errors';
+import { INVALID, isMissing, MISSING, parseNumber } from './values';
+
+/**
+ * Loads a holdout file with a column mapping into the engine's column form (typed arrays), in
+ * one streaming pass. Every problem is a HoldoutInputError naming the row (line number) and
+ * column; `validateHoldout` runs the same pass collecting the first 50 problems instead.
+ *
+ * Rows with an empty score are an error, or, with `dropMissing`, left out and counted. Blank
+ * lines are skipped. Outcome values are compared as text, and numerically when both are numbers
+ * (`1.0` is the bad value `1`); the good value is the other value found in the column.
+ */
+
+export interface LoadOptions {
+  dropMissing?: boolean;
+  /** Fraction of the file's bytes read so far, 0 to 1. */
+  onProgress?: (fraction: number) => void;
+}
+
+export interface ReadSummary {
+  /** Data rows in the file (blank lines not counted). */
+  rowsRead: number;
+  rowsUsed: number;
+  rowsDroppedMissingScore: number;
+  /** Empty cells per mapped column, dropped rows included. */
+  missingByColumn: Record<string, number>;
+  badValue: string;
+  /** The other value of the outcome column; null when only bads were found. */
+  goodValue: string | null;
+  goods: number;
+  bads: number;
+  delimiter: CsvLayout['delimiter'];
+}
+
+export interface LoadedHoldout {
+  holdout: Holdout;
+  input: { fileName: string; sha256: string; bytes: number };
+  read: ReadSummary;
+}
+
+/** A Float64Array that grows by doubling. */
+class Float64Column {
+  data = new Float64Array(1 << 16);
+  length = 0;
+  push(value: number): void {
+    if (this.length === this.data.length) {
+      const next = new Float64Array(this.data.length * 2);
+      next.set(this.data);
+      this.data = next;
+    }
+    this.data[this.length++] = value;
+  }
+  finish(): Float64Array {
+    return this.data.slice(0, this.length);
+  }
+}
+
+class Uint32Column {
+  data = new Uint32Array(1 << 16);
+  length = 0;
+  push(value: number): void {
+    if (this.length === this.data.length) {
+      const next = new Uint32Array(this.data.length * 2);
+      next.set(this.data);
+      this.data = next;
+    }
+    this.data[this.length++] = value;
+  }
+}
+
+class ErrorSink {
+  readonly errors: HoldoutInputError[] = [];
+  constructor(private readonly limit: number | null) {}
+  /** Throws in load mode; in validation mode records and tells the caller to skip the row. */
+  report(error: HoldoutInputError): void {
+    if (this.limit === null) throw error;
+    if (this.errors.length < this.limit) this.errors.push(error);
+  }
+  get full(): boolean {
+    return this.limit !== null && this.errors.length >= this.limit;
+  }
+}
+
+interface PassResult {
+  loaded: LoadedHoldout | null;
+  errors: HoldoutInputError[];
+}
+
+async function pass(source: HoldoutSource, mapping: ColumnMapping, options: LoadOptions, errorLimit: number | null): Promise<PassResult> {
+  const sink = new ErrorSink(errorLimit);
+  if (mapping.weight) {
+    throw new HoldoutInputError('unsupported_weight', `column "${mapping.weight}": sampling weights are not supported by this engine version; remove the weight from the mapping`, null, mapping.weight);
+  }
+  for (const [role, name] of [
+    ['champion', mapping.champion],
+    ['challenger', mapping.challenger],
+  ] as const) {
+    if (name === mapping.outcome) {
+      throw new HoldoutInputError('same_column', `column "${name}" is mapped as both the outcome and the ${role}'s score`, null, name);
+    }
+  }
+  const info = sourceInfo(source);
+  const dropMissing = options.dropMissing ?? false;
+  const segmentNames = mapping.segments ?? [];
+  const idName = mapping.id ?? null;
+  const exposureName = mapping.exposure ?? null;
+
+  let width = 0;
+  let outcomeAt = -1;
+  let championAt = -1;
+  let challengerAt = -1;
+  let idAt = -1;
+  let exposureAt = -1;
+  let segmentAt: number[] = [];
+  let decimalComma = false;
+
+  const bad = new Uint32Column();
+  const champion = new Float64Column();
+  const challenger = new Float64Column();
+  const exposure = exposureName === null ? null : new Float64Column();
+  const ids: string[] | null = idName === null ? null : [];
+  const segmentLevels = segmentNames.map(() => new Map<string, number>());
+  const segmentCodes = segmentNames.map(() => new Uint32Column());
+  const missingByColumn: Record<string, number> = {};
+  for (const name of [mapping.outcome, mapping.champion, mapping.challenger, idName, exposureName, ...segmentNames]) {
+    if (name !== null) missingByColumn[name] = 0;
+  }
+
+  const badValue = mapping.badValue.trim();
+  const badNumber = badValue.length > 0 && Number.isFinite(+badValue) ? +badValue : null;
+  let goodValue: string | null = null;
+  let goodNumber: number | null = null;
+  let rowsRead = 0;
+  let dropped = 0;
+  let bads = 0;
+
+  const resolve = (header: string[], name: string): number => {
+    const at = header.indexOf(name);
+    if (at === -1) {
+      const shown = header.slice(0, 12).map((column) => `"${column}"`).join(', ');
+      throw new HoldoutInputError(
+        'missing_column',
+        `column "${name}" is not in the file (its columns: ${shown}${header.length > 12 ? ', …' : ''})`,
+        1,
+        name,
+      );
+    }
+    if (header.indexOf(name, at + 1) !== -1) {
+      throw new HoldoutInputError('duplicate_column', `column "${name}" appears more than once in the header`, 1, name);
+    }
+    return at;
+  };
+
+  const outcomeOf = (cell: string, line: number): number => {
+    const value = cell.trim();
+    if (value === badValue) return 1;
+    if (value.length === 0 || isMissing(value)) {
+      sink.report(new HoldoutInputError('missing_outcome', `${where(line, mapping.outcome)}: the outcome is empty`, line, mapping.outcome));
+      return -1;
+    }
+    if (goodValue !== null && value === goodValue) return 0;
+    const number = +value;
+    const numeric = Number.isFinite(number);
+    if (numeric && badNumber !== null && number === badNumber) return 1;
+    if (goodValue === null) {
+      goodValue = value;
+      goodNumber = numeric ? number : null;
+      return 0;
+    }
+    if (numeric && goodNumber !== null && number === goodNumber) return 0;
+    sink.report(
+      new HoldoutInputError(
+        'bad_outcome',
+        `${where(line, mapping.outcome)}: ${quoteCell(value)} is neither the bad value ${quoteCell(badValue)} nor the good value ${quoteCell(goodValue)}`,
+        line,
+        mapping.outcome,
+      ),
+    );
+    return -1;
+  };
+
+  /** Records a missing or invalid score; true when the row may still be used (dropped later). */
+  const scoreProblem = (value: typeof MISSING | typeof INVALID, name: string, cell: string, line: number): boolean => {
+    if (value === MISSING) {
+      missingByColumn[name]++;
+      if (dropMissing) return true;
+      const shown = cell.trim().length > 0 ? `missing (${quoteCell(cell.trim())})` : 'empty';
+      sink.report(
+        new HoldoutInputError(
+          'missing_score',
+          `${where(line, name)}: the score is ${shown}; rows with a missing score can be left out with the drop-missing option`,
+          line,
+          name,
+        ),
+      );
+      return false;
+    }
+    sink.report(new HoldoutInputError('not_a_number', `${where(line, name)}: ${quoteCell(cell.trim())} is not a number`, line, name));
+    return false;
+  };
+
+  const layout = await readCsv(source, info, {
+    onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
+    onHeader(found) {
+      const header = found.header;
+      width = header.length;
+      decimalComma = found.delimiter === ';';
+      outcomeAt = resolve(header, mapping.outcome);
+      championAt = resolve(header, mapping.champion);
+      challengerAt = resolve(header, mapping.challenger);
+      if (idName !== null) idAt = resolve(header, idName);
+      if (exposureName !== null) exposureAt = resolve(header, exposureName);
+      segmentAt = segmentNames.map((name) => resolve(header, name));
+    },
+    onRows(rows, lines) {
+      for (let r = 0; r < rows.length; r++) {
+        const row = rows[r];
+        if (row.length !== width) {
+          if (row.length === 1 && row[0].trim() === '') continue; // a blank line
+          rowsRead++;
+          const line = lines[r];
+          sink.report(
+            new HoldoutInputError(
+              'ragged_row',
+              `${where(line)} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${width}`,
+              line,
+            ),
+          );
+          if (sink.full) return;
+          continue;
+        }
+        rowsRead++;
+        const line = lines[r];
+        let ok = true;
+
+        const outcome = outcomeOf(row[outcomeAt], line);
+        if (outcome < 0) ok = false;
+
+        const a = parseNumber(row[championAt], decimalComma);
+        const b = parseNumber(row[challengerAt], decimalComma);
+        let missingScore = false;
+        if (typeof a !== 'number') {
+          if (a === MISSING) missingScore = true;
+          if (!scoreProblem(a, mapping.champion, row[championAt], line)) ok = false;
+        }
+        if (typeof b !== 'number') {
+          if (b === MISSING) missingScore = true;
+          if (!scoreProblem(b, mapping.challenger, row[challengerAt], line)) ok = false;
+        }
+        if (outcome < 0 && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
+
+        let amount = 0;
+        if (exposure !== null) {
+          const cell = row[exposureAt];
+          const value = parseNumber(cell, decimalComma);
+          if (value === MISSING) {
+            missingByColumn[exposureName!]++;
+            sink.report(new HoldoutInputError('missing_value', `${where(line, exposureName!)}: the exposure is empty`, line, exposureName!));
+            ok = false;
+          } else if (value === INVALID) {
+            sink.report(new HoldoutInputError('not_a_number', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is not a number`, line, exposureName!));
+            ok = false;
+          } else amount = value;
+        }
+        if (sink.full) return;
+        if (!ok) continue;
+        if (missingScore) {
+          // Only reached with dropMissing: the row is left out, the other columns still counted.
+          dropped++;
+          if (idAt >= 0 && isMissing(row[idAt])) missingByColumn[idName!]++;
+          for (let s = 0; s < segmentAt.length; s++) if (isMissing(row[segmentAt[s]])) missingByColumn[segmentNames[s]]++;
+          continue;
+        }
+
+        bad.push(outcome);
+        bads += outcome;
+        champion.push(a as number);
+        challenger.push(b as number);
+        if (exposure !== null) exposure.push(amount);
+        if (ids !== null) {
+          const id = row[idAt].trim();
+          if (id.length === 0) missingByColumn[idName!]++;
+          ids.push(id);
+        }
+        for (let s = 0; s < segmentAt.length; s++) {
+          let level = row[segmentAt[s]].trim();
+          if (isMissing(level)) {
+            missingByColumn[segmentNames[s]]++;
+            level = '(blank)';
+          }
+          const levels = segmentLevels[s];
+          let code = levels.get(level);
+          if (code === undefined) {
+            code = levels.size;
+            levels.set(level, code);
+          }
+          segmentCodes[s].push(code);
+        }
+      }
+    },
+  });
+
+  const n = champion.length;
+  if (sink.errors.length === 0) {
+    if (rowsRead === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
+    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${dropped.toLocaleString('en-US')} rows left out)`);
+    if (bads === 0 || bads === n) {
+      const only = bads === 0 ? `the good value ${quoteCell(goodValue ?? '')}` : `the bad value ${quoteCell(badValue)}`;
+      const hint = bads === 0 ? `; no row has the bad value ${quoteCell(badValue)} (is the bad value right?)` : '';
+      throw new HoldoutInputError(
+        'single_class',
+        `column "${mapping.outcome}": every row used has ${only}${hint}; a comparison needs both goods and bads`,
+        null,
+        mapping.outcome,
+      );
+    }
+  }
+  if (sink.errors.length > 0) return { loaded: null, errors: sink.errors };
+
+  const badFlags = new Uint8Array(n);
+  for (let i = 0; i < n; i++) badFlags[i] = bad.data[i];
+  const segments: SegmentColumn[] = segmentNames.map((column, s) => ({
+    column,
+    levels: [...segmentLevels[s].keys()],
+    codes: segmentCodes[s].data.slice(0, n),
+  }));
+  const holdout: Holdout = {
+    n,
+    bad: badFlags,
+    champion: champion.finish(),
+    challenger: challenger.finish(),
+    higherIs: { champion: mapping.higherIs.champion, challenger: mapping.higherIs.challenger },
+    exposure: exposure === null ? null : exposure.finish(),
+    ids,
+    segments,
+  };
+  return {
+    loaded: {
+      holdout,
+      input: { fileName: info.fileName, sha256: info.sha256, bytes: info.bytes },
+      read: {
+        rowsRead,
+        rowsUsed: n,
+        rowsDroppedMissingScore: dropped,
+        missingByColumn,
+        badValue,
+        goodValue,
+        goods: n - bads,
+        bads,
+        delimiter: layout.delimiter,
+      },
+    },
+    errors: [],
+  };
+}
+
+/** Loads the holdout or throws the first HoldoutInputError. */
+export async function loadHoldout(source: HoldoutSource, mapping: ColumnMapping, options: LoadOptions = {}): Promise<LoadedHoldout> {
+  const { loaded } = await pass(source, mapping, options, null);
+  return loaded!;
+}
+
+/** The upload wizard's validation report: the first problems (at most 50), or a summary. */
+export async function validateHoldout(
+  source: HoldoutSource,
+  mapping: ColumnMapping,
+  options: LoadOptions & { maxErrors?: number } = {},
+): Promise<ValidationReport & { loaded: LoadedHoldout | null }> {
+  try {
+    const { loaded, errors } = await pass(source, mapping, options, options.maxErrors ?? 50);
+    if (loaded === null) return { ok: false, errors: errors.map((error) => error.toRowError()), summary: null, loaded: null };
+    const { read } = loaded;
+    const warnings: string[] = [];
+    if (read.rowsDroppedMissingScore > 0) {
+      warnings.push(`${read.rowsDroppedMissingScore.toLocaleString('en-US')} rows with a missing score left out`);
+    }
+    return {
+      ok: true,
+      errors: [],
+      summary: {
+        rows: read.rowsRead,
+        rowsUsed: read.rowsUsed,
+        goods: read.goods,
+        bads: read.bads,
+        badRate: read.bads / read.rowsUsed,
+        rowsDroppedMissingScore: read.rowsDroppedMissingScore,
+        missingByColumn: read.missingByColumn,
+        warnings,
+      },
+      loaded,
+    };
+  } catch (error) {
+    if (error instanceof HoldoutInputError) return { ok: false, errors: [error.toRowError()], summary: null, loaded: null };
+    throw error;
+  }
+}

@@ -1,0 +1,271 @@
+import type { MappingGuess } from '@shared/comparisons';
+import type { ColumnMapping, HigherIs } from '@shared/report';
+import { auc } from '@server/stats/auc';
+import { scoreBlocks } from '@server/stats/order';
+import { type HoldoutSource, sourceInfo } from './byte-source';
+import { type CsvLayout, readCsv } from './csv-records';
+import { HoldoutInputError } from './errors';
+import { INVALID, MISSING, parseNumber } from './values';
+
+/**
+ * A first look at a holdout file, before any mapping: its columns (what their values look like),
+ * the row count, the first 20 rows, the file's SHA-256, and a guess at the mapping — from the
+ * column names and from the data. The score orientation is guessed from the data: the AUC of the
+ * score against the guessed outcome, taken as "higher = safer", computed on the first
+ * ORIENTATION_SAMPLE rows; above ½ means safer, below ½ riskier (a name such as "pd" decides when
+ * the AUC is within 0.01 of ½). Everything is a proposal that the person confirms.
+ */
+
+export const PREVIEW_ROWS = 20;
+/** Distinct values tracked per column; above this a column counts as having "many". */
+export const DISTINCT_CAP = 10_000;
+/** At most this many distinct text values make a column categorical (a segment candidate). */
+export const CATEGORICAL_MAX = 50;
+export const ORIENTATION_SAMPLE = 200_000;
+
+export interface ScannedColumn {
+  name: string;
+  /** numeric: every non-empty value a number; categorical: text with few distinct values; text. */
+  kind: 'numeric' | 'categorical' | 'text';
+  /** Distinct non-empty values, counted up to DISTINCT_CAP (DISTINCT_CAP + 1 means "more"). */
+  distinct: number;
+  missing: number;
+}
+
+export interface HoldoutScan {
+  fileName: string;
+  sha256: string;
+  bytes: number;
+  delimiter: CsvLayout['delimiter'];
+  rowCount: number;
+  columns: ScannedColumn[];
+  /** The first 20 data rows, as text, in column order. */
+  preview: string[][];
+  guess: MappingGuess;
+}
+
+interface ColumnStats {
+  numeric: number;
+  missing: number;
+  distinct: Set<string>;
+  capped: boolean;
+  /** The first rows' values as numbers (NaN when missing or text), for the orientation guess. */
+  sample: Float64Array;
+  /** The first rows' values as text, kept only while the column has few distinct values. */
+  sampleText: string[] | null;
+}
+
+const OUTCOME_NAMES = /^(bad|bads|is_?bad|bad_?flag|default(ed)?|is_?default|target|outcome|label|y|event|flag|delinquent|dpd\d*|bad_?\w*|\w*_bad|\w*default\w*|charge_?off\w*)$/i;
+const CHAMPION_NAMES = /champ|incumbent|current|production|prod_|baseline|old/i;
+const CHALLENGER_NAMES = /chall|candidate|new|proposed|alternative|alt_/i;
+const SCORE_NAMES = /score|points|pd|prob|risk|rating|grade|model/i;
+const RISKIER_NAMES = /(^|_|\b)pd($|_|\b)|prob|risk|default|bad_rate/i;
+const ID_NAMES = /^(id|.*_id|.*id_.*|account.*|acct.*|loan_?(no|number|ref)|customer.*|application_?(no|number|ref)|ref(erence)?)$/i;
+const EXPOSURE_NAMES = /exposure|amount|balance|limit|ead|principal|amt|loan_?size/i;
+
+/** The value that means bad, for a two-valued outcome column. */
+function badValueOf(values: string[], counts: Map<string, number>): string {
+  const lower = values.map((value) => value.toLowerCase());
+  for (const candidate of ['1', 'bad', 'b', 'yes', 'y', 'true', 't', 'default', 'd']) {
+    const at = lower.indexOf(candidate);
+    if (at !== -1 && !(candidate === 'd' && lower.includes('nd'))) return values[at];
+  }
+  // Otherwise the rarer value: the event is usually the smaller class.
+  return [...values].sort((a, b) => (counts.get(a) ?? 0) - (counts.get(b) ?? 0))[0];
+}
+
+export async function scanHoldout(source: HoldoutSource, options: { onProgress?: (fraction: number) => void } = {}): Promise<HoldoutScan> {
+  const info = sourceInfo(source);
+  let header: string[] = [];
+  let stats: ColumnStats[] = [];
+  let rowCount = 0;
+  let sampleRows = 0;
+  let sampleLimit = 0;
+  let decimalComma = false;
+  const preview: string[][] = [];
+
+  const layout = await readCsv(source, info, {
+    onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
+    onHeader(found) {
+      header = found.header;
+      decimalComma = found.delimiter === ';';
+      const seen = new Set<string>();
+      for (const name of header) {
+        if (seen.has(name)) throw new HoldoutInputError('duplicate_column', `column "${name}" appears more than once in the header`, 1, name);
+        seen.add(name);
+      }
+      // Keep the sample within about 20 million values whatever the width.
+      sampleLimit = Math.min(ORIENTATION_SAMPLE, Math.floor(20_000_000 / Math.max(1, header.length)));
+      stats = header.map(() => ({
+        numeric: 0,
+        missing: 0,
+        distinct: new Set<string>(),
+        capped: false,
+        sample: new Float64Array(sampleLimit),
+        sampleText: [],
+      }));
+    },
+    onRows(rows, lines) {
+      for (let r = 0; r < rows.length; r++) {
+        const row = rows[r];
+        if (row.length !== header.length) {
+          if (row.length === 1 && row[0].trim() === '') continue;
+          throw new HoldoutInputError('ragged_row', `row ${lines[r]} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${header.length}`, lines[r]);
+        }
+        if (preview.length < PREVIEW_ROWS) preview.push(row.slice());
+        const sampled = sampleRows < sampleLimit;
+        for (let c = 0; c < row.length; c++) {
+          const cell = row[c];
+          const column = stats[c];
+          const value = parseNumber(cell, decimalComma);
+          if (value === MISSING) {
+            column.missing++;
+            if (sampled) {
+              column.sample[sampleRows] = NaN;
+              column.sampleText?.push('');
+            }
+            continue;
+          }
+          if (value !== INVALID) column.numeric++;
+          if (!column.capped) {
+            const text = cell.trim();
+            column.distinct.add(text);
+            if (column.distinct.size > DISTINCT_CAP) column.capped = true;
+          }
+          if (sampled) {
+            column.sample[sampleRows] = value === INVALID ? NaN : value;
+            if (column.sampleText !== null) {
+              if (column.distinct.size > CATEGORICAL_MAX) column.sampleText = null;
+              else column.sampleText.push(cell.trim());
+            }
+          }
+        }
+        if (sampled) sampleRows++;
+        rowCount++;
+      }
+    },
+  });
+  if (rowCount === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
+
+  const columns: ScannedColumn[] = header.map((name, c) => {
+    const column = stats[c];
+    const filled = rowCount - column.missing;
+    const distinct = column.capped ? DISTINCT_CAP + 1 : column.distinct.size;
+    const kind = filled > 0 && column.numeric === filled ? 'numeric' : distinct <= CATEGORICAL_MAX ? 'categorical' : 'text';
+    return { name, kind, distinct, missing: column.missing };
+  });
+  const guess = guessMapping(header, columns, stats, sampleRows);
+  return {
+    fileName: info.fileName,
+    sha256: info.sha256,
+    bytes: info.bytes,
+    delimiter: layout.delimiter,
+    rowCount,
+    columns,
+    preview,
+    guess,
+  };
+}
+
+function guessMapping(header: string[], columns: ScannedColumn[], stats: ColumnStats[], sampleRows: number): MappingGuess {
+  const used = new Set<number>();
+  const pick = (index: number | undefined): string | null => {
+    if (index === undefined || index < 0) return null;
+    used.add(index);
+    return header[index];
+  };
+  const indices = header.map((_, c) => c);
+
+  // Outcome: a two-valued column, by name first.
+  const twoValued = indices.filter((c) => columns[c].distinct === 2);
+  const outcomeAt = twoValued.find((c) => OUTCOME_NAMES.test(header[c])) ?? twoValued.find((c) => columns[c].kind === 'numeric') ?? twoValued[0];
+  const outcome = pick(outcomeAt);
+  let badValue: string | null = null;
+  let badSample: Uint8Array | null = null;
+  if (outcomeAt !== undefined) {
+    const column = stats[outcomeAt];
+    const values = [...column.distinct];
+    const counts = new Map<string, number>();
+    for (const text of column.sampleText ?? []) counts.set(text, (counts.get(text) ?? 0) + 1);
+    badValue = badValueOf(values, counts);
+    if (column.sampleText !== null && column.sampleText.length === sampleRows) {
+      badSample = Uint8Array.from(column.sampleText, (text) => (text === badValue ? 1 : text === '' ? 2 : 0));
+    }
+  }
+
+  const idAt = indices.find((c) => !used.has(c) && ID_NAMES.test(header[c]) && columns[c].distinct > CATEGORICAL_MAX);
+  const id = pick(idAt);
+
+  // Scores: numeric columns with many values, by name where possible.
+  const numeric = indices.filter((c) => !used.has(c) && columns[c].kind === 'numeric' && columns[c].distinct > 2);
+  const scoreLike = numeric.filter((c) => !EXPOSURE_NAMES.test(header[c]) || SCORE_NAMES.test(header[c]));
+  let championAt = scoreLike.find((c) => CHAMPION_NAMES.test(header[c]));
+  let challengerAt = scoreLike.find((c) => c !== championAt && CHALLENGER_NAMES.test(header[c]));
+  const rest = scoreLike.filter((c) => c !== championAt && c !== challengerAt);
+  const ranked = [...rest.filter((c) => SCORE_NAMES.test(header[c])), ...rest.filter((c) => !SCORE_NAMES.test(header[c]))];
+  if (championAt === undefined) championAt = ranked.shift();
+  if (challengerAt === undefined) challengerAt = ranked.shift();
+  const champion = pick(championAt);
+  const challenger = pick(challengerAt);
+
+  const exposureAt = indices.find((c) => !used.has(c) && columns[c].kind === 'numeric' && EXPOSURE_NAMES.test(header[c]));
+  const exposure = pick(exposureAt);
+
+  const segments = indices
+    .filter((c) => !used.has(c) && columns[c].kind === 'categorical' && columns[c].distinct >= 2)
+    .map((c) => header[c]);
+
+  const orientation = (at: number | undefined): { higherIs: HigherIs | null; hint: string | null } => {
+    if (at === undefined) return { higherIs: null, hint: null };
+    const byName: HigherIs = RISKIER_NAMES.test(header[at]) ? 'riskier' : 'safer';
+    if (badSample === null) {
+      return { higherIs: byName, hint: byName === 'riskier' ? 'the name reads like a probability of default' : 'the usual convention for points' };
+    }
+    const sample = stats[at].sample;
+    const rows: number[] = [];
+    for (let i = 0; i < sampleRows; i++) if (badSample[i] !== 2 && !Number.isNaN(sample[i])) rows.push(i);
+    const scores = Float64Array.from(rows, (i) => sample[i]);
+    const bad = Uint8Array.from(rows, (i) => badSample![i]);
+    let value: number;
+    try {
+      value = auc(scoreBlocks(scores, bad));
+    } catch {
+      return { higherIs: byName, hint: 'only one outcome in the first rows; guessed from the name' };
+    }
+    const shown = (Math.max(value, 1 - value)).toFixed(3);
+    const base = `on the first ${rows.length.toLocaleString('en-US')} rows`;
+    if (value > 0.51) return { higherIs: 'safer', hint: `bads have lower scores: AUC ${shown} taking higher = safer, ${base}` };
+    if (value < 0.49) return { higherIs: 'riskier', hint: `bads have higher scores: AUC ${shown} taking higher = riskier, ${base}` };
+    return { higherIs: byName, hint: `the data barely separate (AUC ${value.toFixed(3)}); guessed from the name` };
+  };
+  const championOrientation = orientation(championAt);
+  const challengerOrientation = orientation(challengerAt);
+  return {
+    outcome,
+    badValue,
+    champion,
+    challenger,
+    higherIs: { champion: championOrientation.higherIs, challenger: challengerOrientation.higherIs },
+    orientationHints: { champion: championOrientation.hint, challenger: challengerOrientation.hint },
+    id,
+    segments,
+    exposure,
+  };
+}
+
+/** The guess as a complete mapping, or null while a required part is missing. */
+export function mappingFromGuess(guess: MappingGuess): ColumnMapping | null {
+  const { outcome, badValue, champion, challenger, higherIs } = guess;
+  if (!outcome || !badValue || !champion || !challenger || !higherIs.champion || !higherIs.challenger) return null;
+  return {
+    outcome,
+    badValue,
+    champion,
+    challenger,
+    higherIs: { champion: higherIs.champion, challenger: higherIs.challenger },
+    id: guess.id,
+    segments: guess.segments,
+    exposure: guess.exposure,
+  };
+}
+

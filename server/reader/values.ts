@@ -1,0 +1,37 @@
+/**
+ * Cell values: numbers as written in CSV exports, and the usual spellings of "no value".
+ * Numbers: what JavaScript's Number() reads, except hexadecimal/binary/octal literals and
+ * Infinity; surrounding spaces allowed; a decimal comma (`0,125`) only in semicolon-separated
+ * files, where it is the norm.
+ */
+
+/** Cells read as missing (after trimming, case-insensitive). */
+export const MISSING_TOKENS = new Set(['', 'na', 'n/a', 'nan', 'null', 'none', '.', '-', '#n/a']);
+
+export const MISSING = Symbol('missing');
+export const INVALID = Symbol('invalid');
+export type ParsedNumber = number | typeof MISSING | typeof INVALID;
+
+const DECIMAL_COMMA = /^[+-]?\d+,\d+$/;
+
+export function isMissing(cell: string): boolean {
+  return cell.length === 0 || MISSING_TOKENS.has(cell.trim().toLowerCase());
+}
+
+export function parseNumber(cell: string, decimalComma: boolean): ParsedNumber {
+  const value = +cell;
+  if (value - value === 0 && cell.length !== 0) {
+    // Finite. Number() also reads '  ' as 0 and '0x1f' as 31: rule those out.
+    if (value === 0 && cell.trim().length === 0) return MISSING;
+    const c0 = cell.charCodeAt(0);
+    if (c0 === 48 && cell.length > 2) {
+      const c1 = cell.charCodeAt(1) | 32;
+      if (c1 === 120 || c1 === 98 || c1 === 111) return INVALID;
+    }
+    return value;
+  }
+  const trimmed = cell.trim();
+  if (MISSING_TOKENS.has(trimmed.toLowerCase())) return MISSING;
+  if (decimalComma && DECIMAL_COMMA.test(trimmed)) return +trimmed.replace(',', '.');
+  return INVALID;
+}

@@ -1,0 +1,423 @@
+import seedrandom from 'seedrandom';
+import type { ScoreBlocks } from './order';
+
+/**
+ * The bootstrap's inner loop, shared by the calling thread and the worker threads
+ * (bootstrap-worker.ts). See bootstrap.ts for the method; this file holds the data layout and
+ * the per-replicate kernel.
+ *
+ * Cells. AUC and KS of both models depend on a resample only through how many times each
+ * (champion score, challenger score, outcome) combination was drawn, so the accounts are
+ * grouped into such cells once, and a replicate draws cell counts instead of accounts: a
+ * stratified paired bootstrap draws n_good goods and n_bad bads with replacement, i.e. the counts
+ * of the good cells are Multinomial(n_good; m_c / n_good) and likewise for the bads, m_c being
+ * the cell's size. With continuous scores every cell is one account; with points there are far
+ * fewer cells than accounts.
+ *
+ * Multinomial counts, exactly, in O(cells + n/64 + √n) per replicate: draw independent
+ * Poisson(m_c) counts (their conditional law given the stratum total T is Multinomial(T; m_c/N),
+ * the Poisson splitting property), then bring T to N: while T > N remove a uniformly chosen draw
+ * (propose a cell with probability m_c/N by a uniform account, accept with probability
+ * (count_c/m_c)/R, R ≥ max count/m), while T < N add a draw from a uniformly chosen account. A
+ * uniformly chosen subset, or added independent draws, of an i.i.d. sample is an i.i.d. sample,
+ * so the result is Multinomial(N; m_c/N) whatever T was. Poisson(m) for m ≤ 64 is drawn by
+ * inversion of a tabulated cdf (with a 32-entry guide table; probabilities resolved to 2^-32,
+ * tails beyond 1e-17 cut); larger m as a sum of Poisson(64) and a remainder.
+ *
+ * Random numbers: xoshiro128** (Blackman & Vigna 2018, "Scrambled linear pseudorandom number
+ * generators"), inlined; its state for replicate r is four 32-bit words from seedrandom's ARC4
+ * keyed with `${seed}:${r}`. Each replicate has its own stream, so the result does not depend on
+ * how replicates are spread over threads.
+ */
+
+export const POISSON_TABLE_MAX = 64;
+const GUIDE = 32;
+const TWO_POW_32 = 4294967296;
+const INV_TWO_POW_32 = 1 / TWO_POW_32;
+const TWO_POW_53 = 9007199254740992;
+
+/** Cell data, on SharedArrayBuffers so worker threads read them without copies. */
+export interface BootstrapPlan {
+  cells: number;
+  nGood: number;
+  nBad: number;
+  /** Cell sizes, in champion order (cells sorted by champion score, challenger score, outcome). */
+  size: Uint32Array;
+  /** 1 / size. */
+  inverseSize: Float64Array;
+  /** Bit 0: bad cell; bit 1: last cell of its champion block. */
+  flagsChampion: Uint8Array;
+  /** Each cell's position in challenger order, and the flags in that order (bit 0 bad, bit 1 last
+   * cell of its challenger block). */
+  positionChallenger: Uint32Array;
+  flagsChallenger: Uint8Array;
+  /** For each good (bad) account, its cell: the urn uniform draws pick from. */
+  goodCells: Uint32Array;
+  badCells: Uint32Array;
+}
+
+function shared<T extends Uint8Array | Uint32Array | Float64Array>(Kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number }, length: number): T {
+  return new Kind(new SharedArrayBuffer(Math.max(1, length) * Kind.BYTES_PER_ELEMENT));
+}
+
+/** Block index of every account, from one model's blocks. */
+function ranks(blocks: ScoreBlocks, n: number): Uint32Array {
+  const rank = new Uint32Array(n);
+  for (let k = 0; k < blocks.count; k++) for (let at = blocks.start[k]; at < blocks.start[k + 1]; at++) rank[blocks.order[at]] = k;
+  return rank;
+}
+
+/** Stable counting sort of `items` by key[item] in [0, range). */
+function sortByKey(items: Uint32Array, key: (item: number) => number, range: number): Uint32Array {
+  const count = new Uint32Array(range + 1);
+  for (let i = 0; i < items.length; i++) count[key(items[i]) + 1]++;
+  for (let b = 1; b <= range; b++) count[b] += count[b - 1];
+  const out = new Uint32Array(items.length);
+  for (let i = 0; i < items.length; i++) out[count[key(items[i])]++] = items[i];
+  return out;
+}
+
+/** Groups the accounts into cells. O(n). */
+export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array): BootstrapPlan {
+  const n = bad.length;
+  const rankA = ranks(champion, n);
+  const rankB = ranks(challenger, n);
+  // Rows by (champion block, challenger block, outcome): two stable counting sorts.
+  const byB = sortByKey(challenger.order, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
+  const rows = sortByKey(byB, (row) => rankA[row], champion.count);
+
+  let cells = 0;
+  for (let k = 0; k < n; k++) {
+    const row = rows[k];
+    if (k === 0) cells++;
+    else {
+      const previous = rows[k - 1];
+      if (rankA[row] !== rankA[previous] || rankB[row] !== rankB[previous] || bad[row] !== bad[previous]) cells++;
+    }
+  }
+  const size = shared(Uint32Array, cells);
+  const inverseSize = shared(Float64Array, cells);
+  const flagsChampion = shared(Uint8Array, cells);
+  const cellRankA = new Uint32Array(cells);
+  const cellRankB = new Uint32Array(cells);
+  const goodCells = shared(Uint32Array, champion.nGood);
+  const badCells = shared(Uint32Array, champion.nBad);
+  let c = -1;
+  let goodAt = 0;
+  let badAt = 0;
+  for (let k = 0; k < n; k++) {
+    const row = rows[k];
+    if (k === 0 || rankA[row] !== rankA[rows[k - 1]] || rankB[row] !== rankB[rows[k - 1]] || bad[row] !== bad[rows[k - 1]]) {
+      c++;
+      cellRankA[c] = rankA[row];
+      cellRankB[c] = rankB[row];
+      flagsChampion[c] = bad[row];
+    }
+    size[c]++;
+    if (bad[row]) badCells[badAt++] = c;
+    else goodCells[goodAt++] = c;
+  }
+  for (let k = 0; k < cells; k++) {
+    inverseSize[k] = 1 / size[k];
+    if (k === cells - 1 || cellRankA[k + 1] !== cellRankA[k]) flagsChampion[k] |= 2;
+  }
+  const identity = new Uint32Array(cells);
+  for (let k = 0; k < cells; k++) identity[k] = k;
+  const byChallenger = sortByKey(identity, (cell) => cellRankB[cell], challenger.count);
+  const positionChallenger = shared(Uint32Array, cells);
+  const flagsChallenger = shared(Uint8Array, cells);
+  for (let j = 0; j < cells; j++) {
+    const cell = byChallenger[j];
+    positionChallenger[cell] = j;
+    flagsChallenger[j] = (flagsChampion[cell] & 1) | (j === cells - 1 || cellRankB[byChallenger[j + 1]] !== cellRankB[cell] ? 2 : 0);
+  }
+  return {
+    cells,
+    nGood: champion.nGood,
+    nBad: champion.nBad,
+    size,
+    inverseSize,
+    flagsChampion,
+    positionChallenger,
+    flagsChallenger,
+    goodCells,
+    badCells,
+  };
+}
+
+/** Inversion tables for Poisson(λ), λ = 1 … POISSON_TABLE_MAX: cdf values and guide entries. */
+interface PoissonTables {
+  cdf: Float64Array;
+  offset: Uint32Array;
+  guide: Uint32Array;
+}
+
+let tables: PoissonTables | null = null;
+
+function poissonTables(): PoissonTables {
+  if (tables !== null) return tables;
+  const lists: number[][] = [];
+  for (let lambda = 1; lambda <= POISSON_TABLE_MAX; lambda++) {
+    // p_k by the recurrence p_k = p_{k−1}·λ/k; stop when the upper tail is below 1e-17.
+    const cdf: number[] = [];
+    let p = Math.exp(-lambda);
+    let sum = 0;
+    for (let k = 0; ; k++) {
+      if (k > 0) p = (p * lambda) / k;
+      sum += p;
+      cdf.push(sum);
+      if (k > lambda && 1 - sum < 1e-17) break;
+      if (k > lambda && p < 1e-300) break;
+    }
+    cdf[cdf.length - 1] = 1;
+    lists.push(cdf);
+  }
+  const total = lists.reduce((sum, list) => sum + list.length, 0);
+  const cdf = new Float64Array(total);
+  const offset = new Uint32Array(POISSON_TABLE_MAX + 2);
+  const guide = new Uint32Array((POISSON_TABLE_MAX + 1) * GUIDE);
+  let at = 0;
+  for (let lambda = 1; lambda <= POISSON_TABLE_MAX; lambda++) {
+    const list = lists[lambda - 1];
+    offset[lambda] = at;
+    cdf.set(list, at);
+    // guide[j]: the smallest k with cdf[k] > j / GUIDE, where the search for u ∈ [j/G, (j+1)/G) starts.
+    let k = 0;
+    for (let j = 0; j < GUIDE; j++) {
+      while (list[k] <= j / GUIDE) k++;
+      guide[lambda * GUIDE + j] = k;
+    }
+    at += list.length;
+  }
+  offset[POISSON_TABLE_MAX + 1] = at;
+  tables = { cdf, offset, guide };
+  return tables;
+}
+
+/** The four 32-bit state words of replicate r's generator. */
+export function replicateState(seed: number, replicate: number): Int32Array {
+  const arc4 = seedrandom(`${seed}:${replicate}`);
+  const state = new Int32Array(4);
+  do {
+    for (let i = 0; i < 4; i++) state[i] = arc4.int32();
+  } while ((state[0] | state[1] | state[2] | state[3]) === 0);
+  return state;
+}
+
+/** xoshiro128** on a state array: the next output as an unsigned 32-bit integer. */
+export function nextUint32(state: Int32Array): number {
+  const s1 = state[1];
+  const x = Math.imul(s1, 5);
+  const result = Math.imul((x << 7) | (x >>> 25), 9) >>> 0;
+  const t = s1 << 9;
+  state[2] ^= state[0];
+  state[3] ^= s1;
+  state[1] ^= state[2];
+  state[0] ^= state[3];
+  state[2] ^= t;
+  state[3] = (state[3] << 11) | (state[3] >>> 21);
+  return result;
+}
+
+/** A uniform integer in [0, bound), exactly: a 53-bit draw, the last partial range rejected. */
+function uniformIndex(state: Int32Array, bound: number): number {
+  const limit = TWO_POW_53 - (TWO_POW_53 % bound);
+  for (;;) {
+    const high = nextUint32(state) >>> 11;
+    const value = high * TWO_POW_32 + nextUint32(state);
+    if (value < limit) return value % bound;
+  }
+}
+
+/** Per-replicate results: AUC and KS of both models. */
+export interface ReplicateOutput {
+  aucChampion: Float64Array;
+  aucChallenger: Float64Array;
+  ksChampion: Float64Array;
+  ksChallenger: Float64Array;
+}
+
+/** Scratch space for runReplicates: each cell's count, in champion and in challenger order. */
+export interface ReplicateScratch {
+  counts: Int32Array;
+  countsChallenger: Int32Array;
+}
+
+export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
+  return { counts: new Int32Array(plan.cells), countsChallenger: new Int32Array(plan.cells) };
+}
+
+/**
+ * Runs replicates [from, to) and writes their results at [from − offset, to − offset) of `out`.
+ * The counts are written in both orders as they are drawn (a scatter), so both passes read
+ * memory in sequence.
+ */
+export function runReplicates(
+  plan: BootstrapPlan,
+  seed: number,
+  from: number,
+  to: number,
+  out: ReplicateOutput,
+  offset: number,
+  scratch: ReplicateScratch,
+  /** Tests only: sees each replicate's cell counts (champion order) before they are used. */
+  inspect?: (replicate: number, counts: Int32Array) => void,
+): void {
+  const { cells, nGood, nBad, size, inverseSize, flagsChampion, positionChallenger, flagsChallenger, goodCells, badCells } = plan;
+  const { counts, countsChallenger } = scratch;
+  const { cdf, offset: tableAt, guide } = poissonTables();
+  const pairs = nGood * nBad;
+  const L = POISSON_TABLE_MAX;
+  const tableL = tableAt[L];
+  const guideL = L * GUIDE;
+  // The cdf of Poisson(1) (its table starts at offset 0).
+  const p0 = cdf[0];
+  const p1 = cdf[1];
+  const p2 = cdf[2];
+  const p3 = cdf[3];
+  const p4 = cdf[4];
+  const p5 = cdf[5];
+
+  for (let r = from; r < to; r++) {
+    const state = replicateState(seed, r);
+    let s0 = state[0];
+    let s1 = state[1];
+    let s2 = state[2];
+    let s3 = state[3];
+
+    // 1. Poisson(m_c) counts. xoshiro128** is inlined on local variables (two copies below).
+    let totalGood = 0;
+    let totalBad = 0;
+    let ratioGood = 0;
+    let ratioBad = 0;
+    for (let c = 0; c < cells; c++) {
+      let m = size[c];
+      let k = 0;
+      while (m > L) {
+        const x = Math.imul(s1, 5);
+        const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
+        const t = s1 << 9;
+        s2 ^= s0;
+        s3 ^= s1;
+        s1 ^= s2;
+        s0 ^= s3;
+        s2 ^= t;
+        s3 = (s3 << 11) | (s3 >>> 21);
+        let j = guide[guideL + ((u * GUIDE) | 0)];
+        while (u >= cdf[tableL + j]) j++;
+        k += j;
+        m -= L;
+      }
+      const x = Math.imul(s1, 5);
+      const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = (s3 << 11) | (s3 >>> 21);
+      let j: number;
+      if (m === 1) {
+        // Poisson(1), the usual case for continuous scores: six comparisons without branches.
+        j = +(u >= p0) + +(u >= p1) + +(u >= p2) + +(u >= p3) + +(u >= p4) + +(u >= p5);
+        if (j === 6) while (u >= cdf[j]) j++;
+      } else {
+        const base = tableAt[m];
+        j = guide[m * GUIDE + ((u * GUIDE) | 0)];
+        while (u >= cdf[base + j]) j++;
+      }
+      k += j;
+      counts[c] = k;
+      countsChallenger[positionChallenger[c]] = k;
+      const ratio = k * inverseSize[c];
+      if (flagsChampion[c] & 1) {
+        totalBad += k;
+        if (ratio > ratioBad) ratioBad = ratio;
+      } else {
+        totalGood += k;
+        if (ratio > ratioGood) ratioGood = ratio;
+      }
+    }
+    state[0] = s0;
+    state[1] = s1;
+    state[2] = s2;
+    state[3] = s3;
+
+    // 2. Bring each stratum's total to its size.
+    for (let stratum = 0; stratum < 2; stratum++) {
+      const urn = stratum === 0 ? goodCells : badCells;
+      const target = stratum === 0 ? nGood : nBad;
+      let total = stratum === 0 ? totalGood : totalBad;
+      const bound = (stratum === 0 ? ratioGood : ratioBad) * (1 + 1e-12);
+      while (total > target) {
+        const cell = urn[uniformIndex(state, target)];
+        if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[cell] * inverseSize[cell]) {
+          counts[cell]--;
+          countsChallenger[positionChallenger[cell]]--;
+          total--;
+        }
+      }
+      while (total < target) {
+        const cell = urn[uniformIndex(state, target)];
+        counts[cell]++;
+        countsChallenger[positionChallenger[cell]]++;
+        total++;
+      }
+    }
+
+    if (inspect) inspect(r, counts);
+
+    // 3. Champion: cells in champion order, blocks taken whole.
+    let goods = 0;
+    let bads = 0;
+    let cumGood = 0;
+    let cumBad = 0;
+    let wins = 0;
+    let gap = 0;
+    for (let c = 0; c < cells; c++) {
+      const w = counts[c];
+      const flags = flagsChampion[c];
+      if (flags & 1) bads += w;
+      else goods += w;
+      if (flags & 2) {
+        wins += goods * (cumBad + bads * 0.5);
+        cumBad += bads;
+        cumGood += goods;
+        const d = cumBad * nGood - cumGood * nBad;
+        const absolute = d < 0 ? -d : d;
+        if (absolute > gap) gap = absolute;
+        goods = 0;
+        bads = 0;
+      }
+    }
+    out.aucChampion[r - offset] = wins / pairs;
+    out.ksChampion[r - offset] = gap / pairs;
+
+    // 4. Challenger: the same over the cells in challenger order.
+    goods = 0;
+    bads = 0;
+    cumGood = 0;
+    cumBad = 0;
+    wins = 0;
+    gap = 0;
+    for (let j = 0; j < cells; j++) {
+      const w = countsChallenger[j];
+      const flags = flagsChallenger[j];
+      if (flags & 1) bads += w;
+      else goods += w;
+      if (flags & 2) {
+        wins += goods * (cumBad + bads * 0.5);
+        cumBad += bads;
+        cumGood += goods;
+        const d = cumBad * nGood - cumGood * nBad;
+        const absolute = d < 0 ? -d : d;
+        if (absolute > gap) gap = absolute;
+        goods = 0;
+        bads = 0;
+      }
+    }
+    out.aucChallenger[r - offset] = wins / pairs;
+    out.ksChallenger[r - offset] = gap / pairs;
+  }
+}

@@ -1,0 +1,179 @@
+import type { z } from 'zod';
+import { type AdoptionPolicy, defaultAdoptionPolicy } from '@shared/policy';
+import {
+  analysisSettingsSchema,
+  type ColumnMapping,
+  type Difference,
+  type ModelMetrics,
+  type Report,
+  type SwapSets,
+} from '@shared/report';
+import { bandTable } from './bands';
+import { bootstrap } from './bootstrap';
+import { curves } from './curves';
+import { dataQuality } from './data-quality';
+import { pairedDelong } from './delong';
+import { economics } from './economics';
+import type { Holdout } from './holdout';
+import { ks } from './ks';
+import { safety, scoreBlocks } from './order';
+import { preparePolicyData } from './policy-data';
+import { segments } from './segments';
+import { StatisticError } from './statistic-error';
+import { strategyCurve } from './strategy-curve';
+import { swapMatrix } from './swap-matrix';
+import { swapSets } from './swap-sets';
+import { verdict } from './verdict';
+
+/**
+ * The whole comparison of one holdout: every section of shared/report.ts `Report`, from the
+ * Holdout in column form. A plain async function over typed arrays, so it runs the same in the
+ * CLI, in a test, or inside a job's worker thread (the bootstrap starts its own threads).
+ *
+ * Order of work: both models sorted once (order.ts) → AUC, paired DeLong and KS (auc.ts,
+ * delong.ts, ks.ts) → the bootstrap (bootstrap.ts, most of the time) → swap sets, swap matrix,
+ * strategy curve, band tables, curves, economics and data quality on data prepared from the same
+ * orders (policy-data.ts and its consumers) → segments (segments.ts) → the verdict under the
+ * adoption policy (verdict.ts). Cost: O(n log n) + O(replicates · cells).
+ */
+
+/** Version of the statistics engine, stored with every report (bump when a number can change). */
+export const engineVersion = '1.0.0';
+
+export interface AnalysisProgress {
+  /** 0 to 1. */
+  fraction: number;
+  /** What is being done, e.g. "Bootstrap 1,200 of 2,000". */
+  stage: string;
+}
+
+export interface BuildReportInput {
+  holdout: Holdout;
+  input: Report['input'];
+  mapping: ColumnMapping;
+  /** Missing fields take analysisSettingsSchema's defaults. */
+  settings?: z.input<typeof analysisSettingsSchema>;
+  /** Default: defaultAdoptionPolicy (shared/policy.ts). */
+  policy?: AdoptionPolicy;
+  /** What the reader counted (reader/load.ts `ReadSummary`); without it the holdout is taken as read. */
+  read?: { rowsRead: number; rowsDroppedMissingScore: number; missingByColumn: Record<string, number> };
+  onProgress?: (progress: AnalysisProgress) => void;
+  /** Bootstrap threads (see bootstrap.ts); default one per core for large jobs. */
+  threads?: number;
+}
+
+const count = (value: number) => value.toLocaleString('en-US');
+
+// Share of the progress bar each stage ends at.
+const PROGRESS = { ranked: 0.04, delong: 0.06, bootstrap: 0.9, policy: 0.96, segments: 0.99 } as const;
+
+export async function buildReport(request: BuildReportInput): Promise<Report> {
+  const { holdout, mapping } = request;
+  const settings = analysisSettingsSchema.parse(request.settings ?? {});
+  const policy = request.policy ?? defaultAdoptionPolicy;
+  let last = 0;
+  const report = (fraction: number, stage: string) => {
+    last = Math.max(last, Math.min(1, fraction));
+    request.onProgress?.({ fraction: last, stage });
+  };
+  const { n, bad } = holdout;
+  let bads = 0;
+  for (let i = 0; i < n; i++) bads += bad[i];
+  if (bads === 0 || bads === n) throw new StatisticError('a comparison requires at least one good and one bad', 'single_class');
+
+  report(0, 'Ranking both models');
+  const championSafety = safety(holdout.champion, holdout.higherIs.champion);
+  const challengerSafety = safety(holdout.challenger, holdout.higherIs.challenger);
+  const championBlocks = scoreBlocks(championSafety, bad);
+  const challengerBlocks = scoreBlocks(challengerSafety, bad);
+  report(PROGRESS.ranked, 'AUC, DeLong and KS');
+
+  const delong = pairedDelong(championBlocks, challengerBlocks, bad, settings.confidence);
+  const championKs = ks(championBlocks, holdout.higherIs.champion);
+  const challengerKs = ks(challengerBlocks, holdout.higherIs.challenger);
+  report(PROGRESS.delong, settings.bootstrap > 0 ? `Bootstrap 0 of ${count(settings.bootstrap)}` : 'Swap sets, strategy curve and bands');
+
+  const span = PROGRESS.bootstrap - PROGRESS.delong;
+  const boot = await bootstrap(championBlocks, challengerBlocks, bad, {
+    replicates: settings.bootstrap,
+    seed: settings.seed,
+    confidence: settings.confidence,
+    threads: request.threads,
+    onProgress: (done, total) => report(PROGRESS.delong + (span * done) / total, `Bootstrap ${count(done)} of ${count(total)}`),
+  });
+  report(PROGRESS.bootstrap, 'Swap sets, strategy curve and bands');
+
+  const data = preparePolicyData(holdout, {
+    bands: settings.bands,
+    orders: { champion: championBlocks.order, challenger: challengerBlocks.order },
+  });
+  const swap = swapSets(
+    data,
+    settings.cutoffs === null
+      ? { basis: 'approval-rate', approvalRate: settings.approvalRate }
+      : { basis: 'cutoffs', cutoffs: settings.cutoffs },
+    settings.confidence,
+  );
+  let swapAtPolicyRate: SwapSets | null = null;
+  if (policy.swapRule.enabled) {
+    swapAtPolicyRate =
+      swap.basis === 'approval-rate' && swap.requestedApprovalRate === policy.swapRule.approvalRate
+        ? swap
+        : swapSets(data, { basis: 'approval-rate', approvalRate: policy.swapRule.approvalRate }, settings.confidence);
+  }
+  const matrix = swapMatrix(data);
+  const strategy = strategyCurve(data, settings.approvalRate);
+  const bands = { champion: bandTable(data, 'champion'), challenger: bandTable(data, 'challenger') };
+  const curvePoints = curves(data);
+  const profit = settings.economics === null ? null : economics(data, settings.economics);
+  const quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
+  report(PROGRESS.policy, 'Segments');
+
+  const segmentRows = segments(holdout, {
+    championSafety,
+    challengerSafety,
+    champion: championBlocks,
+    challenger: challengerBlocks,
+    sided: policy.sided,
+    confidence: settings.confidence,
+  });
+  report(PROGRESS.segments, 'Verdict');
+
+  const model = (name: 'champion' | 'challenger', ksResult: { ks: number; score: number }, ksCi: [number, number] | null): ModelMetrics => {
+    const { auc, aucSe, aucCi, gini, giniCi } = delong[name];
+    return { higherIs: holdout.higherIs[name], auc, aucSe, aucCi, gini, giniCi, ks: ksResult.ks, ksScore: ksResult.score, ksCi };
+  };
+  const difference: Difference = {
+    ...delong.difference,
+    giniBootstrapCi: boot.deltaGiniCi,
+    ks: challengerKs.ks - championKs.ks,
+    ksCi: boot.deltaKsCi,
+  };
+  const result: Report = {
+    engineVersion,
+    input: request.input,
+    mapping,
+    settings,
+    policy,
+    rows: n,
+    goods: n - bads,
+    bads,
+    badRate: bads / n,
+    champion: model('champion', championKs, boot.championKsCi),
+    challenger: model('challenger', challengerKs, boot.challengerKsCi),
+    difference,
+    bootstrap: boot.section,
+    swap,
+    swapMatrix: matrix,
+    strategyCurve: strategy,
+    bands,
+    segments: segmentRows,
+    dataQuality: quality,
+    curves: curvePoints,
+    economics: profit,
+    verdict: { outcome: 'not-proven', policyVersion: policy.version, criteria: [], summary: '' },
+  };
+  result.verdict = verdict(result, policy, swapAtPolicyRate);
+  report(1, 'Done');
+  return result;
+}
