@@ -2,12 +2,15 @@ import { type LineCustomSvgLayerProps, type LineSeries } from '@nivo/line';
 import { type SeriesStyle } from '@/components/charts/chart-theme';
 import { MarkerShape } from '@/components/charts/series-marker';
 
+/** The series shape the charts use: numeric x and y. */
+export type XYSeries = { id: string; data: { x: number; y: number }[] };
+
 /**
  * A nivo line layer that draws every series in its own style (dash pattern, width, markers every
  * `markerEvery` points), which nivo's own "lines" layer cannot do per series. Series ids must be
  * keys of `styles`.
  */
-export function styledLinesLayer<Series extends LineSeries>(styles: Record<string, SeriesStyle>, markerCount = 9) {
+export function styledLinesLayer<Series extends LineSeries = XYSeries>(styles: Record<string, SeriesStyle>, markerCount = 9) {
   function StyledLines({ series, lineGenerator }: LineCustomSvgLayerProps<Series>) {
     return (
       <g>

@@ -19,6 +19,8 @@ export const mappingFormSchema = z
     segments: z.array(z.string()),
     exposure: z.string(),
     weight: z.string(),
+    /** Leave out rows with an empty score (counted in the report) instead of stopping. */
+    dropMissing: z.boolean(),
   })
   .superRefine((value, context) => {
     const used = new Map<string, string>();
@@ -46,7 +48,7 @@ export const mappingFormSchema = z
 export type MappingFormValues = z.infer<typeof mappingFormSchema>;
 
 /** Form values from an earlier mapping (resuming or re-running), else from the reader's guess. */
-export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping | null = null): MappingFormValues {
+export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping | null = null, dropMissing = false): MappingFormValues {
   if (previous) {
     return {
       outcome: previous.outcome,
@@ -58,6 +60,7 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
       segments: previous.segments ?? [],
       exposure: previous.exposure ?? '',
       weight: previous.weight ?? '',
+      dropMissing,
     };
   }
   return {
@@ -70,6 +73,7 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
     segments: guess.segments,
     exposure: guess.exposure ?? '',
     weight: '',
+    dropMissing,
   };
 }
 
