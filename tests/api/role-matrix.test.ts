@@ -30,6 +30,20 @@ const intendedAccess: Record<string, string> = {
   'POST /users/invitations': 'admin',
   'PATCH /users/:id': 'admin',
   'GET /outbox': 'admin',
+  'POST /holdouts': 'modeler',
+  'GET /holdouts/:id': 'signed-in',
+  'POST /holdouts/:id/validate': 'modeler',
+  'POST /comparisons': 'modeler',
+  'PUT /comparisons/:id/setup': 'modeler',
+  'GET /comparisons': 'signed-in',
+  'GET /comparisons/:id': 'signed-in',
+  'GET /comparisons/:id/report': 'signed-in',
+  'POST /comparisons/:id/swap': 'signed-in',
+  'GET /comparisons/:id/scenarios': 'signed-in',
+  'POST /comparisons/:id/scenarios': 'policy',
+  'GET /comparisons/:id/export/bands.csv': 'signed-in',
+  'GET /comparisons/:id/export/swap.csv': 'policy',
+  'GET /comparisons/:id/export/report.json': 'signed-in',
 };
 
 let t: TestApp;

@@ -1,0 +1,43 @@
+import type { ComparisonHeadline } from '@shared/comparisons';
+import type { AdoptionPolicy } from '@shared/policy';
+import type { Report, Verdict } from '@shared/report';
+
+/** What the main thread gives an analysis worker (workerData). */
+export interface AnalysisJob {
+  databasePath: string;
+  runId: number;
+  /** 1 for the first try. */
+  attempt: number;
+  policy: AdoptionPolicy;
+}
+
+/** What an analysis worker posts back. */
+export type WorkerMessage =
+  | { type: 'progress'; fraction: number; stage: string }
+  | {
+      type: 'done';
+      /** The report as the JSON text the API serves. */
+      report: string;
+      engineVersion: string;
+      headline: ComparisonHeadline;
+      verdict: Verdict;
+      /** Accounts riskiest first, per model (transferred, not copied). */
+      orders: { champion: Uint32Array; challenger: Uint32Array };
+    }
+  /** `permanent`: the data or settings cannot give a report (trying again would fail the same way). */
+  | { type: 'failed'; message: string; permanent: boolean };
+
+/** The list's headline numbers, from a report. */
+export function headlineOf(report: Report): ComparisonHeadline {
+  return {
+    rows: report.rows,
+    bads: report.bads,
+    championGini: report.champion.gini,
+    challengerGini: report.challenger.gini,
+    deltaGini: report.difference.gini,
+    deltaGiniCi: report.difference.giniCi,
+    pOneSided: report.difference.pOneSided,
+    pTwoSided: report.difference.pTwoSided,
+    verdict: report.verdict.outcome,
+  };
+}
