@@ -53,7 +53,7 @@ export function ComparisonDetailsForm({ holdoutId, fileName, onCreated, onBack }
         </Alert>
       ) : null}
       <TextField
-        label="Name"
+        label="Name of the comparison"
         hint="What is being compared, as colleagues will look for it: e.g. “Cash-flow challenger, 2025 holdout”."
         error={errors.name?.message}
         autoComplete="off"
