@@ -4,7 +4,7 @@ import type { Holdout, SegmentColumn } from '@server/stats/holdout';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { HoldoutInputError, quoteCell, where } from './errors';
-import { INVALID, isMissing, MISSING, parseNumber } from './values';
+import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
 
 /**
  * Loads a holdout file with a column mapping into the engine's column form (typed arrays), in
@@ -157,7 +157,9 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   };
 
   const outcomeOf = (cell: string, line: number): number => {
-    const value = cell.trim();
+    if (cell === badValue) return 1;
+    if (cell === goodValue) return 0;
+    const value = trimCell(cell);
     if (value === badValue) return 1;
     if (value.length === 0 || isMissing(value)) {
       sink.report(new HoldoutInputError('missing_outcome', `${where(line, mapping.outcome)}: the outcome is empty`, line, mapping.outcome));
@@ -283,12 +285,12 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
         challenger.push(b as number);
         if (exposure !== null) exposure.push(amount);
         if (ids !== null) {
-          const id = row[idAt].trim();
+          const id = trimCell(row[idAt]);
           if (id.length === 0) missingByColumn[idName!]++;
-          ids.push(id);
+          ids.push(detach(id));
         }
         for (let s = 0; s < segmentAt.length; s++) {
-          let level = row[segmentAt[s]].trim();
+          let level = trimCell(row[segmentAt[s]]);
           if (isMissing(level)) {
             missingByColumn[segmentNames[s]]++;
             level = '(blank)';
@@ -297,7 +299,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           let code = levels.get(level);
           if (code === undefined) {
             code = levels.size;
-            levels.set(level, code);
+            levels.set(detach(level), code);
           }
           segmentCodes[s].push(code);
         }

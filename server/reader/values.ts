@@ -15,7 +15,17 @@ export type ParsedNumber = number | typeof MISSING | typeof INVALID;
 const DECIMAL_COMMA = /^[+-]?\d+,\d+$/;
 
 export function isMissing(cell: string): boolean {
-  return cell.length === 0 || MISSING_TOKENS.has(cell.trim().toLowerCase());
+  const length = cell.length;
+  if (length === 0) return true;
+  // The longest token has 4 characters: a longer cell without surrounding spaces is a value.
+  if (length > 4 && cell.charCodeAt(0) > 32 && cell.charCodeAt(length - 1) > 32) return false;
+  return MISSING_TOKENS.has(cell.trim().toLowerCase());
+}
+
+/** The cell without surrounding spaces; the same string when there are none (no allocation). */
+export function trimCell(cell: string): string {
+  const length = cell.length;
+  return length > 0 && (cell.charCodeAt(0) <= 32 || cell.charCodeAt(length - 1) <= 32) ? cell.trim() : cell;
 }
 
 export function parseNumber(cell: string, decimalComma: boolean): ParsedNumber {
@@ -34,4 +44,13 @@ export function parseNumber(cell: string, decimalComma: boolean): ParsedNumber {
   if (MISSING_TOKENS.has(trimmed.toLowerCase())) return MISSING;
   if (decimalComma && DECIMAL_COMMA.test(trimmed)) return +trimmed.replace(',', '.');
   return INVALID;
+}
+
+/**
+ * A copy of a cell that does not point into the text it was cut from. V8 keeps substrings of 13
+ * or more characters as views of their parent string, so keeping such an id would keep the whole
+ * chunk of the file alive; concatenating and cutting again forces a copy of just the cell.
+ */
+export function detach(cell: string): string {
+  return cell.length < 13 ? cell : (' ' + cell).slice(1);
 }

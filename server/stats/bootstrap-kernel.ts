@@ -31,6 +31,8 @@ import type { ScoreBlocks } from './order';
  */
 
 export const POISSON_TABLE_MAX = 64;
+/** Largest cell; bigger combinations are split (see BootstrapPlan.size). */
+export const MAX_CELL = 255;
 const GUIDE = 32;
 const TWO_POW_32 = 4294967296;
 const INV_TWO_POW_32 = 1 / TWO_POW_32;
@@ -41,10 +43,13 @@ export interface BootstrapPlan {
   cells: number;
   nGood: number;
   nBad: number;
-  /** Cell sizes, in champion order (cells sorted by champion score, challenger score, outcome). */
-  size: Uint32Array;
-  /** 1 / size. */
-  inverseSize: Float64Array;
+  /**
+   * Cell sizes, in champion order (cells sorted by champion score, challenger score, outcome).
+   * A combination with more than MAX_CELL accounts is split into several cells (adjacent, same
+   * scores): the multinomial of the parts sums to that of the whole, and small sizes keep the
+   * per-replicate data small.
+   */
+  size: Uint8Array;
   /** Bit 0: bad cell; bit 1: last cell of its champion block. */
   flagsChampion: Uint8Array;
   /** Each cell's position in challenger order, and the flags in that order (bit 0 bad, bit 1 last
@@ -86,17 +91,23 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   const byB = sortByKey(challenger.order, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
   const rows = sortByKey(byB, (row) => rankA[row], champion.count);
 
-  let cells = 0;
-  for (let k = 0; k < n; k++) {
+  // A new cell where the combination changes, or where the current one is full.
+  const newCell = (k: number, run: number): boolean => {
+    if (k === 0 || run === MAX_CELL) return true;
     const row = rows[k];
-    if (k === 0) cells++;
-    else {
-      const previous = rows[k - 1];
-      if (rankA[row] !== rankA[previous] || rankB[row] !== rankB[previous] || bad[row] !== bad[previous]) cells++;
+    const previous = rows[k - 1];
+    return rankA[row] !== rankA[previous] || rankB[row] !== rankB[previous] || bad[row] !== bad[previous];
+  };
+  let cells = 0;
+  let run = 0;
+  for (let k = 0; k < n; k++) {
+    if (newCell(k, run)) {
+      cells++;
+      run = 0;
     }
+    run++;
   }
-  const size = shared(Uint32Array, cells);
-  const inverseSize = shared(Float64Array, cells);
+  const size = shared(Uint8Array, cells);
   const flagsChampion = shared(Uint8Array, cells);
   const cellRankA = new Uint32Array(cells);
   const cellRankB = new Uint32Array(cells);
@@ -105,20 +116,22 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   let c = -1;
   let goodAt = 0;
   let badAt = 0;
+  run = 0;
   for (let k = 0; k < n; k++) {
     const row = rows[k];
-    if (k === 0 || rankA[row] !== rankA[rows[k - 1]] || rankB[row] !== rankB[rows[k - 1]] || bad[row] !== bad[rows[k - 1]]) {
+    if (newCell(k, run)) {
       c++;
+      run = 0;
       cellRankA[c] = rankA[row];
       cellRankB[c] = rankB[row];
       flagsChampion[c] = bad[row];
     }
+    run++;
     size[c]++;
     if (bad[row]) badCells[badAt++] = c;
     else goodCells[goodAt++] = c;
   }
   for (let k = 0; k < cells; k++) {
-    inverseSize[k] = 1 / size[k];
     if (k === cells - 1 || cellRankA[k + 1] !== cellRankA[k]) flagsChampion[k] |= 2;
   }
   const identity = new Uint32Array(cells);
@@ -136,7 +149,6 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
     nGood: champion.nGood,
     nBad: champion.nBad,
     size,
-    inverseSize,
     flagsChampion,
     positionChallenger,
     flagsChallenger,
@@ -239,18 +251,19 @@ export interface ReplicateOutput {
 
 /** Scratch space for runReplicates: each cell's count, in champion and in challenger order. */
 export interface ReplicateScratch {
-  counts: Int32Array;
-  countsChallenger: Int32Array;
+  counts: Uint16Array;
+  countsChallenger: Uint16Array;
 }
 
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
-  return { counts: new Int32Array(plan.cells), countsChallenger: new Int32Array(plan.cells) };
+  return { counts: new Uint16Array(plan.cells), countsChallenger: new Uint16Array(plan.cells) };
 }
 
 /**
  * Runs replicates [from, to) and writes their results at [from − offset, to − offset) of `out`.
  * The counts are written in both orders as they are drawn (a scatter), so both passes read
- * memory in sequence.
+ * memory in sequence. Each step is its own small function: V8 keeps their loop variables in
+ * registers, which it does not manage in one long function.
  */
 export function runReplicates(
   plan: BootstrapPlan,
@@ -261,12 +274,49 @@ export function runReplicates(
   offset: number,
   scratch: ReplicateScratch,
   /** Tests only: sees each replicate's cell counts (champion order) before they are used. */
-  inspect?: (replicate: number, counts: Int32Array) => void,
+  inspect?: (replicate: number, counts: Uint16Array) => void,
 ): void {
-  const { cells, nGood, nBad, size, inverseSize, flagsChampion, positionChallenger, flagsChallenger, goodCells, badCells } = plan;
+  const { cells, nGood, nBad, size, flagsChampion, positionChallenger, flagsChallenger, goodCells, badCells } = plan;
   const { counts, countsChallenger } = scratch;
-  const { cdf, offset: tableAt, guide } = poissonTables();
-  const pairs = nGood * nBad;
+  const tables = poissonTables();
+  const totals = new Float64Array(3);
+  const scores = new Float64Array(2);
+  for (let r = from; r < to; r++) {
+    const state = replicateState(seed, r);
+    // 1. Poisson(m_c) counts; totals = [all draws, bad draws, max count / size].
+    drawPoissonCounts(cells, size, flagsChampion, positionChallenger, counts, countsChallenger, state, tables, totals);
+    // 2. Bring each stratum's total to its size.
+    const bound = totals[2] * (1 + 1e-12);
+    adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
+    adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
+    if (inspect) inspect(r, counts);
+    // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
+    scoreCells(counts, flagsChampion, cells, nGood, nBad, scores);
+    out.aucChampion[r - offset] = scores[0];
+    out.ksChampion[r - offset] = scores[1];
+    scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores);
+    out.aucChallenger[r - offset] = scores[0];
+    out.ksChallenger[r - offset] = scores[1];
+  }
+}
+
+/**
+ * Independent Poisson(size) counts for every cell, written in champion order and, through
+ * positionChallenger, in challenger order. xoshiro128** is inlined on local variables (the
+ * generator's state is read from and written back to `state`).
+ */
+function drawPoissonCounts(
+  cells: number,
+  size: Uint8Array,
+  flags: Uint8Array,
+  positionChallenger: Uint32Array,
+  counts: Uint16Array,
+  countsChallenger: Uint16Array,
+  state: Int32Array,
+  tables: PoissonTables,
+  totals: Float64Array,
+): void {
+  const { cdf, offset: tableAt, guide } = tables;
   const L = POISSON_TABLE_MAX;
   const tableL = tableAt[L];
   const guideL = L * GUIDE;
@@ -277,37 +327,18 @@ export function runReplicates(
   const p3 = cdf[3];
   const p4 = cdf[4];
   const p5 = cdf[5];
-
-  for (let r = from; r < to; r++) {
-    const state = replicateState(seed, r);
-    let s0 = state[0];
-    let s1 = state[1];
-    let s2 = state[2];
-    let s3 = state[3];
-
-    // 1. Poisson(m_c) counts. xoshiro128** is inlined on local variables (two copies below).
-    let totalGood = 0;
-    let totalBad = 0;
-    let ratioGood = 0;
-    let ratioBad = 0;
-    for (let c = 0; c < cells; c++) {
-      let m = size[c];
-      let k = 0;
-      while (m > L) {
-        const x = Math.imul(s1, 5);
-        const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
-        const t = s1 << 9;
-        s2 ^= s0;
-        s3 ^= s1;
-        s1 ^= s2;
-        s0 ^= s3;
-        s2 ^= t;
-        s3 = (s3 << 11) | (s3 >>> 21);
-        let j = guide[guideL + ((u * GUIDE) | 0)];
-        while (u >= cdf[tableL + j]) j++;
-        k += j;
-        m -= L;
-      }
+  let s0 = state[0];
+  let s1 = state[1];
+  let s2 = state[2];
+  let s3 = state[3];
+  let total = 0;
+  let totalBad = 0;
+  let ratioMax = 0;
+  for (let c = 0; c < cells; c++) {
+    const cellSize = size[c];
+    let m = cellSize;
+    let k = 0;
+    while (m > L) {
       const x = Math.imul(s1, 5);
       const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
       const t = s1 << 9;
@@ -317,107 +348,110 @@ export function runReplicates(
       s0 ^= s3;
       s2 ^= t;
       s3 = (s3 << 11) | (s3 >>> 21);
-      let j: number;
-      if (m === 1) {
-        // Poisson(1), the usual case for continuous scores: six comparisons without branches.
-        j = +(u >= p0) + +(u >= p1) + +(u >= p2) + +(u >= p3) + +(u >= p4) + +(u >= p5);
-        if (j === 6) while (u >= cdf[j]) j++;
-      } else {
-        const base = tableAt[m];
-        j = guide[m * GUIDE + ((u * GUIDE) | 0)];
-        while (u >= cdf[base + j]) j++;
-      }
+      let j = guide[guideL + ((u * GUIDE) | 0)];
+      while (u >= cdf[tableL + j]) j++;
       k += j;
-      counts[c] = k;
-      countsChallenger[positionChallenger[c]] = k;
-      const ratio = k * inverseSize[c];
-      if (flagsChampion[c] & 1) {
-        totalBad += k;
-        if (ratio > ratioBad) ratioBad = ratio;
-      } else {
-        totalGood += k;
-        if (ratio > ratioGood) ratioGood = ratio;
-      }
+      m -= L;
     }
-    state[0] = s0;
-    state[1] = s1;
-    state[2] = s2;
-    state[3] = s3;
-
-    // 2. Bring each stratum's total to its size.
-    for (let stratum = 0; stratum < 2; stratum++) {
-      const urn = stratum === 0 ? goodCells : badCells;
-      const target = stratum === 0 ? nGood : nBad;
-      let total = stratum === 0 ? totalGood : totalBad;
-      const bound = (stratum === 0 ? ratioGood : ratioBad) * (1 + 1e-12);
-      while (total > target) {
-        const cell = urn[uniformIndex(state, target)];
-        if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[cell] * inverseSize[cell]) {
-          counts[cell]--;
-          countsChallenger[positionChallenger[cell]]--;
-          total--;
-        }
-      }
-      while (total < target) {
-        const cell = urn[uniformIndex(state, target)];
-        counts[cell]++;
-        countsChallenger[positionChallenger[cell]]++;
-        total++;
-      }
+    const x = Math.imul(s1, 5);
+    const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
+    const t = s1 << 9;
+    s2 ^= s0;
+    s3 ^= s1;
+    s1 ^= s2;
+    s0 ^= s3;
+    s2 ^= t;
+    s3 = (s3 << 11) | (s3 >>> 21);
+    let j: number;
+    if (m === 1) {
+      // Poisson(1), the usual case for continuous scores: six comparisons without branches.
+      j = +(u >= p0) + +(u >= p1) + +(u >= p2) + +(u >= p3) + +(u >= p4) + +(u >= p5);
+      if (j === 6) while (u >= cdf[j]) j++;
+    } else {
+      const base = tableAt[m];
+      j = guide[m * GUIDE + ((u * GUIDE) | 0)];
+      while (u >= cdf[base + j]) j++;
     }
-
-    if (inspect) inspect(r, counts);
-
-    // 3. Champion: cells in champion order, blocks taken whole.
-    let goods = 0;
-    let bads = 0;
-    let cumGood = 0;
-    let cumBad = 0;
-    let wins = 0;
-    let gap = 0;
-    for (let c = 0; c < cells; c++) {
-      const w = counts[c];
-      const flags = flagsChampion[c];
-      if (flags & 1) bads += w;
-      else goods += w;
-      if (flags & 2) {
-        wins += goods * (cumBad + bads * 0.5);
-        cumBad += bads;
-        cumGood += goods;
-        const d = cumBad * nGood - cumGood * nBad;
-        const absolute = d < 0 ? -d : d;
-        if (absolute > gap) gap = absolute;
-        goods = 0;
-        bads = 0;
-      }
-    }
-    out.aucChampion[r - offset] = wins / pairs;
-    out.ksChampion[r - offset] = gap / pairs;
-
-    // 4. Challenger: the same over the cells in challenger order.
-    goods = 0;
-    bads = 0;
-    cumGood = 0;
-    cumBad = 0;
-    wins = 0;
-    gap = 0;
-    for (let j = 0; j < cells; j++) {
-      const w = countsChallenger[j];
-      const flags = flagsChallenger[j];
-      if (flags & 1) bads += w;
-      else goods += w;
-      if (flags & 2) {
-        wins += goods * (cumBad + bads * 0.5);
-        cumBad += bads;
-        cumGood += goods;
-        const d = cumBad * nGood - cumGood * nBad;
-        const absolute = d < 0 ? -d : d;
-        if (absolute > gap) gap = absolute;
-        goods = 0;
-        bads = 0;
-      }
-    }
-    out.aucChallenger[r - offset] = wins / pairs;
-    out.ksChallenger[r - offset] = gap / pairs;
+    k += j;
+    counts[c] = k;
+    countsChallenger[positionChallenger[c]] = k;
+    total += k;
+    totalBad += k * (flags[c] & 1);
+    const ratio = cellSize === 1 ? k : k / cellSize;
+    if (ratio > ratioMax) ratioMax = ratio;
   }
+  state[0] = s0;
+  state[1] = s1;
+  state[2] = s2;
+  state[3] = s3;
+  totals[0] = total;
+  totals[1] = totalBad;
+  totals[2] = ratioMax;
+}
+
+/**
+ * Brings one stratum's total from `total` to `target`: removes uniformly chosen draws (a cell
+ * proposed by a uniform account, accepted with probability (count/size)/bound), or adds draws
+ * of uniform accounts. `bound` ≥ every count/size.
+ */
+function adjustStratum(
+  urn: Uint32Array,
+  target: number,
+  total: number,
+  bound: number,
+  size: Uint8Array,
+  positionChallenger: Uint32Array,
+  counts: Uint16Array,
+  countsChallenger: Uint16Array,
+  state: Int32Array,
+): void {
+  while (total > target) {
+    const cell = urn[uniformIndex(state, target)];
+    if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[cell] / size[cell]) {
+      counts[cell]--;
+      countsChallenger[positionChallenger[cell]]--;
+      total--;
+    }
+  }
+  while (total < target) {
+    const cell = urn[uniformIndex(state, target)];
+    // Counts are 16-bit: a cell would need over 65,000 of the added draws (far beyond anything
+    // with a probability above 1e-300); refuse rather than wrap around.
+    if (counts[cell] === 0xffff) throw new RangeError('bootstrap: a cell count passed 65535');
+    counts[cell]++;
+    countsChallenger[positionChallenger[cell]]++;
+    total++;
+  }
+}
+
+/**
+ * AUC and KS of one model from the cell counts in that model's order (bit 0 of flags: bad cell;
+ * bit 1: last cell of its block): scores = [AUC, KS].
+ */
+function scoreCells(counts: Uint16Array, flags: Uint8Array, cells: number, nGood: number, nBad: number, scores: Float64Array): void {
+  let goods = 0;
+  let bads = 0;
+  let cumGood = 0;
+  let cumBad = 0;
+  let wins = 0;
+  let gap = 0;
+  for (let c = 0; c < cells; c++) {
+    const w = counts[c];
+    const f = flags[c];
+    if (f & 1) bads += w;
+    else goods += w;
+    if (f & 2) {
+      wins += goods * (cumBad + bads * 0.5);
+      cumBad += bads;
+      cumGood += goods;
+      const d = cumBad * nGood - cumGood * nBad;
+      const absolute = d < 0 ? -d : d;
+      if (absolute > gap) gap = absolute;
+      goods = 0;
+      bads = 0;
+    }
+  }
+  const pairs = nGood * nBad;
+  scores[0] = wins / pairs;
+  scores[1] = gap / pairs;
 }

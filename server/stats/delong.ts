@@ -68,9 +68,9 @@ export interface PairedDelong {
 }
 
 /** Each account's placement: V10 for goods, V01 for bads. */
-function placements(blocks: ScoreBlocks, bad: Uint8Array): Float64Array {
-  const { order, count, start, goods, bads, nGood, nBad } = blocks;
-  const out = new Float64Array(bad.length);
+function placements(blocks: ScoreBlocks, n: number): Float64Array {
+  const { order, sortedBad, count, start, goods, bads, nGood, nBad } = blocks;
+  const out = new Float64Array(n);
   let badsBelow = 0;
   let goodsAbove = nGood;
   for (let k = 0; k < count; k++) {
@@ -79,10 +79,7 @@ function placements(blocks: ScoreBlocks, bad: Uint8Array): Float64Array {
     goodsAbove -= g;
     const forGood = (badsBelow + b / 2) / nBad;
     const forBad = (goodsAbove + g / 2) / nGood;
-    for (let at = start[k]; at < start[k + 1]; at++) {
-      const row = order[at];
-      out[row] = bad[row] ? forBad : forGood;
-    }
+    for (let at = start[k]; at < start[k + 1]; at++) out[order[at]] = sortedBad[at] ? forBad : forGood;
     badsBelow += b;
   }
   return out;
@@ -103,8 +100,8 @@ export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad
 
   const thetaA = auc(champion);
   const thetaB = auc(challenger);
-  const pa = placements(champion, bad);
-  const pb = placements(challenger, bad);
+  const pa = placements(champion, n);
+  const pb = placements(challenger, n);
 
   // Sums of squares and cross-products of centred placements, per class.
   let gAA = 0;

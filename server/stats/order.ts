@@ -23,6 +23,15 @@ export function safety(scores: Float64Array, higherIs: HigherIs): Float64Array {
 
 const RADIX = 1 << 16;
 
+/** A stable ascending sort: the order, and optionally the sorted values and a carried byte column. */
+interface Sorted {
+  order: Uint32Array;
+  /** values[order[k]], when asked for. */
+  sorted: Float64Array | null;
+  /** carry[order[k]], when a byte column was given. */
+  carried: Uint8Array | null;
+}
+
 /**
  * Indices that sort `values` ascending; ties keep index order (a stable sort).
  * −0 and +0 are equal; NaN sorts after +Infinity (the engine never passes NaN: the reader
@@ -30,6 +39,15 @@ const RADIX = 1 << 16;
  * sort, everything else the radix sort.
  */
 export function argsortAscending(values: Float64Array): Uint32Array {
+  return sortRows(values, false, null).order;
+}
+
+/**
+ * The sort behind argsortAscending, also producing the sorted values and a byte column (the
+ * outcome) in sorted order without a gather: random reads are what costs most at a million rows,
+ * so the values travel with the indices instead of being looked up afterwards.
+ */
+function sortRows(values: Float64Array, withValues: boolean, carry: Uint8Array | null): Sorted {
   const n = values.length;
   if (n >= 2 ** 32) throw new RangeError('argsortAscending: more than 2^32 − 1 values');
   let min = Infinity;
@@ -41,23 +59,39 @@ export function argsortAscending(values: Float64Array): Uint32Array {
     if (v > max) max = v;
     if (integers && v !== Math.floor(v)) integers = false;
   }
-  if (n > 0 && integers && max - min < Math.max(RADIX, 2 * n)) return countingArgsort(values, min, max - min + 1);
-  return radixArgsort(values);
+  if (n > 0 && integers && max - min < Math.max(RADIX, 2 * n)) return countingSort(values, min, max - min + 1, withValues, carry);
+  return radixSort(values, withValues, carry);
 }
 
 /** Stable counting sort of integer values in [min, min + range). */
-function countingArgsort(values: Float64Array, min: number, range: number): Uint32Array {
+function countingSort(values: Float64Array, min: number, range: number, withValues: boolean, carry: Uint8Array | null): Sorted {
   const n = values.length;
   const count = new Uint32Array(range + 1);
   for (let i = 0; i < n; i++) count[values[i] - min + 1]++;
   for (let b = 1; b <= range; b++) count[b] += count[b - 1];
+  let sorted: Float64Array | null = null;
+  if (withValues) {
+    sorted = new Float64Array(n);
+    // Each value's run: [count[b], count[b + 1]).
+    for (let b = 0; b < range; b++) if (count[b + 1] > count[b]) sorted.fill(min + b, count[b], count[b + 1]);
+  }
   const index = new Uint32Array(n);
-  for (let i = 0; i < n; i++) index[count[values[i] - min]++] = i;
-  return index;
+  let carried: Uint8Array | null = null;
+  if (carry !== null) {
+    carried = new Uint8Array(n);
+    for (let i = 0; i < n; i++) {
+      const at = count[values[i] - min]++;
+      index[at] = i;
+      carried[at] = carry[i];
+    }
+  } else {
+    for (let i = 0; i < n; i++) index[count[values[i] - min]++] = i;
+  }
+  return { order: index, sorted, carried };
 }
 
 /** LSD radix sort on order-preserving 64-bit keys, 16 bits per pass. */
-function radixArgsort(values: Float64Array): Uint32Array {
+function radixSort(values: Float64Array, withValues: boolean, carry: Uint8Array | null): Sorted {
   const n = values.length;
   const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
   // Order-preserving unsigned keys: flip every bit of negatives, only the sign bit of the rest;
@@ -97,8 +131,13 @@ function radixArgsort(values: Float64Array): Uint32Array {
 
   let index: Uint32Array | null = null;
   let nextIndex: Uint32Array = new Uint32Array(n);
-  let nextLo = passes.length > 1 ? new Uint32Array(n) : lo;
-  let nextHi = passes.length > 1 ? new Uint32Array(n) : hi;
+  // Keys travel with the indices through every pass but the last, and through the last too when
+  // the sorted values are wanted; so does the carried byte column.
+  const keepKeys = withValues || passes.length > 1;
+  let nextLo = keepKeys && passes.length > 0 ? new Uint32Array(n) : lo;
+  let nextHi = keepKeys && passes.length > 0 ? new Uint32Array(n) : hi;
+  let bytes: Uint8Array | null = carry === null ? null : Uint8Array.from(carry);
+  let nextBytes: Uint8Array | null = carry === null ? null : new Uint8Array(n);
   for (let p = 0; p < passes.length; p++) {
     const digit = passes[p];
     const count = counts[digit];
@@ -110,34 +149,54 @@ function radixArgsort(values: Float64Array): Uint32Array {
     }
     const shift = digit % 2 === 0 ? 0 : 16;
     const key = digit >= 2 ? hi : lo;
-    const last = p === passes.length - 1;
+    const moveKeys = withValues || p < passes.length - 1;
     for (let i = 0; i < n; i++) {
       const at = count[(key[i] >>> shift) & 0xffff]++;
       nextIndex[at] = index === null ? i : index[i];
-      if (!last) {
+      if (moveKeys) {
         nextLo[at] = lo[i];
         nextHi[at] = hi[i];
       }
+      if (bytes !== null) nextBytes![at] = bytes[i];
     }
     const previous = index ?? new Uint32Array(n);
     index = nextIndex;
     nextIndex = previous;
-    if (!last) {
+    if (moveKeys) {
       [lo, nextLo] = [nextLo, lo];
       [hi, nextHi] = [nextHi, hi];
     }
+    if (bytes !== null) [bytes, nextBytes] = [nextBytes!, bytes];
   }
   if (index === null) {
     index = new Uint32Array(n);
     for (let i = 0; i < n; i++) index[i] = i;
   }
-  return index;
+  let sorted: Float64Array | null = null;
+  if (withValues) {
+    // Back from keys to doubles, in sorted order.
+    sorted = new Float64Array(n);
+    const out = new Uint32Array(sorted.buffer);
+    for (let k = 0; k < n; k++) {
+      const h = hi[k];
+      if (h & 0x80000000) {
+        out[2 * k + 1] = (h & 0x7fffffff) >>> 0;
+        out[2 * k] = lo[k];
+      } else {
+        out[2 * k + 1] = ~h >>> 0;
+        out[2 * k] = ~lo[k] >>> 0;
+      }
+    }
+  }
+  return { order: index, sorted, carried: bytes };
 }
 
 /** Equal-score blocks of one model's scores in ascending "safety" order. */
 export interface ScoreBlocks {
   /** Row indices in ascending order of the (safety) values, ties in row order. */
   order: Uint32Array;
+  /** The outcome in that order: bad[order[k]]. */
+  sortedBad: Uint8Array;
   /** Number of blocks (distinct values). */
   count: number;
   /** Block k covers order[start[k]] … order[start[k + 1] − 1]; length count + 1. */
@@ -152,32 +211,57 @@ export interface ScoreBlocks {
 
 /**
  * Sorts `values` (already "higher = safer") and cuts the order into blocks of equal values, with
- * the goods and bads in each. `order` may be passed when it is already known.
+ * the goods and bads in each. `order` may be passed when it is already known (then the values
+ * and outcomes are gathered into that order).
  */
-export function scoreBlocks(values: Float64Array, bad: Uint8Array, order: Uint32Array = argsortAscending(values)): ScoreBlocks {
+export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint32Array): ScoreBlocks {
   const n = values.length;
   if (bad.length !== n) throw new RangeError('scoreBlocks: scores and outcomes differ in length');
+  let sorted: Float64Array;
+  let sortedBad: Uint8Array;
+  if (order === undefined) {
+    const result = sortRows(values, true, bad);
+    order = result.order;
+    sorted = result.sorted!;
+    sortedBad = result.carried!;
+  } else {
+    if (order.length !== n) throw new RangeError('scoreBlocks: the order must have one entry per score');
+    sorted = new Float64Array(n);
+    sortedBad = new Uint8Array(n);
+    for (let k = 0; k < n; k++) {
+      const row = order[k];
+      sorted[k] = values[row];
+      sortedBad[k] = bad[row];
+    }
+  }
   let blocks = 0;
-  for (let k = 0; k < n; k++) if (k === 0 || values[order[k]] !== values[order[k - 1]]) blocks++;
+  for (let k = 0; k < n; k++) if (k === 0 || sorted[k] !== sorted[k - 1]) blocks++;
   const start = new Uint32Array(blocks + 1);
   const value = new Float64Array(blocks);
   const goods = new Uint32Array(blocks);
   const bads = new Uint32Array(blocks);
   let b = -1;
+  let blockBads = 0;
   let nBad = 0;
   for (let k = 0; k < n; k++) {
-    const row = order[k];
-    const v = values[row];
-    if (k === 0 || v !== values[order[k - 1]]) {
+    const v = sorted[k];
+    if (k === 0 || v !== sorted[k - 1]) {
+      if (b >= 0) {
+        bads[b] = blockBads;
+        goods[b] = k - start[b] - blockBads;
+      }
       b++;
       start[b] = k;
-      value[b] = v;
+      value[b] = v === 0 ? 0 : v; // −0 reads as +0
+      blockBads = 0;
     }
-    if (bad[row]) {
-      bads[b]++;
-      nBad++;
-    } else goods[b]++;
+    blockBads += sortedBad[k];
   }
+  if (b >= 0) {
+    bads[b] = blockBads;
+    goods[b] = n - start[b] - blockBads;
+  }
+  for (let k = 0; k < blocks; k++) nBad += bads[k];
   start[blocks] = n;
-  return { order, count: blocks, start, value, goods, bads, nGood: n - nBad, nBad };
+  return { order, sortedBad, count: blocks, start, value, goods, bads, nGood: n - nBad, nBad };
 }

@@ -65,28 +65,30 @@ describe('bootstrap cell counts', () => {
     expect([...seen.keys()].every((key) => key.split(',').reduce((s, v) => s + Number(v), 0) === 6)).toBe(true);
   });
 
-  it('keep the multinomial mean and variance for large cells (Poisson(64) chunks)', () => {
-    // One good cell of 200 accounts and one of 50; 400 bads in one cell. Count of the 200-cell:
-    // Binomial(250, 0.8): mean 200, variance 40. 4,000 replicates: the mean is within 4 standard
-    // errors (4·√(40/4000) = 0.4), the variance within 15%.
-    const n = 650;
+  it('keep the multinomial mean and variance for large combinations (split cells, Poisson(64) chunks)', () => {
+    // One good combination of 600 accounts (split into cells of 255, 255 and 90) and one of 150;
+    // 400 bads in one combination. Draws of the 600: Binomial(750, 0.8), mean 600, variance 120.
+    // 4,000 replicates: the mean within 4 standard errors (4·√(120/4000) = 0.69), the variance
+    // within 15%.
+    const n = 1150;
     const scores = new Float64Array(n);
     const bad = new Uint8Array(n);
     for (let i = 0; i < n; i++) {
-      scores[i] = i < 200 ? 2 : i < 250 ? 3 : 1;
-      bad[i] = i >= 250 ? 1 : 0;
+      scores[i] = i < 600 ? 2 : i < 750 ? 3 : 1;
+      bad[i] = i >= 750 ? 1 : 0;
     }
     const blocks = scoreBlocks(scores, bad);
     const plan = planBootstrap(blocks, blocks, bad);
-    const big = [...plan.size].findIndex((size, c) => size === 200 && !(plan.flagsChampion[c] & 1));
+    expect([...plan.size]).toEqual([255, 145, 255, 255, 90, 150]);
+    const big = [2, 3, 4]; // the cells of the 600-account combination, in champion order
     const replicates = 4000;
     const values: number[] = [];
     const out = { aucChampion: new Float64Array(replicates), aucChallenger: new Float64Array(replicates), ksChampion: new Float64Array(replicates), ksChallenger: new Float64Array(replicates) };
-    runReplicates(plan, 3, 0, replicates, out, 0, replicateScratch(plan), (_, counts) => values.push(counts[big]));
+    runReplicates(plan, 3, 0, replicates, out, 0, replicateScratch(plan), (_, counts) => values.push(big.reduce((s, c) => s + counts[c], 0)));
     const mean = values.reduce((s, v) => s + v, 0) / replicates;
     const variance = values.reduce((s, v) => s + (v - mean) ** 2, 0) / (replicates - 1);
-    expect(Math.abs(mean - 200)).toBeLessThan(0.4);
-    expect(Math.abs(variance / 40 - 1)).toBeLessThan(0.15);
+    expect(Math.abs(mean - 600)).toBeLessThan(0.69);
+    expect(Math.abs(variance / 120 - 1)).toBeLessThan(0.15);
   });
 
   it('score each replicate exactly as AUC and KS of the resampled holdout would', () => {

@@ -59,3 +59,27 @@ describe('scoreBlocks', () => {
     expect(safety(pd, 'safer')).toBe(pd);
   });
 });
+
+describe('scoreBlocks without an order', () => {
+  it('equals the blocks built from argsortAscending (values and outcomes carried through the sort)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.oneof(fc.double({ noNaN: true }), fc.integer({ min: -50, max: 50 }).map((v) => v)), fc.boolean()), { maxLength: 200 }),
+        (rows) => {
+          const values = Float64Array.from(rows.map(([v]) => v));
+          const bad = Uint8Array.from(rows.map(([, b]) => (b ? 1 : 0)));
+          const carried = scoreBlocks(values, bad);
+          const gathered = scoreBlocks(values, bad, argsortAscending(values));
+          expect(carried).toEqual(gathered);
+          for (let k = 0; k < values.length; k++) expect(carried.sortedBad[k]).toBe(bad[carried.order[k]]);
+        },
+      ),
+    );
+    // integer points only (the counting path), and all-equal values (no radix pass at all)
+    const points = Float64Array.from([600, 580, 600, 610, 580]);
+    const bad = Uint8Array.from([1, 0, 0, 1, 1]);
+    expect(scoreBlocks(points, bad)).toEqual(scoreBlocks(points, bad, argsortAscending(points)));
+    const flat = Float64Array.from([0.5, 0.5, 0.5]);
+    expect(scoreBlocks(flat, Uint8Array.from([0, 1, 0]))).toMatchObject({ count: 1, value: Float64Array.from([0.5]) });
+  });
+});
