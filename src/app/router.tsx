@@ -74,6 +74,7 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
                 },
                 { path: paths.admin.people.pattern, ...page(queryClient, () => import('@/app/routes/admin/people')) },
                 { path: paths.admin.outbox.pattern, ...page(queryClient, () => import('@/app/routes/admin/outbox')) },
+                { path: paths.admin.policy.pattern, ...page(queryClient, () => import('@/app/routes/admin/policy')) },
                 ...(import.meta.env.DEV
                   ? [{ path: paths.dev.components.pattern, ...page(queryClient, () => import('@/app/routes/dev/components')) }]
                   : []),

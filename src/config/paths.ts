@@ -82,8 +82,8 @@ export const paths = {
 
   /**
    * Downloads served by the API, used as plain links (the session cookie goes with them): the band
-   * tables, the swap-in and swap-out accounts at given cut-offs or approval rate (policy role), and
-   * the report as JSON.
+   * tables, the swap-in and swap-out accounts at given cut-offs or approval rate (policy role), the
+   * report as JSON, and the evidence pack.
    */
   exports: {
     bandsCsv: path('/api/comparisons/:id/export/bands.csv', (id: Id) => `/api/comparisons/${segment(id)}/export/bands.csv`),
@@ -96,6 +96,8 @@ export const paths = {
         ),
     ),
     reportJson: path('/api/comparisons/:id/export/report.json', (id: Id) => `/api/comparisons/${segment(id)}/export/report.json`),
+    /** The evidence pack: report, settings, hashes, verdict records, reviews, votes, decision, notes and audit trail. */
+    evidenceJson: path('/api/comparisons/:id/evidence.json', (id: Id) => `/api/comparisons/${segment(id)}/evidence.json`),
   },
 
   admin: {

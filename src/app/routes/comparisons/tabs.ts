@@ -21,7 +21,8 @@ export const comparisonTabs: ComparisonTab[] = [
   { key: 'segments', label: 'Segments', path: paths.comparisons.segments, load: () => import('@/app/routes/comparisons/segments') },
   { key: 'bands', label: 'Bands', path: paths.comparisons.bands, load: () => import('@/app/routes/comparisons/bands') },
   { key: 'data', label: 'Data', path: paths.comparisons.data, load: () => import('@/app/routes/comparisons/data') },
-  // Review (paths.comparisons.review) and Report (paths.comparisons.report) join here with governance.
+  { key: 'review', label: 'Review & decision', path: paths.comparisons.review, load: () => import('@/app/routes/comparisons/review') },
+  { key: 'report', label: 'Report', path: paths.comparisons.report, load: () => import('@/app/routes/comparisons/report') },
 ];
 
 /** The URL a next step's button leads to, or null when its page is not part of the app yet. */
