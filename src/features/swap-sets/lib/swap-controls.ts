@@ -26,8 +26,8 @@ export function scoreRange(summary: { min: number; max: number }): ScoreRange {
   if (!(span > 0)) return { min, max: min, step: 1, decimals: 0 };
   const raw = span / 1000;
   const exponent = Math.floor(Math.log10(raw));
-  const step = 10 ** exponent;
-  return { min, max, step, decimals: Math.max(0, -exponent) };
+  const decimals = Math.max(0, -exponent);
+  return { min, max, step: Number((10 ** exponent).toFixed(decimals)), decimals };
 }
 
 /** A value snapped to the range's step and clamped to it (for a typed cut-off). */
