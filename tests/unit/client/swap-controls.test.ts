@@ -5,12 +5,15 @@ import { tradeOff } from '@/features/swap-sets/lib/trade-off';
 
 describe('cut-off sliders in each model\'s units', () => {
   it('steps whole points by one', () => {
-    expect(scoreRange({ min: 452, max: 749 })).toEqual({ min: 452, max: 749, step: 1, decimals: 0 });
+    expect(scoreRange({ min: 452, max: 749 })).toEqual({ min: 452, max: 749, sliderMin: 452, sliderMax: 749, step: 1, decimals: 0 });
   });
 
   it('steps a probability of default in about a thousand round steps', () => {
     // span 0.4985 → raw step 0.0004985 → 10^−4
-    expect(scoreRange({ min: 0.0015, max: 0.5 })).toEqual({ min: 0.0015, max: 0.5, step: 0.0001, decimals: 4 });
+    expect(scoreRange({ min: 0.0015, max: 0.5 })).toEqual({ min: 0.0015, max: 0.5, sliderMin: 0.0015, sliderMax: 0.5, step: 0.0001, decimals: 4 });
+    // The demo PD: observed 0.000155 to 0.8757, span 0.875545 → raw 0.000875545 → steps of 10^−4;
+    // the slider's low end widens to a whole step, 0.0001, so its values are round.
+    expect(scoreRange({ min: 0.000155, max: 0.8757 })).toEqual({ min: 0.000155, max: 0.8757, sliderMin: 0.0001, sliderMax: 0.8757, step: 0.0001, decimals: 4 });
   });
 
   it('snaps a typed cut-off to the range and its step', () => {
