@@ -161,7 +161,8 @@ export function Component() {
             Created by {detail.createdBy.name}, <time dateTime={isoDateTime(detail.createdAt)}>{formatDateTime(detail.createdAt)}</time>
           </span>
         </div>
-        <NextStepCallout step={steps.primary} action={steps.primary.action ? actionFor(steps.primary.action) : undefined} />
+        {/* While the first run works, its progress panel below is the next step. */}
+        {active && !hasReport ? null : <NextStepCallout step={steps.primary} action={steps.primary.action ? actionFor(steps.primary.action) : undefined} />}
         {steps.others.length > 0 ? (
           <ul className="space-y-1 text-sm text-ink-soft">
             {steps.others.map((other) => (

@@ -71,7 +71,7 @@ export function Component() {
   );
 
   const confidence = formatPercent(report.settings.confidence, 0);
-  const updating = needsServer && (swap.isFetching || !sameSwapQuery(draft, settled));
+  const updating = !sameSwapQuery(draft, settled) || (needsServer && swap.isFetching);
   const hasAmount = !!report.mapping.exposure;
 
   return (

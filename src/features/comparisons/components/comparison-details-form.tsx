@@ -8,13 +8,9 @@ import { Alert } from '@/components/callout';
 import { FieldError, FieldHint, FieldLabel, controlClasses, describedBy, useFieldIds } from '@/components/field';
 import { TextField } from '@/components/text-field';
 import { useCreateComparison } from '@/features/comparisons/api/create-comparison';
+import { nameFromFile } from '@/features/comparisons/lib/name-from-file';
 
 const detailsSchema = createComparisonInputSchema.pick({ name: true, description: true });
-
-/** A name for the comparison from its file: "tallowmere-holdout-2025.csv" → "tallowmere holdout 2025". */
-export function nameFromFile(fileName: string): string {
-  return fileName.replace(/\.[^.]+$/, '').replace(/[-_]+/g, ' ').trim().slice(0, 160);
-}
 
 /**
  * Step 2: name and describe the comparison, then store it as a draft (POST /api/comparisons

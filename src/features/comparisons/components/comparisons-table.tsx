@@ -26,7 +26,7 @@ export function ComparisonsTable({ items, total, pageIndex, pageSize, onPageChan
     () => [
       column.accessor('name', {
         header: 'Comparison',
-        meta: { rowHeader: true, cellClassName: 'min-w-56' },
+        meta: { rowHeader: true, cellClassName: 'min-w-48' },
         cell: ({ row, getValue }) => (
           <div className="space-y-0.5">
             <Link

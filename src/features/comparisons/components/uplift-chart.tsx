@@ -56,16 +56,31 @@ export function UpliftChart({ report }: { report: Report }) {
           </g>
         ))}
         <line x1={LEFT} x2={W - RIGHT} y1={axisY} y2={axisY} stroke={colors.line.strong} />
-        {/* Zero: no difference. */}
+        {/* Zero (no difference) labelled to its left, the policy's materiality line to its right, so the two never collide. */}
         <line x1={x(0)} x2={x(0)} y1={TOP - 14} y2={axisY} stroke={colors.ink.DEFAULT} strokeWidth={1.5} />
-        <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(0)} y={TOP - 20} textAnchor="middle" fontSize={12} fontWeight={600} fill={colors.ink.DEFAULT}>
-          0 = no difference
+        <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(0) - 6} y={TOP - 20} textAnchor="end" fontSize={12} fontWeight={600} fill={colors.ink.DEFAULT}>
+          {materiality === 0 ? '0 = no difference = materiality' : '0 = no difference'}
         </text>
-        {/* The policy's materiality line. */}
-        <line x1={x(materiality)} x2={x(materiality)} y1={TOP - 14} y2={axisY} stroke={colors.good.strong} strokeWidth={1.5} strokeDasharray="5 3" />
-        <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(materiality)} y={TOP - 20} textAnchor={x(materiality) - x(0) < 120 ? 'start' : 'middle'} dx={x(materiality) - x(0) < 120 ? 6 : 0} fontSize={12} fontWeight={600} fill={colors.good.strong}>
-          {`materiality ${formatGiniDelta(materiality)} (policy v${policy.version})`}
-        </text>
+        {materiality !== 0 ? (
+          <>
+            <line x1={x(materiality)} x2={x(materiality)} y1={TOP - 14} y2={axisY} stroke={colors.good.strong} strokeWidth={1.5} strokeDasharray="5 3" />
+            <text
+              paintOrder="stroke"
+              stroke="#ffffff"
+              strokeWidth={3}
+              strokeLinejoin="round"
+              // Near the right edge the label goes above the zero label's line, ending at the edge.
+              x={x(materiality) + 190 > W ? W - RIGHT : x(materiality) + 6}
+              y={x(materiality) + 190 > W ? TOP - 34 : TOP - 20}
+              textAnchor={x(materiality) + 190 > W ? 'end' : 'start'}
+              fontSize={12}
+              fontWeight={600}
+              fill={colors.good.strong}
+            >
+              {`materiality ${formatGiniDelta(materiality)} (policy v${policy.version})`}
+            </text>
+          </>
+        ) : null}
         {rows.map((row, index) => {
           const y = TOP + index * ROW + ROW / 2 - 4;
           const [lo, hi] = row.interval;

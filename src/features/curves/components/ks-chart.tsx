@@ -36,17 +36,19 @@ export function KsChart({ model, points, metrics, column: scoreColumn }: { model
   ];
   const riskiestFirst = metrics.higherIs === 'safer' ? 'lowest' : 'highest';
 
-  function Gap({ xScale, yScale }: LineCustomSvgLayerProps<(typeof data)[number]>) {
+  function Gap({ xScale, yScale, innerWidth }: LineCustomSvgLayerProps<(typeof data)[number]>) {
     if (!marker) return null;
     const x = xScale(marker.score);
     const top = yScale(Math.max(marker.cumBad, marker.cumGood));
     const bottom = yScale(Math.min(marker.cumBad, marker.cumGood));
+    // Near the right edge the label goes to the left of the gap.
+    const left = x > innerWidth * 0.65;
     return (
       <g>
         <line x1={x} x2={x} y1={top} y2={bottom} stroke={colors.ink.DEFAULT} strokeWidth={2} />
         <line x1={x - 6} x2={x + 6} y1={top} y2={top} stroke={colors.ink.DEFAULT} strokeWidth={2} />
         <line x1={x - 6} x2={x + 6} y1={bottom} y2={bottom} stroke={colors.ink.DEFAULT} strokeWidth={2} />
-        <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x + 8} y={(top + bottom) / 2} fontSize={12} fontWeight={600} fill={colors.ink.DEFAULT}>
+        <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={left ? x - 8 : x + 8} textAnchor={left ? 'end' : 'start'} y={(top + bottom) / 2} fontSize={12} fontWeight={600} fill={colors.ink.DEFAULT}>
           {`KS ${formatKs(metrics.ks)} at ${formatScore(marker.score)}`}
         </text>
       </g>

@@ -16,7 +16,7 @@ export interface XY {
  */
 export function interpolateAt(points: readonly XY[], x: number): number | null {
   if (points.length === 0) return null;
-  if (x <= points[0].x) return points[0].y;
+  if (x < points[0].x) return points[0].y;
   const last = points[points.length - 1];
   if (x >= last.x) return last.y;
   let lo = 0;

@@ -4,9 +4,12 @@ import { ApiError } from '@/lib/api-client';
 
 const listSchema = z.array(rowErrorSchema);
 
+const placeSchema = z.object({ row: z.number().int().nullable(), column: z.string().nullable() });
+
 /**
- * The row-and-column problems an API error carries in `details`: a list of row errors, or an
- * object with `errors` (the validation report's shape). Empty when it carries none.
+ * The row-and-column problems an API error carries in `details`: a list of row errors, an object
+ * with `errors` (the validation report's shape), or one place `{ row, column }` whose words are
+ * the error's message (the API's 400 for a file). Empty when it names no row and no column.
  */
 export function rowErrorsFrom(error: unknown): RowError[] {
   if (!(error instanceof ApiError)) return [];
@@ -17,6 +20,7 @@ export function rowErrorsFrom(error: unknown): RowError[] {
     const nested = listSchema.safeParse((details as { errors: unknown }).errors);
     if (nested.success) return nested.data;
   }
-  const single = rowErrorSchema.safeParse(details);
-  return single.success && (single.data.row !== null || single.data.column !== null) ? [single.data] : [];
+  const place = placeSchema.safeParse(details);
+  if (place.success && (place.data.row !== null || place.data.column !== null)) return [{ ...place.data, message: error.message }];
+  return [];
 }

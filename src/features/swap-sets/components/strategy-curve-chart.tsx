@@ -1,7 +1,7 @@
 import { type LineCustomSvgLayerProps, ResponsiveLine } from '@nivo/line';
 import { createColumnHelper } from '@tanstack/react-table';
 import { type StrategyCurve, type SwapSets } from '@shared/report';
-import { formatCount, formatPercent, formatScore } from '@/lib/format';
+import { formatPercent, formatScore } from '@/lib/format';
 import { ChartFrame } from '@/components/charts/chart-frame';
 import { ChartLegend } from '@/components/charts/chart-legend';
 import { chartTheme, colors, seriesStyles } from '@/components/charts/chart-theme';
@@ -9,6 +9,7 @@ import { MarkerShape } from '@/components/charts/series-marker';
 import { type XYSeries, styledLinesLayer } from '@/components/charts/styled-lines-layer';
 import { DataTable } from '@/components/data-table';
 import { approvedBooks } from '@/features/swap-sets/lib/swap-controls';
+import { tradeOff } from '@/features/swap-sets/lib/trade-off';
 
 type Point = StrategyCurve['points'][number];
 const column = createColumnHelper<Point>();
@@ -23,6 +24,7 @@ const tableColumns = [
 ];
 
 const lines = styledLinesLayer<XYSeries>(seriesStyles, 7);
+
 
 type StrategyCurveChartProps = {
   curve: StrategyCurve;
@@ -91,9 +93,7 @@ export function StrategyCurveChart({ curve, swap, position }: StrategyCurveChart
       caption={`Bad rate of the approved book at each approval rate, both models. At the current cut-offs the champion approves ${formatPercent(swap.champion.approvalRate)} with a ${formatPercent(
         books.champion.badRate,
         2,
-      )} bad rate and the challenger ${formatPercent(swap.challenger.approvalRate)} with ${formatPercent(books.challenger.badRate, 2)}. At a ${formatPercent(position.approvalRate, 0)} approval rate the challenger approves ${formatCount(
-        position.badsAvoided,
-      )} fewer bads; at the champion's bad rate it could approve ${formatCount(position.approvalsGainedAtEqualBadRate)} more accounts.`}
+      )} bad rate and the challenger ${formatPercent(swap.challenger.approvalRate)} with ${formatPercent(books.challenger.badRate, 2)}. ${tradeOff(position)}`}
       legend={
         <ChartLegend
           items={[

@@ -139,8 +139,8 @@ function CutoffControl({ model, column, higherIs, range, cutoff, approvalRate, o
           <input
             id={numberId}
             type="number"
-            min={range.min}
-            max={range.max}
+            min={range.sliderMin}
+            max={range.sliderMax}
             step={range.step}
             value={cutoff}
             aria-describedby={hintId}
@@ -158,8 +158,8 @@ function CutoffControl({ model, column, higherIs, range, cutoff, approvalRate, o
           <input
             id={sliderId}
             type="range"
-            min={range.min}
-            max={range.max}
+            min={range.sliderMin}
+            max={range.sliderMax}
             step={range.step}
             value={cutoff}
             aria-valuetext={`${formatScore(cutoff)}, approves ${formatPercent(approvalRate)}`}
@@ -168,8 +168,8 @@ function CutoffControl({ model, column, higherIs, range, cutoff, approvalRate, o
             style={{ direction: higherIs === 'riskier' ? 'rtl' : 'ltr' }}
           />
           <div aria-hidden="true" className="num flex justify-between text-xs text-ink-faint">
-            <span>{formatScore(higherIs === 'riskier' ? range.max : range.min)}</span>
-            <span>{formatScore(higherIs === 'riskier' ? range.min : range.max)}</span>
+            <span>{formatScore(higherIs === 'riskier' ? range.sliderMax : range.sliderMin)}</span>
+            <span>{formatScore(higherIs === 'riskier' ? range.sliderMin : range.sliderMax)}</span>
           </div>
         </div>
       </div>

@@ -7,8 +7,12 @@ import { type HigherIs, type SwapCell, type SwapSets } from '@shared/report';
  */
 
 export interface ScoreRange {
+  /** The observed lowest and highest score. */
   min: number;
   max: number;
+  /** The slider's ends: the observed range widened to whole steps, so its values are round. */
+  sliderMin: number;
+  sliderMax: number;
   /** Slider step in the score's units. */
   step: number;
   /** Decimals to show for a value on this range. */
@@ -21,20 +25,22 @@ export interface ScoreRange {
  */
 export function scoreRange(summary: { min: number; max: number }): ScoreRange {
   const { min, max } = summary;
-  if (Number.isInteger(min) && Number.isInteger(max) && max - min >= 20) return { min, max, step: 1, decimals: 0 };
+  if (Number.isInteger(min) && Number.isInteger(max) && max - min >= 20) return { min, max, sliderMin: min, sliderMax: max, step: 1, decimals: 0 };
   const span = max - min;
-  if (!(span > 0)) return { min, max: min, step: 1, decimals: 0 };
+  if (!(span > 0)) return { min, max: min, sliderMin: min, sliderMax: min, step: 1, decimals: 0 };
   const raw = span / 1000;
   const exponent = Math.floor(Math.log10(raw));
-  const step = 10 ** exponent;
-  return { min, max, step, decimals: Math.max(0, -exponent) };
+  const decimals = Math.max(0, -exponent);
+  const step = Number((10 ** exponent).toFixed(decimals));
+  const round = (value: number) => Number(value.toFixed(decimals));
+  return { min, max, sliderMin: round(Math.floor(min / step) * step), sliderMax: round(Math.ceil(max / step) * step), step, decimals };
 }
 
-/** A value snapped to the range's step and clamped to it (for a typed cut-off). */
+/** A value snapped to the slider's steps and kept within its ends (for a typed cut-off). */
 export function snapToRange(value: number, range: ScoreRange): number {
-  const clamped = Math.min(range.max, Math.max(range.min, value));
-  const snapped = range.min + Math.round((clamped - range.min) / range.step) * range.step;
-  return Number(Math.min(range.max, snapped).toFixed(range.decimals));
+  const clamped = Math.min(range.sliderMax, Math.max(range.sliderMin, value));
+  const snapped = range.sliderMin + Math.round((clamped - range.sliderMin) / range.step) * range.step;
+  return Number(Math.min(range.sliderMax, snapped).toFixed(range.decimals));
 }
 
 /** Which side of a cut-off is accepted, in words: "600 or more is accepted". */
