@@ -8,12 +8,12 @@ import { type RunningServer, startServer } from './helpers/server';
 // The demo people of issue 2 (seeded on an empty database outside production), each with one role.
 const DEMO_PASSWORD = 'scorecourt-demo';
 const demoPeople: { email: string; role: Role; nav: string[] }[] = [
-  { email: 'admin@tallowmere.test', role: 'admin', nav: ['Home', 'Comparisons', 'People', 'Outbox'] },
-  { email: 'modeler@tallowmere.test', role: 'modeler', nav: ['Home', 'Comparisons', 'New comparison'] },
-  { email: 'analyst@tallowmere.test', role: 'analyst', nav: ['Home', 'Comparisons'] },
-  { email: 'policy@tallowmere.test', role: 'policy', nav: ['Home', 'Comparisons'] },
-  { email: 'committee@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons'] },
-  { email: 'committee2@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons'] },
+  { email: 'admin@tallowmere.test', role: 'admin', nav: ['Home', 'Comparisons', 'Adoption policy', 'People', 'Outbox'] },
+  { email: 'modeler@tallowmere.test', role: 'modeler', nav: ['Home', 'Comparisons', 'New comparison', 'Adoption policy'] },
+  { email: 'analyst@tallowmere.test', role: 'analyst', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'policy@tallowmere.test', role: 'policy', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'committee@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'committee2@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons', 'Adoption policy'] },
 ];
 
 let server: RunningServer;

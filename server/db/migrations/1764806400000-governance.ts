@@ -96,7 +96,7 @@ export class Governance1764806400000 implements MigrationInterface {
 
     await queryRunner.query(
       `INSERT INTO "policy_versions" ("version", "policy", "reason", "createdById", "createdAt") VALUES (1, ?, ?, NULL, ?)`,
-      [JSON.stringify(seededPolicy), 'The default policy (DESIGN.md, "Verdict").', new Date().toISOString().replace('T', ' ').replace('Z', '')],
+      [JSON.stringify(seededPolicy), 'The default policy Scorecourt starts with.', new Date().toISOString().replace('T', ' ').replace('Z', '')],
     );
   }
 

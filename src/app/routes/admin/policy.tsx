@@ -70,7 +70,7 @@ export function Component() {
               </p>
             </Callout>
           </div>
-          <Section title="Version history">
+          <Section title="Version history" className="self-start">
             {versions.data ? <PolicyHistory versions={versions.data} /> : versions.isError ? <ErrorState error={versions.error} onRetry={() => versions.refetch()} /> : null}
           </Section>
         </div>

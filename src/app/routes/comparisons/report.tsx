@@ -1,5 +1,5 @@
 import { type QueryClient } from '@tanstack/react-query';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router';
 import { comparisonStateLabels } from '@shared/comparisons';
 import { paths } from '@/config/paths';
@@ -61,6 +61,13 @@ export function Component() {
   const scenarios = useScenarios(id);
   const [paper, setPaper] = useState<Paper>('a4');
   const [generatedAt] = useState(() => new Date());
+  // The print stylesheet picks the paper from the root element (styles.css, "report").
+  useEffect(() => {
+    document.documentElement.dataset.reportPaper = paper;
+    return () => {
+      delete document.documentElement.dataset.reportPaper;
+    };
+  }, [paper]);
 
   if (governance.isPending || audit.isPending) return <LoadingState label="Assembling the report…" variant="skeleton" />;
   if (governance.isError) return <ErrorState error={governance.error} onRetry={() => governance.refetch()} />;
@@ -171,6 +178,7 @@ export function Component() {
           <ReportTable
             caption="Adoption criteria"
             head={['Criterion', 'Result', 'Why']}
+            nowrap={[1]}
             rows={verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail])}
           />
           <p className="text-xs text-ink-soft">
@@ -201,7 +209,9 @@ export function Component() {
             </ol>
           </ReportBlock>
         ) : null}
-        <DecisionCautions className="report-block" />
+        <p className="report-block text-xs text-ink-soft">
+          The verdict advises and the committee decides; the cautions on the first page apply to every decision recorded here.
+        </p>
       </ReportPart>
 
       <ReportPart title="Audit trail" id="report-audit">
@@ -209,6 +219,7 @@ export function Component() {
         <ReportTable
           caption="Audit trail"
           head={['When (UTC)', 'Who', 'What', 'Hash']}
+          nowrap={[0]}
           rows={trail.events.map((event) => [
             formatDateTime(event.createdAt, 'UTC'),
             event.actor?.name ?? 'Scorecourt',

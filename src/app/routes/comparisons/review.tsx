@@ -110,7 +110,7 @@ export function Component() {
           <Section title="Committee votes" description="The votes of the current validation round; a member who votes again replaces their earlier vote.">
             <div className="space-y-5">
               <VotesTally votes={g.votes} quorum={g.quorum} />
-              {actions.vote.kind === 'allowed' ? <VoteForm key={myVote?.id ?? 'none'} comparisonId={id} current={myVote} /> : null}
+              {actions.vote.kind === 'allowed' ? <VoteForm comparisonId={id} current={myVote} /> : null}
               {actions.vote.kind === 'refused' ? <RefusalNote>{actions.vote.reason}</RefusalNote> : null}
             </div>
           </Section>

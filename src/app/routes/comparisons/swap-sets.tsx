@@ -11,6 +11,7 @@ import { DecisionCautions } from '@/components/decision-cautions';
 import { ErrorState } from '@/components/error-state';
 import { LoadingState } from '@/components/loading-state';
 import { Spinner } from '@/components/spinner';
+import { SwapSetNotes } from '@/features/governance/components/swap-set-notes';
 import { useScenarios } from '@/features/swap-sets/api/get-scenarios';
 import { useSwap } from '@/features/swap-sets/api/get-swap';
 import { ExportLinks } from '@/features/swap-sets/components/export-links';
@@ -141,6 +142,17 @@ export function Component() {
         ) : (
           <ScenariosTable scenarios={scenarios.data} onShow={onShow} canSave={isPolicy} />
         )}
+      </Section>
+
+      <Section
+        title="Credit policy’s annotations"
+        description={
+          isPolicy
+            ? 'Notes on the swap sets for the reviewers and the committee, optionally tied to a saved scenario. Everyone can read them.'
+            : 'Notes by the credit policy role on the swap sets, for the review and the decision.'
+        }
+      >
+        <SwapSetNotes comparisonId={comparison.id} canWrite={isPolicy} scenarios={scenarios.data ?? []} />
       </Section>
 
       <Section title="Downloads">

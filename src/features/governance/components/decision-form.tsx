@@ -27,12 +27,15 @@ export function DecisionForm({ comparisonId, quorumMet, onDone }: { comparisonId
     resolver: zodResolver(decisionInputSchema),
     defaultValues: { outcome: undefined, rationale: '', conditions: undefined, effectiveDate: undefined },
   });
-  const onSubmit = handleSubmit((values) =>
-    decide.mutate(values, {
-      onSuccess: () => onDone?.('The decision is recorded. The comparison’s creator has been told by e-mail.'),
-      onError: (error) => applyServerFieldErrors(error, setError, ['outcome', 'rationale', 'conditions', 'effectiveDate']),
-    }),
-  );
+  // mutateAsync, not mutate's callbacks: the form leaves the page once the decision is recorded.
+  const onSubmit = handleSubmit(async (values) => {
+    try {
+      await decide.mutateAsync(values);
+      onDone?.('The decision is recorded. The comparison’s creator has been told by e-mail.');
+    } catch (error) {
+      applyServerFieldErrors(error, setError, ['outcome', 'rationale', 'conditions', 'effectiveDate']);
+    }
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Record the decision">
       {decide.isError ? (

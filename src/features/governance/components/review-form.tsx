@@ -18,17 +18,17 @@ export function ReviewForm({ comparisonId, onDone }: { comparisonId: number; onD
     setError,
     formState: { errors },
   } = useForm({ resolver: zodResolver(reviewInputSchema), defaultValues: { outcome: undefined, findings: '' } });
-  const onSubmit = handleSubmit((values) =>
-    review.mutate(values, {
-      onSuccess: (governance) =>
-        onDone?.(
-          governance.state === 'validated'
-            ? 'Validated. The committee members have been told by e-mail.'
-            : 'Returned to the modeler, who has been told by e-mail.',
-        ),
-      onError: (error) => applyServerFieldErrors(error, setError, ['findings', 'outcome']),
-    }),
-  );
+  // mutateAsync, not mutate's callbacks: the form leaves the page once the state changes.
+  const onSubmit = handleSubmit(async (values) => {
+    try {
+      const governance = await review.mutateAsync(values);
+      onDone?.(
+        governance.state === 'validated' ? 'Validated. The committee members have been told by e-mail.' : 'Returned to the modeler, who has been told by e-mail.',
+      );
+    } catch (error) {
+      applyServerFieldErrors(error, setError, ['findings', 'outcome']);
+    }
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
       {review.isError ? (

@@ -16,14 +16,16 @@ export function SubmitForm({ comparisonId, onDone }: { comparisonId: number; onD
     reset,
     formState: { errors },
   } = useForm({ resolver: zodResolver(submitInputSchema), defaultValues: { message: '' } });
-  const onSubmit = handleSubmit((values) =>
-    submit.mutate(values, {
-      onSuccess: () => {
-        reset();
-        onDone?.('Submitted for review. The analysts have been told by e-mail.');
-      },
-    }),
-  );
+  // mutateAsync, not mutate's callbacks: the form leaves the page once the state changes.
+  const onSubmit = handleSubmit(async (values) => {
+    try {
+      await submit.mutateAsync(values);
+    } catch {
+      return; // shown from submit.error
+    }
+    reset();
+    onDone?.('Submitted for review. The analysts have been told by e-mail.');
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4">
       {submit.isError ? (

@@ -28,17 +28,19 @@ export function PolicyForm({ current, onSaved }: { current: PolicyVersion; onSav
     formState: { errors, isDirty },
   } = useForm({ resolver: zodResolver(policyUpdateSchema), defaultValues: { ...fields, reason: '' } });
   const swapEnabled = useWatch({ control, name: 'swapRule.enabled' });
-  const onSubmit = handleSubmit((values) =>
-    update.mutate(values, {
-      onSuccess: (version) => {
-        const { version: _saved, ...next } = version.policy;
-        reset({ ...next, reason: '' });
-        onSaved(version);
-      },
-      onError: (error) =>
-        applyServerFieldErrors(error, setError, ['alpha', 'sided', 'materialityGiniPoints', 'minBads', 'quorum', 'reason', 'swapRule.approvalRate']),
-    }),
-  );
+  // mutateAsync, not mutate's callbacks: the page remounts the form for the new version.
+  const onSubmit = handleSubmit(async (values) => {
+    let version: PolicyVersion;
+    try {
+      version = await update.mutateAsync(values);
+    } catch (error) {
+      applyServerFieldErrors(error, setError, ['alpha', 'sided', 'materialityGiniPoints', 'minBads', 'quorum', 'reason', 'swapRule.approvalRate']);
+      return;
+    }
+    const { version: _saved, ...next } = version.policy;
+    reset({ ...next, reason: '' });
+    onSaved(version);
+  });
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-6" aria-label="Change the adoption policy">
       {update.isError ? (

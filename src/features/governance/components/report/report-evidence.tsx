@@ -107,7 +107,7 @@ export function ReportTests({ report }: { report: Report }) {
       <ReportTable
         caption="Statistical tests and their results"
         head={['Test', 'Statistic', 'p-value', 'Result']}
-        numeric={[1, 2]}
+        nowrap={[1]}
         rows={[
           [
             'DeLong paired test of ΔAUC (DeLong, DeLong & Clarke-Pearson 1988)',

@@ -10,6 +10,7 @@ export function ReportTable({
   head,
   rows,
   numeric = [],
+  nowrap = [],
   className,
 }: {
   caption: string;
@@ -17,9 +18,12 @@ export function ReportTable({
   rows: ReactNode[][];
   /** Indexes of the columns holding numbers. */
   numeric?: number[];
+  /** Indexes of short columns that must not wrap (numbers always stay on one line). */
+  nowrap?: number[];
   className?: string;
 }) {
-  const align = (index: number) => (numeric.includes(index) ? 'text-right num' : 'text-left');
+  const align = (index: number) =>
+    cn(numeric.includes(index) ? 'text-right num' : 'text-left', (numeric.includes(index) || nowrap.includes(index)) && 'whitespace-nowrap');
   return (
     <table className={cn('w-full border-collapse text-sm', className)}>
       <caption className="sr-only">{caption}</caption>
