@@ -110,7 +110,7 @@ describe('guards', () => {
       expect(main).toContain(`open to people with the ${roleLabels.admin} role`);
       expect(main).toContain(roleLabels.modeler);
       // The shell stays: the person can go on from here.
-      expect(await mainNav(tab)).toEqual(['Home', 'Comparisons', 'New comparison']);
+      expect(await mainNav(tab)).toEqual(['Home', 'Comparisons', 'New comparison', 'Adoption policy']);
       await tab.screenshot('refusal-modeler-outbox');
       expect(tab.unexpectedErrors()).toEqual([]);
     } finally {
