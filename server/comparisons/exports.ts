@@ -3,6 +3,7 @@ import type { Response } from 'express';
 import type { AppContext } from '../context';
 import { findComparison, currentReportJson } from './service';
 import { attachment, type Cell, downloadName, sendCsv } from './csv';
+import { preparedCacheFor } from './prepared-cache';
 import { preparedCurrentRun, swapRequestOf } from './swap';
 import { locateCutoff } from '../stats/cutoffs';
 import type { SwapRequest } from '../stats/swap-sets';
@@ -48,14 +49,17 @@ export async function exportSwap(ctx: AppContext, comparisonId: number, query: S
   } else {
     request = swapRequestOf({ cutoffs: entry.settings.cutoffs, approvalRate: entry.settings.approvalRate });
   }
-  const { data, holdout } = entry;
+  const { data } = entry;
+  const ids = await preparedCacheFor(ctx.dataSource).ids(ctx.dataSource, entry);
   const locate = (model: 'champion' | 'challenger') =>
     locateCutoff(data[model], request.basis === 'cutoffs' ? { cutoff: request.cutoffs[model] } : { approvalRate: request.approvalRate });
   const cutChampion = locate('champion').safetyCut;
   const cutChallenger = locate('challenger').safetyCut;
   const a = data.champion.safety;
   const b = data.challenger.safety;
-  const { ids, exposure } = holdout;
+  const { exposure } = data;
+  const championRaw = data.champion.raw;
+  const challengerRaw = data.challenger.raw;
 
   function* rows(): Generator<Cell[]> {
     for (let i = 0; i < data.n; i++) {
@@ -66,9 +70,9 @@ export async function exportSwap(ctx: AppContext, comparisonId: number, query: S
         challengerAccepts ? 'swap-in' : 'swap-out',
         i + 1,
         ids ? ids[i] : null,
-        holdout.champion[i],
-        holdout.challenger[i],
-        holdout.bad[i] === 1 ? 'bad' : 'good',
+        championRaw[i],
+        challengerRaw[i],
+        data.bad[i] === 1 ? 'bad' : 'good',
         exposure ? exposure[i] : null,
       ];
     }

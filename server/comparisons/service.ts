@@ -176,7 +176,9 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
     });
   }
   const holdout = input.holdoutId === undefined || input.holdoutId === comparison.holdoutId ? comparison.holdout : await findHoldout(ctx.dataSource, input.holdoutId);
-  const settings = analysisSettingsSchema.parse({ ...(comparison.settings ?? {}), ...(input.settings ?? {}) });
+  // shared/comparisons.ts parses `settings` with analysisSettingsSchema.partial(), which still fills
+  // in every default: given settings are therefore complete. Without them the current ones stay.
+  const settings = analysisSettingsSchema.parse(input.settings ?? comparison.settings ?? {});
   const mapping = normaliseMapping(input.mapping);
   const prepared: PreparedRun = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
 

@@ -66,11 +66,6 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
     if (!bytes) throw new Error(`stored column ${name} is missing`);
     return bytes;
   };
-  let ids: string[] | null = null;
-  if (input.hasIds) {
-    ids = n === 0 ? [] : Buffer.from(get('ids').buffer, get('ids').byteOffset, get('ids').byteLength).toString('utf8').split('\0');
-    if (ids.length !== n) throw new Error(`stored column ids has ${ids.length} entries, expected ${n}`);
-  }
   return {
     n,
     bad: viewAs(Uint8Array, get('bad'), n, 'bad'),
@@ -78,13 +73,19 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
     challenger: viewAs(Float64Array, get('challenger'), n, 'challenger'),
     higherIs: { champion: mapping.higherIs.champion, challenger: mapping.higherIs.challenger },
     exposure: input.hasExposure ? viewAs(Float64Array, get('exposure'), n, 'exposure') : null,
-    ids,
+    ids: input.hasIds ? decodeIds(get('ids'), n) : null,
     segments: input.segments.map((segment, index) => ({
       column: segment.column,
       levels: segment.levels,
       codes: viewAs(Uint32Array, get(`segment.${index}`), n, `segment.${index}`),
     })),
   };
+}
+
+export function decodeIds(bytes: Uint8Array, n: number): string[] {
+  const ids = n === 0 ? [] : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString('utf8').split('\0');
+  if (ids.length !== n) throw new Error(`stored column ids has ${ids.length} entries, expected ${n}`);
+  return ids;
 }
 
 /** The stored sort orders, when the run has them. */

@@ -1,6 +1,7 @@
 import { rmSync } from 'node:fs';
 import { validateMappingInputSchema } from '@shared/comparisons';
 import { errorCodes } from '@shared/errors';
+import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { z } from 'zod';
 import { currentUser } from '../auth/guards';
@@ -20,6 +21,18 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
     limits: { fileSize: ctx.config.uploadLimitMb * 1024 * 1024, files: 1, fields: 10, parts: 12 },
     defParamCharset: 'utf8',
   } as multer.Options);
+  const receive = upload.single('file');
+  // busboy's own complaints about a malformed multipart body ("Malformed part header", "Unexpected
+  // end of form") are the client's: a 400, not a 500. multer's limits stay as they are (413 …).
+  const receiveFile: RequestHandler = (req, res, next) => {
+    receive(req, res, (error?: unknown) => {
+      if (error instanceof Error && !(error instanceof multer.MulterError) && !(error instanceof AppError)) {
+        next(new AppError(errorCodes.badInput, `The upload could not be read as a multipart form (${error.message}).`, 400));
+        return;
+      }
+      next(error);
+    });
+  };
 
   return [
     defineRoute({
@@ -27,7 +40,7 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
       path: '/holdouts',
       access: ['modeler'],
       summary: 'Upload a holdout CSV (multipart field `file`) → 201 the holdout with columns, preview and guess; 400 naming row and column; 413 over the limit',
-      before: [upload.single('file')],
+      before: [receiveFile],
       handler: async (req, res) => {
         const file = (req as unknown as { file?: Express.Multer.File }).file;
         if (!file) throw new AppError(errorCodes.badInput, 'Attach the holdout CSV as the multipart field "file".', 400);

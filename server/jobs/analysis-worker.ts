@@ -1,3 +1,4 @@
+import { setPriority } from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import Database from 'better-sqlite3';
 import type { AnalysisSettings, ColumnMapping } from '@shared/report';
@@ -5,6 +6,7 @@ import type { RunInput } from '../db/entities/analysis-run';
 import { decodeHoldout } from '../holdouts/columns';
 import { HoldoutInputError } from '../reader/errors';
 import { argsortAscending, safety } from '../stats/order';
+import { preparePolicyData, type PreparedHoldout } from '../stats/policy-data';
 import { buildReport } from '../stats/report';
 import { StatisticError } from '../stats/statistic-error';
 import { type AnalysisJob, headlineOf, type WorkerMessage } from './messages';
@@ -17,6 +19,15 @@ import { type AnalysisJob, headlineOf, type WorkerMessage } from './messages';
  */
 
 const job = workerData as AnalysisJob;
+
+// Below the thread that answers requests: on Linux the nice value is per thread, and the
+// bootstrap's threads, started from this one, inherit it. So a long analysis never makes the
+// server slow to answer, even when the cores are busy. (Elsewhere this is best effort.)
+try {
+  setPriority(10);
+} catch {
+  // not permitted here: run at the normal priority
+}
 const port = parentPort!;
 const post = (message: WorkerMessage, transfer: ArrayBuffer[] = []) => port.postMessage(message, transfer);
 
@@ -61,11 +72,13 @@ async function main(): Promise<void> {
     },
   });
 
-  // The same orders the engine uses (safety ascending, ties in account order), kept for swap sets on demand.
+  // The same orders the engine uses (safety ascending, ties in account order), and the data
+  // prepared from them, handed to the main thread for swap sets on demand.
   const orders = {
     champion: argsortAscending(safety(holdout.champion, holdout.higherIs.champion)),
     challenger: argsortAscending(safety(holdout.challenger, holdout.higherIs.challenger)),
   };
+  const { prepared, buffers } = transferable(preparePolicyData(holdout, { bands: settings.bands, orders }));
   post(
     {
       type: 'done',
@@ -73,10 +86,53 @@ async function main(): Promise<void> {
       engineVersion: report.engineVersion,
       headline: headlineOf(report),
       verdict: report.verdict,
-      orders,
+      prepared,
+      swapMatrix: report.swapMatrix,
     },
-    [orders.champion.buffer as ArrayBuffer, orders.challenger.buffer as ArrayBuffer],
+    buffers,
   );
+}
+
+/**
+ * The prepared data with every typed array on a buffer of its own (arrays that are views over the
+ * database's buffers are copied; an array used twice stays one array), and those buffers, to
+ * transfer instead of copying them on the main thread.
+ */
+function transferable(data: PreparedHoldout): { prepared: PreparedHoldout; buffers: ArrayBuffer[] } {
+  const seen = new Map<ArrayBufferView, ArrayBufferView>();
+  const own = <T extends Uint8Array | Uint32Array | Float64Array>(array: T): T => {
+    const known = seen.get(array);
+    if (known) return known as T;
+    const whole = array.byteOffset === 0 && array.byteLength === array.buffer.byteLength && array.buffer instanceof ArrayBuffer;
+    const result = (whole && !Buffer.isBuffer(array) ? array : array.slice()) as T;
+    seen.set(array, result);
+    return result;
+  };
+  const model = (m: PreparedHoldout['champion']): PreparedHoldout['champion'] => ({
+    ...m,
+    raw: own(m.raw),
+    safety: own(m.safety),
+    order: own(m.order),
+    sorted: own(m.sorted),
+    badsBefore: own(m.badsBefore),
+    blockEnds: own(m.blockEnds),
+    band: own(m.band),
+    bandEnds: own(m.bandEnds),
+  });
+  // The raw scores and the outcome are views over the bytes the database returned: always copy them.
+  for (const array of [data.bad, data.exposure, data.champion.raw, data.challenger.raw]) {
+    if (array) seen.set(array, array.slice());
+  }
+  const prepared: PreparedHoldout = {
+    ...data,
+    bad: own(data.bad),
+    exposure: data.exposure ? own(data.exposure) : null,
+    champion: model(data.champion),
+    challenger: model(data.challenger),
+  };
+  const buffers = new Set<ArrayBuffer>();
+  for (const array of seen.values()) buffers.add(array.buffer as ArrayBuffer);
+  return { prepared, buffers: [...buffers] };
 }
 
 main().catch((error: unknown) => {

@@ -1,6 +1,7 @@
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { AdoptionPolicy } from '@shared/policy';
-import type { Report, Verdict } from '@shared/report';
+import type { Report, SwapMatrix, Verdict } from '@shared/report';
+import type { PreparedHoldout } from '../stats/policy-data';
 
 /** What the main thread gives an analysis worker (workerData). */
 export interface AnalysisJob {
@@ -21,8 +22,12 @@ export type WorkerMessage =
       engineVersion: string;
       headline: ComparisonHeadline;
       verdict: Verdict;
-      /** Accounts riskiest first, per model (transferred, not copied). */
-      orders: { champion: Uint32Array; challenger: Uint32Array };
+      /**
+       * The data prepared for swap sets (its `order`s are stored; the whole is cached on the main
+       * thread so the first swap request does not prepare it again). Transferred, not copied.
+       */
+      prepared: PreparedHoldout;
+      swapMatrix: SwapMatrix;
     }
   /** `permanent`: the data or settings cannot give a report (trying again would fail the same way). */
   | { type: 'failed'; message: string; permanent: boolean };

@@ -2,6 +2,7 @@ import type { ResourceLimits, Worker } from 'node:worker_threads';
 import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { currentAdoptionPolicy } from '../comparisons/adoption-policy';
+import { preparedCacheFor } from '../comparisons/prepared-cache';
 import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
 import { AnalysisRun } from '../db/entities/index';
 import { inTransaction, withWriteLock } from '../db/transaction';
@@ -269,14 +270,16 @@ export class JobRunner {
       await active?.progressWrite;
       if (result.kind === 'done') {
         const { message } = result;
-        await this.finish(runId, {
+        const { prepared } = message;
+        const run = await this.finish(runId, {
           status: 'done',
           report: message.report,
           engineVersion: message.engineVersion,
           headline: message.headline,
           verdict: message.verdict,
-          orders: message.orders,
+          orders: { champion: prepared.champion.order, challenger: prepared.challenger.order },
         });
+        preparedCacheFor(this.options.dataSource).put({ runId, input: run.input, settings: run.settings, data: prepared, matrix: message.swapMatrix });
         this.options.log.info(`analysis run ${runId}: done`);
       } else if (result.kind === 'failed' && result.permanent) {
         await this.finish(runId, { status: 'failed', error: result.message });
@@ -295,9 +298,10 @@ export class JobRunner {
     });
   }
 
-  private async finish(runId: number, outcome: RunOutcome): Promise<void> {
-    await inTransaction(this.options.dataSource, (manager) => recordFinishedRun(manager, runId, outcome, this.finishContext()));
+  private async finish(runId: number, outcome: RunOutcome): Promise<AnalysisRun> {
+    const run = await inTransaction(this.options.dataSource, (manager) => recordFinishedRun(manager, runId, outcome, this.finishContext()));
     this.options.mailer?.kick();
+    return run;
   }
 
   private async retryOrFail(runId: number, attempt: number, reason: string): Promise<void> {
