@@ -126,10 +126,18 @@ describe('the new-comparison wizard', () => {
       await page.getByLabel('Bootstrap replicates').fill('200');
       await page.getByLabel('Random seed').fill('7');
       await tab.screenshot('wizard-5-settings');
+      const setupAnswer = page.waitForResponse((response) => response.request().method() === 'PUT' && response.url().endsWith(`/setup`));
       await page.getByRole('button', { name: 'Run the analysis' }).click();
 
-      // Step 6: the comparison's page shows the run's progress, then the verdict.
+      // Step 6: the comparison's page shows the run's progress, then the verdict. The set-up answer
+      // has the run queued (or just started), and the page starts from it: only polling
+      // GET /api/comparisons/:id can bring the verdict.
+      const started = (await (await setupAnswer).json()) as { latestRun: { status: string } | null; currentRunId: number | null };
+      expect(['queued', 'running']).toContain(started.latestRun?.status);
+      expect(started.currentRunId).toBeNull();
       await page.waitForURL((url) => url.pathname === paths.comparisons.detail(comparisonId!));
+      const progress = page.getByRole('heading', { name: /^The analysis is (queued|running)$/ });
+      if (await progress.isVisible()) await tab.screenshot('wizard-6-run');
       await page.getByTestId('verdict-summary').waitFor({ timeout: 60_000 });
       const verdict = await page.getByTestId('verdict-summary').innerText();
       expect(verdict).toMatch(/^The challenger's Gini is \d+\.\d points (higher|lower) \(95% interval/);
