@@ -308,6 +308,12 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
 
 const isMain = process.argv[1] !== undefined && /compare\.(js|ts)$/.test(process.argv[1]);
 if (isMain) {
+  // A reader that stops early (`| head`) is not an error of ours: end quietly, no stack trace.
+  process.stdout.on('error', (error: NodeJS.ErrnoException) => {
+    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    process.stderr.write(`compare: cannot write the output: ${error.message}\n`);
+    process.exit(1);
+  });
   const write = (stream: NodeJS.WriteStream) => (text: string) => {
     stream.write(text);
   };

@@ -290,16 +290,20 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           ids.push(detach(id));
         }
         for (let s = 0; s < segmentAt.length; s++) {
-          let level = trimCell(row[segmentAt[s]]);
-          if (isMissing(level)) {
-            missingByColumn[segmentNames[s]]++;
-            level = '(blank)';
-          }
           const levels = segmentLevels[s];
+          let level = trimCell(row[segmentAt[s]]);
+          // A known level is never a missing token (those are stored as "(blank)").
           let code = levels.get(level);
           if (code === undefined) {
-            code = levels.size;
-            levels.set(detach(level), code);
+            if (isMissing(level)) {
+              missingByColumn[segmentNames[s]]++;
+              level = '(blank)';
+              code = levels.get(level);
+            }
+            if (code === undefined) {
+              code = levels.size;
+              levels.set(detach(level), code);
+            }
           }
           segmentCodes[s].push(code);
         }

@@ -22,6 +22,7 @@ export const DISTINCT_CAP = 10_000;
 /** At most this many distinct text values make a column categorical (a segment candidate). */
 export const CATEGORICAL_MAX = 50;
 export const ORIENTATION_SAMPLE = 200_000;
+export const MAX_PROBLEMS = 20;
 
 export interface ScannedColumn {
   name: string;
@@ -42,6 +43,9 @@ export interface HoldoutScan {
   /** The first 20 data rows, as text, in column order. */
   preview: string[][];
   guess: MappingGuess;
+  /** Rows whose field count differs from the header's (the first MAX_PROBLEMS); they are left
+   * out of the column statistics and the preview. Loading with a mapping reports them again. */
+  problems: { row: number; column: string | null; message: string }[];
 }
 
 interface ColumnStats {
@@ -79,6 +83,8 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
   let header: string[] = [];
   let stats: ColumnStats[] = [];
   let rowCount = 0;
+  let statRows = 0;
+  const problems: HoldoutScan['problems'] = [];
   let sampleRows = 0;
   let sampleLimit = 0;
   let decimalComma = false;
@@ -110,8 +116,14 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
         const row = rows[r];
         if (row.length !== header.length) {
           if (row.length === 1 && row[0].trim() === '') continue;
-          throw new HoldoutInputError('ragged_row', `row ${lines[r]} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${header.length}`, lines[r]);
+          // Counted and reported, not fatal: the validation report lists it with the rest.
+          rowCount++;
+          if (problems.length < MAX_PROBLEMS) {
+            problems.push({ row: lines[r], column: null, message: `row ${lines[r]} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${header.length}` });
+          }
+          continue;
         }
+        statRows++;
         if (preview.length < PREVIEW_ROWS) preview.push(row.slice());
         const sampled = sampleRows < sampleLimit;
         for (let c = 0; c < row.length; c++) {
@@ -149,7 +161,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
 
   const columns: ScannedColumn[] = header.map((name, c) => {
     const column = stats[c];
-    const filled = rowCount - column.missing;
+    const filled = statRows - column.missing;
     const distinct = column.capped ? DISTINCT_CAP + 1 : column.distinct.size;
     const kind = filled > 0 && column.numeric === filled ? 'numeric' : distinct <= CATEGORICAL_MAX ? 'categorical' : 'text';
     return { name, kind, distinct, missing: column.missing };
@@ -164,6 +176,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     columns,
     preview,
     guess,
+    problems,
   };
 }
 
@@ -176,20 +189,35 @@ function guessMapping(header: string[], columns: ScannedColumn[], stats: ColumnS
   };
   const indices = header.map((_, c) => c);
 
-  // Outcome: a two-valued column, by name first.
+  // Outcome: a two-valued column, by name first; or a column named like an outcome whose two
+  // most frequent values cover 99% of it (a stray value is then a data error to report later).
+  const frequencies = (c: number): [string, number][] => {
+    const counts = new Map<string, number>();
+    for (const text of stats[c].sampleText ?? []) if (text !== '') counts.set(text, (counts.get(text) ?? 0) + 1);
+    return [...counts.entries()].sort((a, b) => b[1] - a[1]);
+  };
+  const mostlyTwo = (c: number): boolean => {
+    const top = frequencies(c);
+    const total = top.reduce((sum, [, count]) => sum + count, 0);
+    return top.length >= 2 && (top[0][1] + top[1][1]) / total >= 0.99;
+  };
   const twoValued = indices.filter((c) => columns[c].distinct === 2);
-  const outcomeAt = twoValued.find((c) => OUTCOME_NAMES.test(header[c])) ?? twoValued.find((c) => columns[c].kind === 'numeric') ?? twoValued[0];
+  const outcomeAt =
+    twoValued.find((c) => OUTCOME_NAMES.test(header[c])) ??
+    indices.find((c) => OUTCOME_NAMES.test(header[c]) && columns[c].distinct <= 5 && mostlyTwo(c)) ??
+    twoValued.find((c) => columns[c].kind === 'numeric') ??
+    twoValued[0];
   const outcome = pick(outcomeAt);
   let badValue: string | null = null;
   let badSample: Uint8Array | null = null;
   if (outcomeAt !== undefined) {
     const column = stats[outcomeAt];
-    const values = [...column.distinct];
-    const counts = new Map<string, number>();
-    for (const text of column.sampleText ?? []) counts.set(text, (counts.get(text) ?? 0) + 1);
-    badValue = badValueOf(values, counts);
+    const top = frequencies(outcomeAt).slice(0, 2);
+    const values = top.length === 2 ? top.map(([value]) => value) : [...column.distinct].slice(0, 2);
+    badValue = badValueOf(values, new Map(top));
+    const goodValue = values.find((value) => value !== badValue);
     if (column.sampleText !== null && column.sampleText.length === sampleRows) {
-      badSample = Uint8Array.from(column.sampleText, (text) => (text === badValue ? 1 : text === '' ? 2 : 0));
+      badSample = Uint8Array.from(column.sampleText, (text) => (text === badValue ? 1 : text === goodValue ? 0 : 2));
     }
   }
 

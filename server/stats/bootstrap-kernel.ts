@@ -24,8 +24,8 @@ import type { ScoreBlocks } from './order';
  * inversion of a tabulated cdf (with a 32-entry guide table; probabilities resolved to 2^-32,
  * tails beyond 1e-17 cut); larger m as a sum of Poisson(64) and a remainder.
  *
- * Random numbers: xoshiro128** (Blackman & Vigna 2018, "Scrambled linear pseudorandom number
- * generators"), inlined; its state for replicate r is four 32-bit words from seedrandom's ARC4
+ * Random numbers: xoshiro128** (Blackman & Vigna, "Scrambled linear pseudorandom number
+ * generators", ACM TOMS 47(4), 2021; the reference is from memory), inlined; its state for replicate r is four 32-bit words from seedrandom's ARC4
  * keyed with `${seed}:${r}`. Each replicate has its own stream, so the result does not depend on
  * how replicates are spread over threads.
  */

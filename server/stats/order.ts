@@ -234,6 +234,12 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
       sortedBad[k] = bad[row];
     }
   }
+  return blocksFromSorted(order, sorted, sortedBad);
+}
+
+/** The blocks of values already in ascending order (with their rows and outcomes in that order). O(n). */
+export function blocksFromSorted(order: Uint32Array, sorted: Float64Array, sortedBad: Uint8Array): ScoreBlocks {
+  const n = sorted.length;
   let blocks = 0;
   for (let k = 0; k < n; k++) if (k === 0 || sorted[k] !== sorted[k - 1]) blocks++;
   const start = new Uint32Array(blocks + 1);

@@ -130,8 +130,6 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   report(PROGRESS.policy, 'Segments');
 
   const segmentRows = segments(holdout, {
-    championSafety,
-    challengerSafety,
     champion: championBlocks,
     challenger: challengerBlocks,
     sided: policy.sided,

@@ -2,7 +2,7 @@ import type { SegmentRow } from '@shared/report';
 import { pairedDelong } from './delong';
 import type { Holdout } from './holdout';
 import { holm } from './holm';
-import { type ScoreBlocks, scoreBlocks } from './order';
+import { blocksFromSorted, type ScoreBlocks } from './order';
 
 /**
  * The comparison within each value of each segment column: accounts, goods, bads, both Ginis,
@@ -13,19 +13,42 @@ import { type ScoreBlocks, scoreBlocks } from './order';
  * accounts (the threshold is a rule of thumb, no source). A segment with one class only has no
  * Gini; its row says why.
  *
- * Cost: O(n) per segment column after the two whole-holdout sorts (each segment's order is the
- * whole order filtered), plus O(n) for DeLong.
+ * Cost: O(n) per segment column after the two whole-holdout sorts: each segment's blocks are the
+ * whole holdout's blocks filtered, in one pass per model; then O(n) for DeLong.
  */
 export const TOO_FEW_BADS = 30;
 
 export interface SegmentOptions {
-  /** Both models' scores as "higher = safer", and their blocks over the whole holdout. */
-  championSafety: Float64Array;
-  challengerSafety: Float64Array;
+  /** Both models' blocks over the whole holdout ("higher = safer"). */
   champion: ScoreBlocks;
   challenger: ScoreBlocks;
   sided: 'one-sided' | 'two-sided';
   confidence: number;
+}
+
+/** One model's blocks restricted to each level of a segment column, in one pass over its order. */
+function blocksByLevel(blocks: ScoreBlocks, levelAndLocal: Uint32Array, offsets: Uint32Array, levels: number): ScoreBlocks[] {
+  const n = blocks.order.length;
+  const order = new Uint32Array(n);
+  const sorted = new Float64Array(n);
+  const sortedBad = new Uint8Array(n);
+  const cursor = offsets.slice(0, levels);
+  const { start, value, sortedBad: bad } = blocks;
+  for (let k = 0; k < blocks.count; k++) {
+    const v = value[k];
+    for (let at = start[k]; at < start[k + 1]; at++) {
+      const row = blocks.order[at];
+      const to = cursor[levelAndLocal[2 * row]]++;
+      order[to] = levelAndLocal[2 * row + 1];
+      sorted[to] = v;
+      sortedBad[to] = bad[at];
+    }
+  }
+  return Array.from({ length: levels }, (_, level) => {
+    const from = offsets[level];
+    const to = offsets[level + 1];
+    return blocksFromSorted(order.subarray(from, to), sorted.subarray(from, to), sortedBad.subarray(from, to));
+  });
 }
 
 export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[] {
@@ -33,39 +56,27 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
   const { bad } = holdout;
   for (const column of holdout.segments) {
     const levels = column.levels.length;
+    const { codes } = column;
+    // Each account's position within its level, the levels' sizes and where each level starts.
+    // Level and local index side by side, so that one random read fetches both.
     const size = new Uint32Array(levels);
-    const local = new Uint32Array(holdout.n);
-    for (let i = 0; i < holdout.n; i++) local[i] = size[column.codes[i]]++;
-    const subsets = Array.from({ length: levels }, (_, level) => ({
-      bad: new Uint8Array(size[level]),
-      championSafety: new Float64Array(size[level]),
-      challengerSafety: new Float64Array(size[level]),
-      championOrder: new Uint32Array(size[level]),
-      challengerOrder: new Uint32Array(size[level]),
-      filled: [0, 0],
-    }));
+    const levelAndLocal = new Uint32Array(2 * holdout.n);
     for (let i = 0; i < holdout.n; i++) {
-      const subset = subsets[column.codes[i]];
-      const at = local[i];
-      subset.bad[at] = bad[i];
-      subset.championSafety[at] = options.championSafety[i];
-      subset.challengerSafety[at] = options.challengerSafety[i];
+      const level = codes[i];
+      levelAndLocal[2 * i] = level;
+      levelAndLocal[2 * i + 1] = size[level]++;
     }
-    for (let k = 0; k < holdout.n; k++) {
-      const a = options.champion.order[k];
-      const subsetA = subsets[column.codes[a]];
-      subsetA.championOrder[subsetA.filled[0]++] = local[a];
-      const b = options.challenger.order[k];
-      const subsetB = subsets[column.codes[b]];
-      subsetB.challengerOrder[subsetB.filled[1]++] = local[b];
-    }
+    const offsets = new Uint32Array(levels + 1);
+    for (let level = 0; level < levels; level++) offsets[level + 1] = offsets[level] + size[level];
+    const badByLevel = new Uint8Array(holdout.n);
+    for (let i = 0; i < holdout.n; i++) badByLevel[offsets[codes[i]] + levelAndLocal[2 * i + 1]] = bad[i];
+    const champion = blocksByLevel(options.champion, levelAndLocal, offsets, levels);
+    const challenger = blocksByLevel(options.challenger, levelAndLocal, offsets, levels);
+
     const order = [...column.levels.keys()].sort((x, y) => (column.levels[x] < column.levels[y] ? -1 : column.levels[x] > column.levels[y] ? 1 : 0));
     for (const level of order) {
-      const subset = subsets[level];
       const n = size[level];
-      let bads = 0;
-      for (let i = 0; i < n; i++) bads += subset.bad[i];
-      const goods = n - bads;
+      const { nBad: bads, nGood: goods } = champion[level];
       const row: SegmentRow = {
         column: column.column,
         value: column.levels[level],
@@ -84,12 +95,7 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
       if (goods === 0 || bads === 0) {
         row.note = n === 0 ? 'no accounts' : `only ${goods === 0 ? 'bads' : 'goods'} in this segment: Gini undefined`;
       } else {
-        const result = pairedDelong(
-          scoreBlocks(subset.championSafety, subset.bad, subset.championOrder),
-          scoreBlocks(subset.challengerSafety, subset.bad, subset.challengerOrder),
-          subset.bad,
-          options.confidence,
-        );
+        const result = pairedDelong(champion[level], challenger[level], badByLevel.subarray(offsets[level], offsets[level + 1]), options.confidence);
         row.championGini = result.champion.gini;
         row.challengerGini = result.challenger.gini;
         row.deltaGini = result.difference.gini;

@@ -71,3 +71,14 @@ describe('scanning a holdout', () => {
     expect(mappingFromGuess(scan.guess)).toBeNull();
   });
 });
+
+describe('scanning a file with mistakes', () => {
+  it('scans the demo broken file: counts the short row, still guesses the outcome with its stray value', async () => {
+    // sample-data/README.md: a short row on line 102, an outcome of 2 on line 58
+    const scan = await scanHoldout({ path: sample('tallowmere-holdout-broken.csv') });
+    expect(scan.rowCount).toBe(200);
+    expect(scan.problems).toEqual([{ row: 102, column: null, message: 'row 102 has 6 fields, the header has 8' }]);
+    expect(scan.guess).toMatchObject({ outcome: 'bad_12m', badValue: '1', champion: 'champion_points', challenger: 'challenger_points' });
+    expect(scan.columns.find((c) => c.name === 'champion_points')).toMatchObject({ kind: 'numeric', missing: 1 });
+  });
+});

@@ -1,4 +1,5 @@
 import seedrandom from 'seedrandom';
+import { startWorker } from '@server/runtime';
 import { describe, expect, it } from 'vitest';
 import { defaultAdoptionPolicy } from '@shared/policy';
 import { type ColumnMapping, reportSchema } from '@shared/report';
@@ -133,4 +134,16 @@ describe('buildReport', () => {
     holdout.bad.fill(0);
     await expect(buildReport({ holdout, input, mapping: mappingFor(holdout) })).rejects.toThrow(StatisticError);
   });
+
+  it('runs inside a worker thread, starting its own bootstrap threads there', async () => {
+    const path = new URL('../../../sample-data/tallowmere-holdout-2025-sample-2k.csv', import.meta.url).pathname;
+    const worker = startWorker('tests/unit/stats/fixtures/report-worker', { workerData: { path, mapping: demoMapping } });
+    const { report, stages } = await new Promise<{ report: unknown; stages: string[] }>((resolve, reject) => {
+      worker.once('message', resolve);
+      worker.once('error', reject);
+    });
+    await worker.terminate();
+    expect(reportSchema.parse(report).bootstrap.replicates).toBe(100);
+    expect(stages).toContain('Bootstrap 100 of 100');
+  }, 60_000);
 });

@@ -11,8 +11,6 @@ function segmentRows(holdout: Holdout, sided: 'one-sided' | 'two-sided') {
   const championSafety = safety(holdout.champion, holdout.higherIs.champion);
   const challengerSafety = safety(holdout.challenger, holdout.higherIs.challenger);
   return segments(holdout, {
-    championSafety,
-    challengerSafety,
     champion: scoreBlocks(championSafety, holdout.bad),
     challenger: scoreBlocks(challengerSafety, holdout.bad),
     sided,

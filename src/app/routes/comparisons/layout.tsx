@@ -71,6 +71,8 @@ export function Component() {
     ) : null;
   };
   const isModeler = hasRole(user, 'modeler');
+  // With no report, the body's progress or failure panel is the next step: no second callout.
+  const bodySaysNextStep = !hasReport && (active || latest?.status === 'failed');
   const verdict = report.data?.verdict.outcome ?? detail.headline?.verdict;
 
   let body;
@@ -136,7 +138,7 @@ export function Component() {
         title={detail.name}
         subtitle={detail.description ?? undefined}
         actions={
-          isModeler && ['draft', 'analysed', 'returned'].includes(detail.state) && !active && detail.runs.length > 0 ? (
+          isModeler && ['draft', 'analysed', 'returned'].includes(detail.state) && !active && detail.runs.length > 0 && !bodySaysNextStep ? (
             <ButtonLink to={paths.comparisons.setup(id)} size="sm">
               Change mapping or settings
             </ButtonLink>
@@ -161,8 +163,7 @@ export function Component() {
             Created by {detail.createdBy.name}, <time dateTime={isoDateTime(detail.createdAt)}>{formatDateTime(detail.createdAt)}</time>
           </span>
         </div>
-        {/* While the first run works, its progress panel below is the next step. */}
-        {active && !hasReport ? null : <NextStepCallout step={steps.primary} action={steps.primary.action ? actionFor(steps.primary.action) : undefined} />}
+        {bodySaysNextStep ? null : <NextStepCallout step={steps.primary} action={steps.primary.action ? actionFor(steps.primary.action) : undefined} />}
         {steps.others.length > 0 ? (
           <ul className="space-y-1 text-sm text-ink-soft">
             {steps.others.map((other) => (

@@ -17,12 +17,12 @@ export function SwapGlance({ report }: { report: Report }) {
         <Stat
           label="Bads avoided at equal approval"
           value={formatCount(strategyCurve.atApprovalRate.badsAvoided)}
-          footnote={`at ${formatPercent(strategyCurve.atApprovalRate.approvalRate, 0)} approval: the champion's approved bads minus the challenger's (negative: the challenger approves more bads)`}
+          footnote={`champion's approved bads minus the challenger's, at ${formatPercent(strategyCurve.atApprovalRate.approvalRate, 0)} approval`}
         />
         <Stat
           label="Approvals gained at equal bad rate"
           value={formatCount(strategyCurve.atApprovalRate.approvalsGainedAtEqualBadRate)}
-          footnote="keeping the champion's portfolio bad rate (negative: fewer)"
+          footnote="keeping the champion's portfolio bad rate"
         />
       </StatGroup>
     </div>

@@ -96,12 +96,21 @@ export function UpliftChart({ report }: { report: Report }) {
               <line x1={x(lo)} x2={x(hi)} y1={y} y2={y} stroke={stroke} strokeWidth={row.strong ? 6 : 3} strokeLinecap="butt" />
               <line x1={x(lo)} x2={x(lo)} y1={y - 9} y2={y + 9} stroke={stroke} strokeWidth={2} />
               <line x1={x(hi)} x2={x(hi)} y1={y - 9} y2={y + 9} stroke={stroke} strokeWidth={2} />
-              <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(lo) - 6} y={y + 4} textAnchor="end" fontSize={12} fill={colors.ink.DEFAULT}>
-                {formatGiniDelta(lo)}
-              </text>
-              <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(hi) + 6} y={y + 4} textAnchor="start" fontSize={12} fill={colors.ink.DEFAULT}>
-                {formatGiniDelta(hi)}
-              </text>
+              {x(hi) - x(lo) >= 36 ? (
+                <>
+                  <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(lo) - 6} y={y + 4} textAnchor="end" fontSize={12} fill={colors.ink.DEFAULT}>
+                    {formatGiniDelta(lo)}
+                  </text>
+                  <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(hi) + 6} y={y + 4} textAnchor="start" fontSize={12} fill={colors.ink.DEFAULT}>
+                    {formatGiniDelta(hi)}
+                  </text>
+                </>
+              ) : (
+                // Too narrow to label both ends apart: one label beside it.
+                <text paintOrder="stroke" stroke="#ffffff" strokeWidth={3} strokeLinejoin="round" x={x(hi) + 14} y={y + 4} textAnchor="start" fontSize={12} fill={colors.ink.DEFAULT}>
+                  {formatInterval(row.interval, formatGiniDelta)}
+                </text>
+              )}
               {row.strong ? (
                 <>
                   <path d={`M ${x(difference.gini)} ${y - 9} l 9 9 l -9 9 l -9 -9 z`} fill={colors.paper.raised} stroke={colors.court[800]} strokeWidth={2} />

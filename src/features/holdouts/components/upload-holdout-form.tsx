@@ -108,7 +108,7 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
       {uploadHoldout.isError && !cancelled ? (
         <Alert tone="error" title="The file was not accepted">
           <p>{errorMessage(uploadHoldout.error)}</p>
-          {rowErrors.length > 0 ? <p>Fix the file and upload it again. Nothing has been stored.</p> : null}
+          <p>Fix the file and upload it again. Nothing has been stored.</p>
         </Alert>
       ) : null}
       {cancelled ? (

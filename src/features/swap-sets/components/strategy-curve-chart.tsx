@@ -50,7 +50,7 @@ export function StrategyCurveChart({ curve, swap, position }: StrategyCurveChart
   };
   const maxY = Math.max(0.01, ...data.flatMap((series) => series.data.map((point) => point.y))) * 1.08;
 
-  function Current({ xScale, yScale }: LineCustomSvgLayerProps<XYSeries>) {
+  function Current({ xScale, yScale, innerWidth, innerHeight }: LineCustomSvgLayerProps<XYSeries>) {
     const models = (['champion', 'challenger'] as const).filter((model) => current[model].y !== null);
     return (
       <g>
@@ -67,13 +67,15 @@ export function StrategyCurveChart({ curve, swap, position }: StrategyCurveChart
             </g>
           );
         })}
-        {/* The current points in words, in a key at the top left (the two points are often close). */}
-        <rect x={8} y={4} width={272} height={14 + models.length * 18} rx={4} fill={colors.paper.raised} stroke={colors.line.DEFAULT} />
+        {/* The current points in words, in a key at the bottom right, where a strategy curve (rising
+            to the right) leaves room; the two points themselves are often too close to label. */}
+        <g transform={`translate(${Math.max(0, innerWidth - 314)}, ${Math.max(0, innerHeight - 22 - models.length * 18)})`}>
+        <rect x={0} y={0} width={310} height={14 + models.length * 18} rx={4} fill={colors.paper.raised} stroke={colors.line.DEFAULT} />
         {models.map((model, index) => {
           const point = current[model];
           const style = seriesStyles[model];
           return (
-            <g key={model} transform={`translate(20, ${20 + index * 18})`}>
+            <g key={model} transform={`translate(12, ${16 + index * 18})`}>
               <circle cx={0} cy={-4} r={7} fill="none" stroke={colors.ink.DEFAULT} strokeWidth={1.2} />
               <MarkerShape x={0} y={-4} style={style} size={7} />
               <text x={14} y={0} fontSize={11} fill={colors.ink.DEFAULT}>
@@ -82,6 +84,7 @@ export function StrategyCurveChart({ curve, swap, position }: StrategyCurveChart
             </g>
           );
         })}
+        </g>
       </g>
     );
   }
