@@ -1,6 +1,5 @@
 import { randomUUID } from 'node:crypto';
 import { mkdirSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import express, { type Express, type RequestHandler } from 'express';
 import session from 'express-session';
@@ -17,6 +16,7 @@ import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
 import { holdoutRoutes } from './holdouts/router';
 import { governanceRoutes } from './governance/router';
+import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
 import { JobRunner } from './jobs/runner';
@@ -42,7 +42,7 @@ export interface AppDeps {
    * makes and starts its own, and closeApp stops it.
    */
   jobs?: JobRunner;
-  /** Where uploads are streamed before they are stored; default: scorecourt-uploads in the system's temporary folder. */
+  /** Where uploads are streamed before they are stored; default: `uploads/` beside the database (holdouts/upload-dir.ts). */
   uploadDir?: string;
 }
 
@@ -77,7 +77,7 @@ const requestId: RequestHandler = (_req, res, next) => {
 export function createApp(deps: AppDeps): Express {
   const { config, dataSource, mailer } = deps;
   const log = deps.log ?? createLogger(config.logLevel);
-  const uploadDir = deps.uploadDir ?? join(tmpdir(), 'scorecourt-uploads');
+  const uploadDir = deps.uploadDir ?? uploadDirFor(config.databasePath);
   mkdirSync(uploadDir, { recursive: true });
   const ownJobs = deps.jobs === undefined;
   const jobs =

@@ -3,6 +3,7 @@ import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
 import { storedSessionSecret } from './db/settings';
+import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
 import { JobRunner } from './jobs/runner';
 import { createLogger } from './log';
 import { Mailer } from './mail/mailer';
@@ -50,7 +51,12 @@ async function main(): Promise<void> {
   });
   await jobs.start();
 
-  const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs });
+  // Uploads a killed process left half-received are removed (they were never stored).
+  const uploadDir = uploadDirFor(config.databasePath);
+  const leftovers = clearUploadDir(uploadDir);
+  if (leftovers > 0) log.info(`removed ${leftovers} unfinished upload(s) from ${uploadDir}`);
+
+  const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {
     const listening = config.host ? app.listen(config.port, config.host) : app.listen(config.port);
     listening.once('listening', () => resolve(listening));

@@ -28,6 +28,7 @@ export function safeCell(value: Cell): string | number {
 export function downloadName(comparison: { id: number; name: string }, suffix: string): string {
   const slug = comparison.name
     .normalize('NFKD')
+    .replace(/[\u0300-\u036f]/g, '')
     .toLowerCase()
     .replace(/[^a-z0-9]+/g, '-')
     .replace(/^-+|-+$/g, '')

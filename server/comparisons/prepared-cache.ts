@@ -2,6 +2,8 @@ import type { AnalysisSettings, SwapMatrix } from '@shared/report';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { AnalysisRun, RunInput } from '../db/entities/index';
 import { decodeHoldout, decodeIds, decodeOrders } from '../holdouts/columns';
+import type { PrepareJob, PrepareMessage } from '../jobs/prepare-worker';
+import { startWorker } from '../runtime';
 import { preparePolicyData, type PreparedHoldout } from '../stats/policy-data';
 import { swapMatrix } from '../stats/swap-matrix';
 
@@ -11,10 +13,12 @@ import { swapMatrix } from '../stats/swap-matrix';
  * in memory per run, least recently used out first, bounded by the accounts held (about 70 bytes
  * each). A done run never changes, so an entry never goes stale.
  *
- * Filled two ways: when a run finishes, the analysis worker hands over the data it prepared
- * (transferred, not copied: no work on this thread); after a restart or an eviction, the first
- * request loads the stored columns and prepares them here with the stored sort orders (no sort;
- * about 0.3 s at 1,000,000 rows). Concurrent requests for the same run share one load.
+ * Filled two ways, never with work on the request thread: when a run finishes, the analysis
+ * worker hands over the data it prepared (transferred, not copied); after a restart or an
+ * eviction, the first request has a short-lived worker (jobs/prepare-worker.ts) load the stored
+ * columns and prepare them with the stored sort orders (no sort; about 0.3 s at 1,000,000
+ * accounts). Concurrent requests for the same run share one load. (A database in memory, which
+ * workers cannot open, is prepared on this thread.)
  * Account ids are only read for the swap export, and then kept with the entry.
  */
 
@@ -30,13 +34,22 @@ export interface PreparedRun {
 
 type RunForCache = Pick<AnalysisRun, 'id' | 'input' | 'settings' | 'mapping'>;
 
+/** Prepares a run that is not in the cache. */
+export type PrepareRun = (source: DataSource | EntityManager, run: RunForCache) => Promise<{ data: PreparedHoldout; matrix: SwapMatrix }>;
+
 export class PreparedCache {
   private readonly entries = new Map<number, PreparedRun>();
   private readonly loading = new Map<number, Promise<PreparedRun>>();
   private accounts = 0;
 
-  /** @param maxAccounts accounts held across all entries; the newest entry stays even when it alone is larger. */
-  constructor(private readonly maxAccounts: number) {}
+  /**
+   * @param maxAccounts accounts held across all entries; the newest entry stays even when it alone is larger.
+   * @param prepare how a run missing from the cache is prepared (default: on this thread).
+   */
+  constructor(
+    private readonly maxAccounts: number,
+    private readonly prepare: PrepareRun = prepareHere,
+  ) {}
 
   async get(source: DataSource | EntityManager, run: RunForCache): Promise<PreparedRun> {
     const hit = this.entries.get(run.id);
@@ -47,8 +60,9 @@ export class PreparedCache {
     }
     let pending = this.loading.get(run.id);
     if (!pending) {
-      pending = load(source, run).then(
-        (entry) => {
+      pending = this.prepare(source, run).then(
+        ({ data, matrix }) => {
+          const entry: PreparedRun = { runId: run.id, input: run.input, settings: run.settings, data, matrix };
           this.loading.delete(run.id);
           this.put(entry);
           return entry;
@@ -95,11 +109,8 @@ export class PreparedCache {
   }
 }
 
-export function preparedEntry(run: RunForCache, data: PreparedHoldout): PreparedRun {
-  return { runId: run.id, input: run.input, settings: run.settings, data, matrix: swapMatrix(data) };
-}
-
-async function load(source: DataSource | EntityManager, run: RunForCache): Promise<PreparedRun> {
+/** Prepares a run on this thread (tests; a database in memory). */
+export const prepareHere: PrepareRun = async (source, run) => {
   const rows = (await source.query(`SELECT "name", "data" FROM "run_columns" WHERE "runId" = ? AND "name" <> 'ids'`, [run.id])) as {
     name: string;
     data: Buffer;
@@ -107,7 +118,30 @@ async function load(source: DataSource | EntityManager, run: RunForCache): Promi
   const stored = new Map<string, Uint8Array>(rows.map((row) => [row.name, row.data]));
   const holdout = decodeHoldout({ ...run.input, hasIds: false }, run.mapping, stored);
   const orders = decodeOrders(run.input.n, stored);
-  return preparedEntry(run, preparePolicyData(holdout, { bands: run.settings.bands, orders: orders ?? undefined }));
+  const data = preparePolicyData(holdout, { bands: run.settings.bands, orders: orders ?? undefined });
+  return { data, matrix: swapMatrix(data) };
+};
+
+/** Prepares a run on a worker thread that reads the database file itself. */
+export function prepareOnWorker(databasePath: string): PrepareRun {
+  return (_source, run) =>
+    new Promise((resolve, reject) => {
+      const worker = startWorker('server/jobs/prepare-worker', { workerData: { databasePath, runId: run.id } satisfies PrepareJob });
+      let settled = false;
+      worker.once('message', (message: PrepareMessage) => {
+        settled = true;
+        if ('error' in message) reject(new Error(`preparing run ${run.id} for swap sets: ${message.error}`));
+        else resolve({ data: message.prepared, matrix: message.matrix });
+        void worker.terminate();
+      });
+      worker.once('error', (error) => {
+        settled = true;
+        reject(error);
+      });
+      worker.once('exit', (code) => {
+        if (!settled) reject(new Error(`preparing run ${run.id} for swap sets: the worker stopped (exit code ${code})`));
+      });
+    });
 }
 
 /** 5,000,000 accounts ≈ 350 MB: the largest holdout the design expects, or several smaller ones. */
@@ -119,7 +153,9 @@ const caches = new WeakMap<DataSource, PreparedCache>();
 export function preparedCacheFor(dataSource: DataSource): PreparedCache {
   let cache = caches.get(dataSource);
   if (!cache) {
-    cache = new PreparedCache(defaultMaxAccounts);
+    const file = (dataSource.options as { database?: unknown }).database;
+    const onDisk = typeof file === 'string' && file !== '' && file !== ':memory:';
+    cache = new PreparedCache(defaultMaxAccounts, onDisk ? prepareOnWorker(file) : prepareHere);
     caches.set(dataSource, cache);
   }
   return cache;

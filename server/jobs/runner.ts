@@ -50,6 +50,8 @@ interface ActiveRun {
   worker: Worker;
   settled: boolean;
   exited: Promise<void>;
+  /** Storing the result (set once settled). */
+  stored: Promise<void>;
   lastProgressWrite: number;
   progressWrite: Promise<void>;
 }
@@ -219,6 +221,7 @@ export class JobRunner {
       worker,
       settled: false,
       exited: new Promise<void>((resolve) => (exitedResolve = resolve)),
+      stored: Promise.resolve(),
       lastProgressWrite: 0,
       progressWrite: Promise.resolve(),
     };
@@ -228,7 +231,7 @@ export class JobRunner {
     const finish = (result: Settlement) => {
       if (active.settled) return;
       active.settled = true;
-      this.settle(runId, attempt, result, active);
+      active.stored = this.settle(runId, attempt, result, active);
     };
     worker.on('message', (message: WorkerMessage) => {
       if (active.settled) return;
@@ -244,11 +247,14 @@ export class JobRunner {
     worker.on('exit', (code) => {
       exitedResolve();
       finish({ kind: 'crashed', reason: `the analysis worker stopped without a result (exit code ${code})` });
-      // A finished worker frees its slot only once the thread is gone.
-      if (this.active.get(runId) === active) {
-        this.active.delete(runId);
-        this.kick();
-      }
+      // The slot is free once the thread is gone and its result stored: never more than
+      // `concurrency` runs between claim and stored result.
+      void active.stored.then(() => {
+        if (this.active.get(runId) === active) {
+          this.active.delete(runId);
+          this.kick();
+        }
+      });
     });
   }
 
@@ -265,7 +271,7 @@ export class JobRunner {
     );
   }
 
-  private settle(runId: number, attempt: number, result: Settlement, active?: ActiveRun): void {
+  private settle(runId: number, attempt: number, result: Settlement, active?: ActiveRun): Promise<void> {
     const work = (async () => {
       await active?.progressWrite;
       if (result.kind === 'done') {
@@ -296,6 +302,7 @@ export class JobRunner {
       this.settling.delete(work);
       if (!active) this.kick();
     });
+    return work;
   }
 
   private async finish(runId: number, outcome: RunOutcome): Promise<AnalysisRun> {

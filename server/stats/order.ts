@@ -23,7 +23,11 @@ export function safety(scores: Float64Array, higherIs: HigherIs): Float64Array {
 
 const RADIX = 1 << 16;
 
-/** A stable ascending sort: the order, and optionally the sorted values and a carried byte column. */
+/**
+ * A stable ascending sort: the order, and optionally the sorted values and a carried byte column
+ * (the outcome) in sorted order. Random reads are what costs most at a million rows, so
+ * scoreBlocks has the values travel with the indices instead of looking them up afterwards.
+ */
 interface Sorted {
   order: Uint32Array;
   /** values[order[k]], when asked for. */
@@ -39,55 +43,35 @@ interface Sorted {
  * sort, everything else the radix sort.
  */
 export function argsortAscending(values: Float64Array): Uint32Array {
-  return sortRows(values, false, null).order;
+  const range = integerRange(values);
+  if (range !== null) return countingSort(values, range.min, range.size);
+  return radixSort(values, false, null).order;
 }
 
-/**
- * The sort behind argsortAscending, also producing the sorted values and a byte column (the
- * outcome) in sorted order without a gather: random reads are what costs most at a million rows,
- * so the values travel with the indices instead of being looked up afterwards.
- */
-function sortRows(values: Float64Array, withValues: boolean, carry: Uint8Array | null): Sorted {
+/** Integer values over a range small enough for a counting sort, or null. */
+function integerRange(values: Float64Array): { min: number; size: number } | null {
   const n = values.length;
   if (n >= 2 ** 32) throw new RangeError('argsortAscending: more than 2^32 − 1 values');
   let min = Infinity;
   let max = -Infinity;
-  let integers = true;
   for (let i = 0; i < n; i++) {
     const v = values[i];
     if (v < min) min = v;
     if (v > max) max = v;
-    if (integers && v !== Math.floor(v)) integers = false;
+    if (v !== Math.floor(v)) return null;
   }
-  if (n > 0 && integers && max - min < Math.max(RADIX, 2 * n)) return countingSort(values, min, max - min + 1, withValues, carry);
-  return radixSort(values, withValues, carry);
+  return n > 0 && max - min < Math.max(RADIX, 2 * n) ? { min, size: max - min + 1 } : null;
 }
 
 /** Stable counting sort of integer values in [min, min + range). */
-function countingSort(values: Float64Array, min: number, range: number, withValues: boolean, carry: Uint8Array | null): Sorted {
+function countingSort(values: Float64Array, min: number, range: number): Uint32Array {
   const n = values.length;
   const count = new Uint32Array(range + 1);
   for (let i = 0; i < n; i++) count[values[i] - min + 1]++;
   for (let b = 1; b <= range; b++) count[b] += count[b - 1];
-  let sorted: Float64Array | null = null;
-  if (withValues) {
-    sorted = new Float64Array(n);
-    // Each value's run: [count[b], count[b + 1]).
-    for (let b = 0; b < range; b++) if (count[b + 1] > count[b]) sorted.fill(min + b, count[b], count[b + 1]);
-  }
   const index = new Uint32Array(n);
-  let carried: Uint8Array | null = null;
-  if (carry !== null) {
-    carried = new Uint8Array(n);
-    for (let i = 0; i < n; i++) {
-      const at = count[values[i] - min]++;
-      index[at] = i;
-      carried[at] = carry[i];
-    }
-  } else {
-    for (let i = 0; i < n; i++) index[count[values[i] - min]++] = i;
-  }
-  return { order: index, sorted, carried };
+  for (let i = 0; i < n; i++) index[count[values[i] - min]++] = i;
+  return index;
 }
 
 /** LSD radix sort on order-preserving 64-bit keys, 16 bits per pass. */
@@ -220,7 +204,9 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
   let sorted: Float64Array;
   let sortedBad: Uint8Array;
   if (order === undefined) {
-    const result = sortRows(values, true, bad);
+    const range = integerRange(values);
+    if (range !== null) return countingBlocks(values, bad, range.min, range.size);
+    const result = radixSort(values, true, bad);
     order = result.order;
     sorted = result.sorted!;
     sortedBad = result.carried!;
@@ -235,6 +221,50 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
     }
   }
   return blocksFromSorted(order, sorted, sortedBad);
+}
+
+/**
+ * Blocks of integer scores straight from their histogram (points): the blocks are the values that
+ * occur, their goods and bads counted per value; one scatter places the rows and outcomes.
+ */
+function countingBlocks(values: Float64Array, bad: Uint8Array, min: number, range: number): ScoreBlocks {
+  const n = values.length;
+  const count = new Uint32Array(range + 1);
+  const badCount = new Uint32Array(range);
+  for (let i = 0; i < n; i++) {
+    const b = values[i] - min;
+    count[b + 1]++;
+    badCount[b] += bad[i];
+  }
+  let blocks = 0;
+  for (let b = 0; b < range; b++) if (count[b + 1] !== 0) blocks++;
+  const start = new Uint32Array(blocks + 1);
+  const value = new Float64Array(blocks);
+  const goods = new Uint32Array(blocks);
+  const bads = new Uint32Array(blocks);
+  let nBad = 0;
+  for (let b = 0, k = 0, at = 0; b < range; b++) {
+    const c = count[b + 1];
+    if (c === 0) continue;
+    const v = min + b;
+    start[k] = at;
+    value[k] = v === 0 ? 0 : v;
+    bads[k] = badCount[b];
+    goods[k] = c - badCount[b];
+    nBad += badCount[b];
+    at += c;
+    k++;
+  }
+  start[blocks] = n;
+  for (let b = 1; b <= range; b++) count[b] += count[b - 1];
+  const order = new Uint32Array(n);
+  const sortedBad = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const at = count[values[i] - min]++;
+    order[at] = i;
+    sortedBad[at] = bad[i];
+  }
+  return { order, sortedBad, count: blocks, start, value, goods, bads, nGood: n - nBad, nBad };
 }
 
 /** The blocks of values already in ascending order (with their rows and outcomes in that order). O(n). */

@@ -107,6 +107,7 @@ describe('a mapping that does not fit the data', () => {
     { name: 'text in a score', csv: 'bad,champion,challenger\n0,600,610\n1,550,540\n0,620,abc\n', mapping, row: 4, column: 'challenger', message: /row 4, column "challenger": "abc" is not a number/ },
     { name: 'an outcome other than the two expected', csv: 'bad,champion,challenger\n0,600,610\n2,550,540\n1,500,520\n', mapping, row: 4, column: 'bad', message: /row 4, column "bad": "1"|row 3, column "bad"/ },
     { name: 'one class only', csv: 'bad,champion,challenger\n0,600,610\n0,550,540\n0,500,520\n', mapping, row: null, column: 'bad', message: /every row used has the good value/ },
+    { name: 'a ragged row', csv: 'bad,champion,challenger\n0,600,610\n1,550\n0,620,630\n1,500,505\n', mapping, row: 3, column: null, message: /row 3 has 2 fields, the header has 3/ },
     { name: 'a missing score', csv: 'bad,champion,challenger\n0,600,610\n1,550,540\n0,,520\n', mapping, row: 4, column: 'champion', message: /row 4, column "champion": the score is empty/ },
   ];
   for (const bad of cases) {
