@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import express, { type Express, type RequestHandler } from 'express';
 import session from 'express-session';
@@ -8,15 +9,22 @@ import { csrfProtection } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { authRoutes } from './auth/router';
 import { SqliteSessionStore } from './auth/session-store';
+import { comparisonRoutes } from './comparisons/router';
 import type { Config } from './config';
 import type { AppContext } from './context';
 import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
+import { holdoutRoutes } from './holdouts/router';
+import { governanceRoutes } from './governance/router';
+import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
+import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
 import type { Mailer } from './mail/mailer';
 import { outboxRoutes } from './mail/router';
+import { noteRoutes } from './notes/router';
+import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
 
@@ -29,6 +37,13 @@ export interface AppDeps {
   log?: Logger;
   /** Where the built client is; defaults to dist/client in the project folder. */
   clientDir?: string;
+  /**
+   * The analysis queue, started by the caller (server/index.ts, the tests). Without one, the app
+   * makes and starts its own, and closeApp stops it.
+   */
+  jobs?: JobRunner;
+  /** Where uploads are streamed before they are stored; default: `uploads/` beside the database (holdouts/upload-dir.ts). */
+  uploadDir?: string;
 }
 
 /** Sessions last 8 hours from the last request. */
@@ -36,7 +51,17 @@ const sessionIdleMs = 8 * 60 * 60 * 1000;
 
 /** Every API route, feature by feature. A new feature adds its `…Routes(ctx)` here. */
 function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>): RouteDefinition[] {
-  return [...healthRoutes(), ...authRoutes(ctx, passport), ...userRoutes(ctx), ...outboxRoutes(ctx)];
+  return [
+    ...healthRoutes(),
+    ...authRoutes(ctx, passport),
+    ...userRoutes(ctx),
+    ...outboxRoutes(ctx),
+    ...holdoutRoutes(ctx),
+    ...comparisonRoutes(ctx),
+    ...governanceRoutes(ctx),
+    ...noteRoutes(ctx),
+    ...policyRoutes(ctx),
+  ];
 }
 
 const requestId: RequestHandler = (_req, res, next) => {
@@ -52,7 +77,14 @@ const requestId: RequestHandler = (_req, res, next) => {
 export function createApp(deps: AppDeps): Express {
   const { config, dataSource, mailer } = deps;
   const log = deps.log ?? createLogger(config.logLevel);
-  const ctx: AppContext = { config, dataSource, mailer, log };
+  const uploadDir = deps.uploadDir ?? uploadDirFor(config.databasePath);
+  mkdirSync(uploadDir, { recursive: true });
+  const ownJobs = deps.jobs === undefined;
+  const jobs =
+    deps.jobs ??
+    new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: config.analysisConcurrency, log, mailer, publicUrl: config.publicUrl });
+  if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
+  const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir };
 
   const app = express();
   app.set('trust proxy', config.trustProxy);
@@ -108,7 +140,11 @@ export function createApp(deps: AppDeps): Express {
   app.use(errorMiddleware(log));
 
   app.locals.routes = routes;
-  app.locals.close = () => store.close();
+  app.locals.jobs = jobs;
+  app.locals.close = () => {
+    store.close();
+    if (ownJobs) void jobs.stop();
+  };
   return app;
 }
 
@@ -117,7 +153,12 @@ export function routeTable(app: Express): readonly RouteDefinition[] {
   return app.locals.routes as RouteDefinition[];
 }
 
-/** Stops the app's timers (the session pruner); the caller closes the server and database. */
+/** The app's analysis queue. */
+export function appJobs(app: Express): JobRunner {
+  return app.locals.jobs as JobRunner;
+}
+
+/** Stops the app's timers (the session pruner) and a queue it made itself; the caller closes the server and database. */
 export function closeApp(app: Express): void {
   (app.locals.close as () => void)();
 }

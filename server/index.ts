@@ -3,6 +3,8 @@ import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
 import { storedSessionSecret } from './db/settings';
+import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
+import { JobRunner } from './jobs/runner';
 import { createLogger } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
@@ -38,7 +40,23 @@ async function main(): Promise<void> {
   const mailer = new Mailer(dataSource, mail.transport, { from: config.mailFrom, log });
   await mailer.start();
 
-  const app = createApp({ config, dataSource, mailer, sessionSecret, log });
+  // Re-queues (or fails) analyses a previous process left running, then starts the queue.
+  const jobs = new JobRunner({
+    dataSource,
+    databasePath: config.databasePath,
+    concurrency: config.analysisConcurrency,
+    log,
+    mailer,
+    publicUrl: config.publicUrl,
+  });
+  await jobs.start();
+
+  // Uploads a killed process left half-received are removed (they were never stored).
+  const uploadDir = uploadDirFor(config.databasePath);
+  const leftovers = clearUploadDir(uploadDir);
+  if (leftovers > 0) log.info(`removed ${leftovers} unfinished upload(s) from ${uploadDir}`);
+
+  const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {
     const listening = config.host ? app.listen(config.port, config.host) : app.listen(config.port);
     listening.once('listening', () => resolve(listening));
@@ -76,6 +94,7 @@ async function main(): Promise<void> {
     server.close(() => {
       (async () => {
         closeApp(app);
+        await jobs.stop();
         await mailer.stop();
         await mail.sink?.close();
         await dataSource.destroy();

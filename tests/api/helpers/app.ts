@@ -8,6 +8,7 @@ import { closeApp, createApp } from '@server/app';
 import { loadConfig, type Config } from '@server/config';
 import { openDatabase } from '@server/db/data-source';
 import { MailMessage } from '@server/db/entities/index';
+import { JobRunner, type JobRunnerOptions } from '@server/jobs/runner';
 import { createLogger } from '@server/log';
 import { Mailer, type MailerOptions } from '@server/mail/mailer';
 import { startSmtpSink, type SmtpSink } from '@server/mail/sink';
@@ -21,6 +22,8 @@ export interface TestApp {
   app: Express;
   dataSource: DataSource;
   mailer: Mailer;
+  /** The analysis queue (started). */
+  jobs: JobRunner;
   sink: SmtpSink;
   config: Config;
   directory: string;
@@ -38,7 +41,14 @@ export function testConfig(overrides: Partial<Config> = {}, directory = mkdtempS
 }
 
 export async function buildTestApp(
-  options: { seed?: boolean; config?: Partial<Config>; directory?: string; transport?: Transporter; mailer?: Partial<MailerOptions> } = {},
+  options: {
+    seed?: boolean;
+    config?: Partial<Config>;
+    directory?: string;
+    transport?: Transporter;
+    mailer?: Partial<MailerOptions>;
+    jobs?: Partial<JobRunnerOptions>;
+  } = {},
 ): Promise<TestApp> {
   const directory = options.directory ?? mkdtempSync(join(tmpdir(), 'scorecourt-test-'));
   const config = testConfig(options.config, directory);
@@ -48,7 +58,18 @@ export async function buildTestApp(
   const sink = await startSmtpSink(dataSource, log);
   const transport = options.transport ?? nodemailer.createTransport({ host: sink.host, port: sink.port, secure: false, ignoreTLS: true });
   const mailer = new Mailer(dataSource, transport, { from: config.mailFrom, log, pollMs: 60_000, ...options.mailer });
-  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log });
+  const jobs = new JobRunner({
+    dataSource,
+    databasePath: config.databasePath,
+    concurrency: config.analysisConcurrency,
+    log,
+    mailer,
+    publicUrl: config.publicUrl,
+    ...options.jobs,
+  });
+  await jobs.start();
+  const uploadDir = join(directory, 'uploads');
+  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir });
 
   async function deliveredMail(where: { to?: string; afterId?: number } = {}): Promise<MailMessage> {
     const deadline = Date.now() + 10_000;
@@ -68,12 +89,14 @@ export async function buildTestApp(
     app,
     dataSource,
     mailer,
+    jobs,
     sink,
     config,
     directory,
     deliveredMail,
     async close() {
       closeApp(app);
+      await jobs.stop();
       await mailer.stop();
       await sink.close();
       await dataSource.destroy();

@@ -1,0 +1,162 @@
+import type { AnalysisSettings, SwapMatrix } from '@shared/report';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { AnalysisRun, RunInput } from '../db/entities/index';
+import { decodeHoldout, decodeIds, decodeOrders } from '../holdouts/columns';
+import type { PrepareJob, PrepareMessage } from '../jobs/prepare-worker';
+import { startWorker } from '../runtime';
+import { preparePolicyData, type PreparedHoldout } from '../stats/policy-data';
+import { swapMatrix } from '../stats/swap-matrix';
+
+/**
+ * A done run's data prepared for swap sets on demand and swap exports (`preparePolicyData`:
+ * per model the accounts riskiest first, sorted scores, cumulative bads, blocks and bands), kept
+ * in memory per run, least recently used out first, bounded by the accounts held (about 70 bytes
+ * each). A done run never changes, so an entry never goes stale.
+ *
+ * Filled two ways, never with work on the request thread: when a run finishes, the analysis
+ * worker hands over the data it prepared (transferred, not copied); after a restart or an
+ * eviction, the first request has a short-lived worker (jobs/prepare-worker.ts) load the stored
+ * columns and prepare them with the stored sort orders (no sort; about 0.3 s at 1,000,000
+ * accounts). Concurrent requests for the same run share one load. (A database in memory, which
+ * workers cannot open, is prepared on this thread.)
+ * Account ids are only read for the swap export, and then kept with the entry.
+ */
+
+export interface PreparedRun {
+  runId: number;
+  input: RunInput;
+  settings: AnalysisSettings;
+  data: PreparedHoldout;
+  /** The swap matrix does not depend on the cut-offs: computed once. */
+  matrix: SwapMatrix;
+  ids?: string[] | null;
+}
+
+type RunForCache = Pick<AnalysisRun, 'id' | 'input' | 'settings' | 'mapping'>;
+
+/** Prepares a run that is not in the cache. */
+export type PrepareRun = (source: DataSource | EntityManager, run: RunForCache) => Promise<{ data: PreparedHoldout; matrix: SwapMatrix }>;
+
+export class PreparedCache {
+  private readonly entries = new Map<number, PreparedRun>();
+  private readonly loading = new Map<number, Promise<PreparedRun>>();
+  private accounts = 0;
+
+  /**
+   * @param maxAccounts accounts held across all entries; the newest entry stays even when it alone is larger.
+   * @param prepare how a run missing from the cache is prepared (default: on this thread).
+   */
+  constructor(
+    private readonly maxAccounts: number,
+    private readonly prepare: PrepareRun = prepareHere,
+  ) {}
+
+  async get(source: DataSource | EntityManager, run: RunForCache): Promise<PreparedRun> {
+    const hit = this.entries.get(run.id);
+    if (hit) {
+      this.entries.delete(run.id);
+      this.entries.set(run.id, hit);
+      return hit;
+    }
+    let pending = this.loading.get(run.id);
+    if (!pending) {
+      pending = this.prepare(source, run).then(
+        ({ data, matrix }) => {
+          const entry: PreparedRun = { runId: run.id, input: run.input, settings: run.settings, data, matrix };
+          this.loading.delete(run.id);
+          this.put(entry);
+          return entry;
+        },
+        (error: unknown) => {
+          this.loading.delete(run.id);
+          throw error;
+        },
+      );
+      this.loading.set(run.id, pending);
+    }
+    return pending;
+  }
+
+  /** Adds data prepared elsewhere (the analysis worker's). */
+  put(entry: PreparedRun): void {
+    const old = this.entries.get(entry.runId);
+    if (old) {
+      this.entries.delete(entry.runId);
+      this.accounts -= old.input.n;
+    }
+    this.entries.set(entry.runId, entry);
+    this.accounts += entry.input.n;
+    for (const [runId, held] of this.entries) {
+      if (this.accounts <= this.maxAccounts || runId === entry.runId) break;
+      this.entries.delete(runId);
+      this.accounts -= held.input.n;
+    }
+  }
+
+  /** Runs held now, least recently used first. */
+  get runIds(): number[] {
+    return [...this.entries.keys()];
+  }
+
+  /** The account ids of a cached run (read from the database once), or null when none are mapped. */
+  async ids(source: DataSource | EntityManager, entry: PreparedRun): Promise<string[] | null> {
+    if (entry.ids !== undefined) return entry.ids;
+    if (!entry.input.hasIds) return (entry.ids = null);
+    const rows = (await source.query(`SELECT "data" FROM "run_columns" WHERE "runId" = ? AND "name" = 'ids'`, [entry.runId])) as { data: Buffer }[];
+    if (rows.length !== 1) throw new Error(`analysis run ${entry.runId}: stored column ids is missing`);
+    entry.ids = decodeIds(rows[0].data, entry.input.n);
+    return entry.ids;
+  }
+}
+
+/** Prepares a run on this thread (tests; a database in memory). */
+export const prepareHere: PrepareRun = async (source, run) => {
+  const rows = (await source.query(`SELECT "name", "data" FROM "run_columns" WHERE "runId" = ? AND "name" <> 'ids'`, [run.id])) as {
+    name: string;
+    data: Buffer;
+  }[];
+  const stored = new Map<string, Uint8Array>(rows.map((row) => [row.name, row.data]));
+  const holdout = decodeHoldout({ ...run.input, hasIds: false }, run.mapping, stored);
+  const orders = decodeOrders(run.input.n, stored);
+  const data = preparePolicyData(holdout, { bands: run.settings.bands, orders: orders ?? undefined });
+  return { data, matrix: swapMatrix(data) };
+};
+
+/** Prepares a run on a worker thread that reads the database file itself. */
+export function prepareOnWorker(databasePath: string): PrepareRun {
+  return (_source, run) =>
+    new Promise((resolve, reject) => {
+      const worker = startWorker('server/jobs/prepare-worker', { workerData: { databasePath, runId: run.id } satisfies PrepareJob });
+      let settled = false;
+      worker.once('message', (message: PrepareMessage) => {
+        settled = true;
+        if ('error' in message) reject(new Error(`preparing run ${run.id} for swap sets: ${message.error}`));
+        else resolve({ data: message.prepared, matrix: message.matrix });
+        void worker.terminate();
+      });
+      worker.once('error', (error) => {
+        settled = true;
+        reject(error);
+      });
+      worker.once('exit', (code) => {
+        if (!settled) reject(new Error(`preparing run ${run.id} for swap sets: the worker stopped (exit code ${code})`));
+      });
+    });
+}
+
+/** 5,000,000 accounts ≈ 350 MB: the largest holdout the design expects, or several smaller ones. */
+export const defaultMaxAccounts = 5_000_000;
+
+const caches = new WeakMap<DataSource, PreparedCache>();
+
+/** The cache of one database's runs (one per app). */
+export function preparedCacheFor(dataSource: DataSource): PreparedCache {
+  let cache = caches.get(dataSource);
+  if (!cache) {
+    const file = (dataSource.options as { database?: unknown }).database;
+    const onDisk = typeof file === 'string' && file !== '' && file !== ':memory:';
+    cache = new PreparedCache(defaultMaxAccounts, onDisk ? prepareOnWorker(file) : prepareHere);
+    caches.set(dataSource, cache);
+  }
+  return cache;
+}

@@ -1,0 +1,112 @@
+import type { ComparisonHeadline } from '@shared/comparisons';
+import type { Verdict } from '@shared/report';
+import type { EntityManager } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import { AnalysisRun, Comparison, User } from '../db/entities/index';
+import { encodeOrder, orderColumn } from '../holdouts/columns';
+import { recordRunVerdict } from '../governance/verdicts';
+import type { Mailer } from '../mail/mailer';
+import { analysisFinishedMail } from './mail';
+import { transition } from './state';
+
+/**
+ * The one place where a finished analysis run is handled, on the main thread, inside one
+ * transaction: the run's result (report, headline, sort orders) or its error, the comparison's
+ * state change (draft → analysed when the newest run of a draft comparison is done; a failed run
+ * leaves it draft), the audit event, and the e-mail to the comparison's creator.
+ *
+ * A done run's verdict is stored as a verdict record (governance/verdicts.ts) in the same
+ * transaction.
+ */
+
+export type RunOutcome =
+  | {
+      status: 'done';
+      report: string;
+      engineVersion: string;
+      headline: ComparisonHeadline;
+      verdict: Verdict;
+      orders: { champion: Uint32Array; challenger: Uint32Array };
+    }
+  | { status: 'failed'; error: string };
+
+export interface FinishContext {
+  mailer?: Mailer;
+  publicUrl?: string;
+}
+
+export async function recordFinishedRun(manager: EntityManager, runId: number, outcome: RunOutcome, context: FinishContext = {}): Promise<AnalysisRun> {
+  const run = await manager.findOneByOrFail(AnalysisRun, { id: runId });
+  const finishedAt = new Date();
+  if (outcome.status === 'done') {
+    await manager.update(
+      AnalysisRun,
+      { id: runId },
+      {
+        status: 'done',
+        progress: 1,
+        stage: 'Done',
+        error: null,
+        engineVersion: outcome.engineVersion,
+        report: outcome.report,
+        headline: outcome.headline,
+        finishedAt,
+      },
+    );
+    for (const model of ['champion', 'challenger'] as const) {
+      await manager.query('INSERT OR REPLACE INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [
+        runId,
+        orderColumn(model),
+        encodeOrder(outcome.orders[model]),
+      ]);
+    }
+  } else {
+    await manager.update(AnalysisRun, { id: runId }, { status: 'failed', stage: 'Failed', error: outcome.error, finishedAt });
+  }
+
+  await recordAudit(manager, {
+    actor: null,
+    action: outcome.status === 'done' ? 'analysis.done' : 'analysis.failed',
+    target: { type: 'comparison', id: run.comparisonId },
+    details:
+      outcome.status === 'done'
+        ? {
+            runId,
+            attempts: run.attempts,
+            engineVersion: outcome.engineVersion,
+            deltaGini: outcome.headline.deltaGini,
+            pOneSided: outcome.headline.pOneSided,
+            verdict: outcome.verdict.outcome,
+            policyVersion: outcome.verdict.policyVersion,
+          }
+        : { runId, attempts: run.attempts, error: outcome.error },
+  });
+
+  const comparison = await manager.findOneByOrFail(Comparison, { id: run.comparisonId });
+  const newest = await manager.findOne(AnalysisRun, { where: { comparisonId: run.comparisonId }, order: { id: 'DESC' }, select: { id: true } });
+  if (outcome.status === 'done' && newest?.id === runId && comparison.state === 'draft') {
+    await transition(manager, comparison, ['draft'], 'analysed', { actor: null, action: 'comparison.analysed', details: { runId } });
+  } else {
+    await manager.update(Comparison, { id: comparison.id }, { updatedAt: finishedAt });
+  }
+
+  // The verdict record of a done run: the report's verdict under the policy version it names.
+  if (outcome.status === 'done') await recordRunVerdict(manager, run, outcome.verdict);
+
+  if (context.mailer && newest?.id === runId) {
+    const creator = await manager.findOneBy(User, { id: comparison.createdById });
+    if (creator?.active) {
+      await context.mailer.queue(
+        manager,
+        analysisFinishedMail({
+          to: creator.email,
+          name: creator.name,
+          comparison: comparison.name,
+          link: `${context.publicUrl ?? ''}/comparisons/${comparison.id}`,
+          outcome: outcome.status === 'done' ? { status: 'done', headline: outcome.headline } : { status: 'failed', error: outcome.error },
+        }),
+      );
+    }
+  }
+  return manager.findOneByOrFail(AnalysisRun, { id: runId });
+}

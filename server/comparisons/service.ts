@@ -1,0 +1,266 @@
+import type {
+  ComparisonDetail,
+  ComparisonList,
+  ComparisonState,
+  CreateComparisonInput,
+  ListComparisonsQuery,
+  SetupComparisonInput,
+} from '@shared/comparisons';
+import { analysisSettingsSchema, type AnalysisSettings, type ColumnMapping } from '@shared/report';
+import { In, type DataSource, type EntityManager } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import type { AppContext } from '../context';
+import { AnalysisRun, Comparison, type Holdout, type RunInput, type User } from '../db/entities/index';
+import { inTransaction } from '../db/transaction';
+import { conflict, notFound } from '../errors';
+import type { EncodedColumn } from '../holdouts/columns';
+import { findHoldout, mapHoldout } from '../holdouts/service';
+import { presentDetail, presentSummary } from './present';
+import { transition } from './state';
+
+/**
+ * Comparisons: creation and set-up (the mapping is applied to the stored holdout first — bad
+ * data is a 400 naming the row and column and nothing is stored — then the comparison, its new
+ * analysis run with the mapped columns, and the audit event are written in one transaction and
+ * the run is queued), the list and the detail, and the current run's report.
+ * The current run is the newest run that is done; its report is what the pages show.
+ */
+
+/** States from which a modeler may change the mapping or settings (a new run starts). */
+export const setupStates: readonly ComparisonState[] = ['draft', 'analysed', 'returned'];
+
+/** The mapping in the form the CLI builds it, so that the stored report equals the CLI's. */
+export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
+  const normal: ColumnMapping = {
+    outcome: mapping.outcome,
+    badValue: mapping.badValue,
+    champion: mapping.champion,
+    challenger: mapping.challenger,
+    higherIs: { champion: mapping.higherIs.champion, challenger: mapping.higherIs.challenger },
+    id: mapping.id ?? null,
+    segments: mapping.segments ?? [],
+    exposure: mapping.exposure ?? null,
+  };
+  if (mapping.weight) normal.weight = mapping.weight;
+  return normal;
+}
+
+export async function findComparison(source: DataSource | EntityManager, id: number): Promise<Comparison> {
+  const comparison = await source.getRepository(Comparison).findOne({ where: { id }, relations: { createdBy: true, holdout: true } });
+  if (!comparison) throw notFound(`There is no comparison ${id}.`);
+  return comparison;
+}
+
+/** The newest done run of a comparison, or null. */
+export async function currentRun(source: DataSource | EntityManager, comparisonId: number, withReport = false): Promise<AnalysisRun | null> {
+  const query = source
+    .getRepository(AnalysisRun)
+    .createQueryBuilder('run')
+    .where('run.comparisonId = :comparisonId', { comparisonId })
+    .andWhere("run.status = 'done'")
+    .orderBy('run.id', 'DESC')
+    .limit(1);
+  if (withReport) query.addSelect('run.report');
+  return query.getOne();
+}
+
+/** The current run, or 409 while no run is done. */
+export async function requireCurrentRun(source: DataSource | EntityManager, comparisonId: number, withReport = false): Promise<AnalysisRun> {
+  await findComparison(source, comparisonId);
+  const run = await currentRun(source, comparisonId, withReport);
+  if (!run) {
+    const latest = await source.getRepository(AnalysisRun).findOne({ where: { comparisonId }, order: { id: 'DESC' } });
+    const why = !latest
+      ? 'it has no analysis yet (set its mapping first)'
+      : latest.status === 'failed'
+        ? `its analysis failed: ${latest.error ?? 'no reason recorded'}`
+        : `its analysis is ${latest.status} (${Math.round(latest.progress * 100)}%)`;
+    throw conflict(`This comparison has no finished analysis yet: ${why}.`, { latestRun: latest ? { id: latest.id, status: latest.status } : null });
+  }
+  return run;
+}
+
+interface PreparedRun {
+  holdout: Holdout;
+  mapping: ColumnMapping;
+  settings: AnalysisSettings;
+  input: RunInput;
+  columns: EncodedColumn[];
+}
+
+/** Inserts a queued run with its input columns. */
+async function insertRun(manager: EntityManager, comparisonId: number, prepared: PreparedRun, actor: User): Promise<AnalysisRun> {
+  const run = await manager.save(
+    manager.create(AnalysisRun, {
+      comparisonId,
+      holdoutId: prepared.holdout.id,
+      status: 'queued',
+      progress: 0,
+      stage: 'Waiting to start',
+      attempts: 0,
+      error: null,
+      engineVersion: null,
+      queuedAt: new Date(),
+      startedAt: null,
+      finishedAt: null,
+      mapping: prepared.mapping,
+      settings: prepared.settings,
+      input: prepared.input,
+      report: null,
+      headline: null,
+      requestedById: actor.id,
+    }),
+  );
+  for (const column of prepared.columns) {
+    await manager.query('INSERT INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [run.id, column.name, column.data]);
+  }
+  return run;
+}
+
+function auditMapping(prepared: PreparedRun) {
+  return {
+    holdoutId: prepared.holdout.id,
+    sha256: prepared.holdout.sha256,
+    mapping: prepared.mapping,
+    settings: prepared.settings,
+    rowsUsed: prepared.input.n,
+    rowsDroppedMissingScore: prepared.input.read.rowsDroppedMissingScore,
+  };
+}
+
+export async function createComparison(ctx: AppContext, actor: User, input: CreateComparisonInput): Promise<{ id: number; state: ComparisonState }> {
+  const holdout = await findHoldout(ctx.dataSource, input.holdoutId);
+  const settings = analysisSettingsSchema.parse(input.settings ?? {});
+  let prepared: PreparedRun | null = null;
+  if (input.mapping) {
+    const mapping = normaliseMapping(input.mapping);
+    prepared = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
+  }
+  const created = await inTransaction(ctx.dataSource, async (manager) => {
+    const now = new Date();
+    const comparison = await manager.save(
+      manager.create(Comparison, {
+        name: input.name,
+        description: input.description ? input.description : null,
+        holdoutId: holdout.id,
+        mapping: prepared?.mapping ?? null,
+        settings,
+        state: 'draft',
+        createdById: actor.id,
+        createdAt: now,
+        updatedAt: now,
+      }),
+    );
+    const run = prepared ? await insertRun(manager, comparison.id, prepared, actor) : null;
+    await recordAudit(manager, {
+      actor,
+      action: 'comparison.created',
+      target: { type: 'comparison', id: comparison.id },
+      details: prepared
+        ? { name: comparison.name, ...auditMapping(prepared), runId: run!.id }
+        : { name: comparison.name, holdoutId: holdout.id, sha256: holdout.sha256, mapping: null, settings },
+    });
+    return { comparison, run };
+  });
+  if (created.run) ctx.jobs.kick();
+  return { id: created.comparison.id, state: created.comparison.state };
+}
+
+export async function setupComparison(ctx: AppContext, actor: User, id: number, input: SetupComparisonInput): Promise<ComparisonDetail> {
+  const comparison = await findComparison(ctx.dataSource, id);
+  // Checked before the (possibly long) read, and again inside the transaction by transition().
+  if (!setupStates.includes(comparison.state)) {
+    throw conflict(`This comparison is ${comparison.state}; its mapping and settings can change only while it is a draft, analysed or returned.`, {
+      state: comparison.state,
+      allowedFrom: setupStates,
+    });
+  }
+  const holdout = input.holdoutId === undefined || input.holdoutId === comparison.holdoutId ? comparison.holdout : await findHoldout(ctx.dataSource, input.holdoutId);
+  // shared/comparisons.ts parses `settings` with analysisSettingsSchema.partial(), which still fills
+  // in every default: given settings are therefore complete. Without them the current ones stay.
+  const settings = analysisSettingsSchema.parse(input.settings ?? comparison.settings ?? {});
+  const mapping = normaliseMapping(input.mapping);
+  const prepared: PreparedRun = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
+
+  await inTransaction(ctx.dataSource, async (manager) => {
+    const now = new Date();
+    // Runs of an earlier set-up that have not started yet would only be overtaken: end them.
+    const superseded = await manager.find(AnalysisRun, { where: { comparisonId: id, status: 'queued' }, select: { id: true } });
+    if (superseded.length > 0) {
+      await manager.update(
+        AnalysisRun,
+        { id: In(superseded.map((run) => run.id)) },
+        { status: 'failed', stage: 'Replaced', error: 'Replaced by a newer set-up before it started.', finishedAt: now },
+      );
+    }
+    const run = await insertRun(manager, id, prepared, actor);
+    await manager.update(Comparison, { id }, { holdoutId: holdout.id, mapping, settings, updatedAt: now });
+    await transition(manager, id, setupStates, 'draft', {
+      actor,
+      action: 'comparison.setup',
+      details: { ...auditMapping(prepared), runId: run.id, supersededRunIds: superseded.map((r) => r.id) },
+    });
+  });
+  ctx.jobs.kick();
+  return getComparisonDetail(ctx.dataSource, id);
+}
+
+export async function getComparisonDetail(source: DataSource | EntityManager, id: number): Promise<ComparisonDetail> {
+  const comparison = await findComparison(source, id);
+  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId: id }, order: { id: 'DESC' } });
+  return presentDetail(comparison, runs);
+}
+
+const sortSql: Record<ListComparisonsQuery['sort'], string> = {
+  'updated-desc': 'c."updatedAt" DESC, c."id" DESC',
+  'created-desc': 'c."createdAt" DESC, c."id" DESC',
+  'name-asc': 'c."name" COLLATE NOCASE ASC, c."id" ASC',
+  'delta-gini-desc':
+    `(SELECT json_extract(r."headline", '$.deltaGini') FROM "analysis_runs" r WHERE r."comparisonId" = c."id" AND r."status" = 'done' ` +
+    `ORDER BY r."id" DESC LIMIT 1) DESC NULLS LAST, c."updatedAt" DESC, c."id" DESC`,
+};
+
+/** Filter by state, search in the name and description, sort, one page; headline numbers from each current run. */
+export async function listComparisons(source: DataSource, query: ListComparisonsQuery): Promise<ComparisonList> {
+  const where: string[] = [];
+  const parameters: unknown[] = [];
+  if (query.state) {
+    where.push('c."state" = ?');
+    parameters.push(query.state);
+  }
+  if (query.q) {
+    const like = `%${query.q.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
+    where.push(`(c."name" LIKE ? ESCAPE '\\' OR c."description" LIKE ? ESCAPE '\\')`);
+    parameters.push(like, like);
+  }
+  const whereSql = where.length > 0 ? `WHERE ${where.join(' AND ')}` : '';
+  const [{ total }] = (await source.query(`SELECT COUNT(*) AS "total" FROM "comparisons" c ${whereSql}`, parameters)) as { total: number }[];
+  const page = (await source.query(`SELECT c."id" AS "id" FROM "comparisons" c ${whereSql} ORDER BY ${sortSql[query.sort]} LIMIT ? OFFSET ?`, [
+    ...parameters,
+    query.pageSize,
+    (query.page - 1) * query.pageSize,
+  ])) as { id: number }[];
+  const ids = page.map((row) => row.id);
+  if (ids.length === 0) return { items: [], total, page: query.page, pageSize: query.pageSize };
+
+  const comparisons = await source.getRepository(Comparison).find({ where: { id: In(ids) }, relations: { createdBy: true, holdout: true } });
+  const runIds = (await source.query(
+    `SELECT MAX("id") AS "id" FROM "analysis_runs" WHERE "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId" ` +
+      `UNION SELECT MAX("id") FROM "analysis_runs" WHERE "status" = 'done' AND "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId"`,
+    [...ids, ...ids],
+  )) as { id: number }[];
+  const runs = runIds.length > 0 ? await source.getRepository(AnalysisRun).find({ where: { id: In(runIds.map((row) => row.id)) } }) : [];
+  const byId = new Map(comparisons.map((comparison) => [comparison.id, comparison]));
+  const items = ids.map((id) => {
+    const mine = runs.filter((run) => run.comparisonId === id).sort((a, b) => b.id - a.id);
+    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null);
+  });
+  return { items, total, page: query.page, pageSize: query.pageSize };
+}
+
+/** The current run's report as the stored JSON text (409 while no run is done). */
+export async function currentReportJson(source: DataSource | EntityManager, comparisonId: number): Promise<{ run: AnalysisRun; json: string }> {
+  const run = await requireCurrentRun(source, comparisonId, true);
+  if (run.report === null) throw new Error(`analysis run ${run.id} is done but has no report`);
+  return { run, json: run.report };
+}

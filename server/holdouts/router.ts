@@ -1,0 +1,73 @@
+import { rmSync } from 'node:fs';
+import { validateMappingInputSchema } from '@shared/comparisons';
+import { errorCodes } from '@shared/errors';
+import type { RequestHandler } from 'express';
+import multer from 'multer';
+import { z } from 'zod';
+import { currentUser } from '../auth/guards';
+import type { AppContext } from '../context';
+import { AppError } from '../errors';
+import { defineRoute, type RouteDefinition } from '../http/routes';
+import { getHoldout, uploadHoldout, validateMapping } from './service';
+
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+
+export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
+  // Streamed to a random name in the upload folder (never the client's name), at most
+  // UPLOAD_LIMIT_MB (→ 413); multer removes a partial file itself when it refuses one.
+  // `defParamCharset: 'utf8'` reads a file name sent without a charset as UTF-8 (multer 2; not in its types yet).
+  const upload = multer({
+    dest: ctx.uploadDir,
+    limits: { fileSize: ctx.config.uploadLimitMb * 1024 * 1024, files: 1, fields: 10, parts: 12 },
+    defParamCharset: 'utf8',
+  } as multer.Options);
+  const receive = upload.single('file');
+  // busboy's own complaints about a malformed multipart body ("Malformed part header", "Unexpected
+  // end of form") are the client's: a 400, not a 500. multer's limits stay as they are (413 …).
+  const receiveFile: RequestHandler = (req, res, next) => {
+    receive(req, res, (error?: unknown) => {
+      if (error instanceof Error && !(error instanceof multer.MulterError) && !(error instanceof AppError)) {
+        next(new AppError(errorCodes.badInput, `The upload could not be read as a multipart form (${error.message}).`, 400));
+        return;
+      }
+      next(error);
+    });
+  };
+
+  return [
+    defineRoute({
+      method: 'post',
+      path: '/holdouts',
+      access: ['modeler'],
+      summary: 'Upload a holdout CSV (multipart field `file`) → 201 the holdout with columns, preview and guess; 400 naming row and column; 413 over the limit',
+      before: [receiveFile],
+      handler: async (req, res) => {
+        const file = (req as unknown as { file?: Express.Multer.File }).file;
+        if (!file) throw new AppError(errorCodes.badInput, 'Attach the holdout CSV as the multipart field "file".', 400);
+        try {
+          const holdout = await uploadHoldout(ctx, currentUser(req), { path: file.path, originalname: file.originalname });
+          res.status(201);
+          return holdout;
+        } finally {
+          rmSync(file.path, { force: true });
+        }
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/holdouts/:id',
+      access: 'signed-in',
+      summary: 'A holdout: file name, SHA-256, size, rows, columns, preview, mapping guess',
+      validate: { params: idParams },
+      handler: async (req) => getHoldout(ctx.dataSource, req.params.id),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/holdouts/:id/validate',
+      access: ['modeler'],
+      summary: 'Check a mapping against the holdout → { ok, errors (first 50, with row and column), summary }',
+      validate: { params: idParams, body: validateMappingInputSchema },
+      handler: async (req) => validateMapping(ctx, req.params.id, req.body.mapping, req.body.dropMissing),
+    }),
+  ];
+}

@@ -1,0 +1,53 @@
+import { closeSync, openSync, readSync } from 'node:fs';
+import type { DataSource, EntityManager } from 'typeorm';
+import type { Holdout } from '../db/entities/index';
+
+/**
+ * An uploaded file's bytes in SQLite, in fixed-size chunks (holdout_chunks), written in the
+ * same transaction as the holdout row: the file is stored whole or not at all, and a later
+ * mapping reads it back with the engine's reader (a `{ bytes }` source). 4 MB chunks keep each
+ * row well under SQLite's limits and a 200 MB file at 50 rows.
+ */
+export const CHUNK_BYTES = 4 * 1024 * 1024;
+
+/** Copies the file at `path` into chunks of holdout `holdoutId`; call inside the holdout's transaction. */
+export async function storeHoldoutFile(manager: EntityManager, holdoutId: number, path: string): Promise<{ chunks: number; bytes: number }> {
+  const fd = openSync(path, 'r');
+  let chunks = 0;
+  let bytes = 0;
+  try {
+    for (;;) {
+      const buffer = Buffer.allocUnsafe(CHUNK_BYTES);
+      let filled = 0;
+      while (filled < CHUNK_BYTES) {
+        const read = readSync(fd, buffer, filled, CHUNK_BYTES - filled, null);
+        if (read === 0) break;
+        filled += read;
+      }
+      if (filled === 0) break;
+      await manager.query('INSERT INTO "holdout_chunks" ("holdoutId", "seq", "data") VALUES (?, ?, ?)', [holdoutId, chunks, buffer.subarray(0, filled)]);
+      chunks += 1;
+      bytes += filled;
+      if (filled < CHUNK_BYTES) break;
+    }
+  } finally {
+    closeSync(fd);
+  }
+  return { chunks, bytes };
+}
+
+/** The stored file, reassembled: one buffer of the file's size, filled chunk by chunk. */
+export async function holdoutBytes(source: DataSource | EntityManager, holdout: Pick<Holdout, 'id' | 'bytes' | 'chunkCount'>): Promise<Buffer> {
+  const out = Buffer.allocUnsafe(holdout.bytes);
+  let offset = 0;
+  for (let seq = 0; seq < holdout.chunkCount; seq++) {
+    const rows = (await source.query('SELECT "data" FROM "holdout_chunks" WHERE "holdoutId" = ? AND "seq" = ?', [holdout.id, seq])) as { data: Buffer }[];
+    if (rows.length !== 1) throw new Error(`holdout ${holdout.id}: stored chunk ${seq} is missing`);
+    const chunk = rows[0].data;
+    if (offset + chunk.length > out.length) throw new Error(`holdout ${holdout.id}: stored chunks are longer than the file`);
+    chunk.copy(out, offset);
+    offset += chunk.length;
+  }
+  if (offset !== holdout.bytes) throw new Error(`holdout ${holdout.id}: stored chunks hold ${offset} bytes, the file had ${holdout.bytes}`);
+  return out;
+}

@@ -1,0 +1,342 @@
+import type { ResourceLimits, Worker } from 'node:worker_threads';
+import { In, type DataSource } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import { currentAdoptionPolicy } from '../comparisons/adoption-policy';
+import { preparedCacheFor } from '../comparisons/prepared-cache';
+import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
+import { AnalysisRun } from '../db/entities/index';
+import { inTransaction, withWriteLock } from '../db/transaction';
+import type { Logger } from '../log';
+import type { Mailer } from '../mail/mailer';
+import { startWorker } from '../runtime';
+import { engineVersion } from '../stats/report';
+import type { AnalysisJob, WorkerMessage } from './messages';
+
+/**
+ * The analysis queue. Runs are rows in analysis_runs; this takes the oldest queued one while
+ * fewer than `concurrency` run, and gives each to a worker thread (analysis-worker.ts), so no
+ * analysis ever runs on the thread that answers requests.
+ *
+ * - Progress and stage from the worker are written to the run at most every `progressEveryMs`.
+ * - The result is stored by recordFinishedRun (comparisons/run-finished.ts) in one transaction
+ *   with the state change and the audit event.
+ * - A worker that dies (an uncaught error, process.exit, out of memory, a crash) or stops without
+ *   a result costs the run an attempt: it is queued again, and after `maxAttempts` attempts it is
+ *   failed with the reason. An error the engine reports as the data's (a StatisticError) fails
+ *   the run at once: trying again would give the same answer.
+ * - At start-up a run left `running` (the server stopped or was killed meanwhile) is queued again,
+ *   or failed when it has used its attempts. `stop()` (a clean shutdown) puts a running run back
+ *   in the queue without counting the attempt.
+ */
+
+export interface JobRunnerOptions {
+  dataSource: DataSource;
+  /** The SQLite file the workers open read-only (not `:memory:`). */
+  databasePath: string;
+  concurrency: number;
+  log: Logger;
+  /** To tell a comparison's creator that its analysis has finished. */
+  mailer?: Mailer;
+  publicUrl?: string;
+  /** The worker's source path (see runtime.ts workerEntry); tests substitute a faulty one. */
+  workerPath?: string;
+  maxAttempts?: number;
+  progressEveryMs?: number;
+  resourceLimits?: ResourceLimits;
+}
+
+interface ActiveRun {
+  runId: number;
+  worker: Worker;
+  settled: boolean;
+  exited: Promise<void>;
+  /** Storing the result (set once settled). */
+  stored: Promise<void>;
+  lastProgressWrite: number;
+  progressWrite: Promise<void>;
+}
+
+const defaultLimits: ResourceLimits = { maxOldGenerationSizeMb: 4096 };
+
+export class JobRunner {
+  readonly maxAttempts: number;
+  private readonly workerPath: string;
+  private readonly progressEveryMs: number;
+  private readonly active = new Map<number, ActiveRun>();
+  private started = false;
+  private stopping = false;
+  private pumping: Promise<void> | null = null;
+  private again = false;
+  /** Result handling in progress (so stop() and whenIdle() can wait for it). */
+  private readonly settling = new Set<Promise<void>>();
+
+  constructor(private readonly options: JobRunnerOptions) {
+    this.maxAttempts = options.maxAttempts ?? 2;
+    this.workerPath = options.workerPath ?? 'server/jobs/analysis-worker';
+    this.progressEveryMs = options.progressEveryMs ?? 500;
+  }
+
+  /** Recovers runs a previous process left running, then starts taking queued runs. */
+  async start(): Promise<void> {
+    if (this.started) return;
+    await this.recover();
+    this.started = true;
+    this.stopping = false;
+    this.kick();
+  }
+
+  /** Looks for queued runs now (call after queueing one). */
+  kick(): void {
+    if (!this.started || this.stopping) return;
+    if (this.pumping) {
+      this.again = true;
+      return;
+    }
+    this.pumping = this.pump()
+      .catch((error: unknown) => this.options.log.error('analysis queue: could not start a run', error))
+      .finally(() => {
+        this.pumping = null;
+        if (this.again) {
+          this.again = false;
+          this.kick();
+        }
+      });
+  }
+
+  /** Runs being worked on in this process. */
+  get activeRuns(): number[] {
+    return [...this.active.keys()];
+  }
+
+  /**
+   * Stops taking runs and ends the workers. A run that was running goes back to the queue with
+   * its attempt uncounted (a clean stop is not a failure); the next start takes it again.
+   */
+  async stop(): Promise<void> {
+    this.stopping = true;
+    await this.pumping;
+    const runs = [...this.active.values()];
+    for (const run of runs) run.settled = true;
+    await Promise.all(runs.map((run) => run.worker.terminate().then(() => run.exited)));
+    await Promise.all([...this.settling]);
+    await Promise.all(runs.map((run) => run.progressWrite));
+    if (runs.length > 0 && this.options.dataSource.isInitialized) {
+      const ids = runs.map((run) => run.runId);
+      await withWriteLock(this.options.dataSource, () =>
+        this.options.dataSource
+          .createQueryBuilder()
+          .update(AnalysisRun)
+          .set({ status: 'queued', stage: 'Queued again after a server stop', progress: 0, attempts: () => 'MAX("attempts" - 1, 0)' })
+          .where({ id: In(ids), status: 'running' })
+          .execute(),
+      );
+    }
+    this.active.clear();
+    this.started = false;
+  }
+
+  /** Resolves when no run is queued or running (tests); rejects after `timeoutMs`. */
+  async whenIdle(timeoutMs = 60_000): Promise<void> {
+    const deadline = Date.now() + timeoutMs;
+    for (;;) {
+      await this.pumping;
+      await Promise.all([...this.settling]);
+      const pending = await this.options.dataSource.getRepository(AnalysisRun).countBy({ status: In(['queued', 'running']) });
+      if (pending === 0 && this.active.size === 0) return;
+      if (Date.now() > deadline) throw new Error(`analysis queue not idle after ${timeoutMs} ms (${pending} runs pending)`);
+      await new Promise((resolve) => setTimeout(resolve, 25));
+    }
+  }
+
+  private async recover(): Promise<void> {
+    const { dataSource } = this.options;
+    const left = await dataSource.getRepository(AnalysisRun).find({ where: { status: 'running' }, order: { id: 'ASC' } });
+    for (const run of left) {
+      if (run.attempts >= this.maxAttempts) {
+        await inTransaction(dataSource, (manager) =>
+          recordFinishedRun(
+            manager,
+            run.id,
+            { status: 'failed', error: `The server stopped while this analysis was running, on each of its ${run.attempts} attempts; it was not tried again.` },
+            this.finishContext(),
+          ),
+        );
+        this.options.log.warn(`analysis run ${run.id}: interrupted on its last attempt; marked failed`);
+      } else {
+        await inTransaction(dataSource, async (manager) => {
+          await manager.update(AnalysisRun, { id: run.id }, { status: 'queued', progress: 0, stage: 'Queued again after a server stop', error: 'The server stopped while this analysis was running.' });
+          await recordAudit(manager, {
+            actor: null,
+            action: 'analysis.requeued',
+            target: { type: 'comparison', id: run.comparisonId },
+            details: { runId: run.id, attempts: run.attempts, reason: 'the server stopped while it was running' },
+          });
+        });
+        this.options.log.info(`analysis run ${run.id}: interrupted by a server stop; queued again`);
+      }
+    }
+  }
+
+  private async pump(): Promise<void> {
+    while (!this.stopping && this.active.size < this.options.concurrency) {
+      const claimed = await this.claim();
+      if (!claimed) return;
+      this.launch(claimed);
+    }
+  }
+
+  /** Takes the oldest queued run: running, one more attempt. */
+  private async claim(): Promise<{ runId: number; attempt: number; job: AnalysisJob } | null> {
+    const { dataSource } = this.options;
+    return inTransaction(dataSource, async (manager) => {
+      const next = await manager.findOne(AnalysisRun, { where: { status: 'queued' }, order: { id: 'ASC' } });
+      if (!next) return null;
+      const attempt = next.attempts + 1;
+      await manager.update(
+        AnalysisRun,
+        { id: next.id },
+        { status: 'running', attempts: attempt, startedAt: new Date(), progress: 0, stage: 'Starting', engineVersion },
+      );
+      const policy = await currentAdoptionPolicy(manager);
+      return { runId: next.id, attempt, job: { databasePath: this.options.databasePath, runId: next.id, attempt, policy } };
+    });
+  }
+
+  private launch({ runId, attempt, job }: { runId: number; attempt: number; job: AnalysisJob }): void {
+    const { log } = this.options;
+    let worker: Worker;
+    if (this.options.databasePath === ':memory:') {
+      this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
+      return;
+    }
+    try {
+      worker = startWorker(this.workerPath, { workerData: job, resourceLimits: this.options.resourceLimits ?? defaultLimits });
+    } catch (error) {
+      this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
+      return;
+    }
+    let exitedResolve: () => void = () => {};
+    const active: ActiveRun = {
+      runId,
+      worker,
+      settled: false,
+      exited: new Promise<void>((resolve) => (exitedResolve = resolve)),
+      stored: Promise.resolve(),
+      lastProgressWrite: 0,
+      progressWrite: Promise.resolve(),
+    };
+    this.active.set(runId, active);
+    log.info(`analysis run ${runId}: started (attempt ${attempt})`);
+
+    const finish = (result: Settlement) => {
+      if (active.settled) return;
+      active.settled = true;
+      active.stored = this.settle(runId, attempt, result, active);
+    };
+    worker.on('message', (message: WorkerMessage) => {
+      if (active.settled) return;
+      if (message.type === 'progress') this.progress(active, message.fraction, message.stage);
+      else if (message.type === 'done') finish({ kind: 'done', message });
+      else finish({ kind: 'failed', message: message.message, permanent: message.permanent });
+    });
+    worker.on('error', (error: Error & { code?: string }) => {
+      const reason =
+        error.code === 'ERR_WORKER_OUT_OF_MEMORY' ? 'the analysis ran out of memory' : `the analysis worker failed (${error.message})`;
+      finish({ kind: 'crashed', reason });
+    });
+    worker.on('exit', (code) => {
+      exitedResolve();
+      finish({ kind: 'crashed', reason: `the analysis worker stopped without a result (exit code ${code})` });
+      // The slot is free once the thread is gone and its result stored: never more than
+      // `concurrency` runs between claim and stored result.
+      void active.stored.then(() => {
+        if (this.active.get(runId) === active) {
+          this.active.delete(runId);
+          this.kick();
+        }
+      });
+    });
+  }
+
+  private progress(active: ActiveRun, fraction: number, stage: string): void {
+    const now = Date.now();
+    if (now - active.lastProgressWrite < this.progressEveryMs) return;
+    active.lastProgressWrite = now;
+    const { dataSource } = this.options;
+    active.progressWrite = active.progressWrite.then(() =>
+      withWriteLock(dataSource, async () => {
+        if (active.settled) return;
+        await dataSource.getRepository(AnalysisRun).update({ id: active.runId, status: 'running' }, { progress: fraction, stage });
+      }).catch((error: unknown) => this.options.log.warn(`analysis run ${active.runId}: could not store progress`, error)),
+    );
+  }
+
+  private settle(runId: number, attempt: number, result: Settlement, active?: ActiveRun): Promise<void> {
+    const work = (async () => {
+      await active?.progressWrite;
+      if (result.kind === 'done') {
+        const { message } = result;
+        const { prepared } = message;
+        const run = await this.finish(runId, {
+          status: 'done',
+          report: message.report,
+          engineVersion: message.engineVersion,
+          headline: message.headline,
+          verdict: message.verdict,
+          orders: { champion: prepared.champion.order, challenger: prepared.challenger.order },
+        });
+        preparedCacheFor(this.options.dataSource).put({ runId, input: run.input, settings: run.settings, data: prepared, matrix: message.swapMatrix });
+        this.options.log.info(`analysis run ${runId}: done`);
+      } else if (result.kind === 'failed' && result.permanent) {
+        await this.finish(runId, { status: 'failed', error: result.message });
+        this.options.log.info(`analysis run ${runId}: failed (${result.message})`);
+      } else {
+        const reason = result.kind === 'failed' ? result.message : result.reason;
+        await this.retryOrFail(runId, attempt, reason);
+      }
+      // Workers end by themselves once their message is posted; make sure.
+      if (active) void active.worker.terminate();
+    })().catch((error: unknown) => this.options.log.error(`analysis run ${runId}: could not store its result`, error));
+    this.settling.add(work);
+    void work.finally(() => {
+      this.settling.delete(work);
+      if (!active) this.kick();
+    });
+    return work;
+  }
+
+  private async finish(runId: number, outcome: RunOutcome): Promise<AnalysisRun> {
+    const run = await inTransaction(this.options.dataSource, (manager) => recordFinishedRun(manager, runId, outcome, this.finishContext()));
+    this.options.mailer?.kick();
+    return run;
+  }
+
+  private async retryOrFail(runId: number, attempt: number, reason: string): Promise<void> {
+    if (attempt >= this.maxAttempts) {
+      const error = attempt === 1 ? `The analysis failed: ${reason}.` : `The analysis failed on each of its ${attempt} attempts; the last time ${reason}.`;
+      await this.finish(runId, { status: 'failed', error });
+      this.options.log.warn(`analysis run ${runId}: failed after ${attempt} attempts (${reason})`);
+      return;
+    }
+    await inTransaction(this.options.dataSource, async (manager) => {
+      const run = await manager.findOneByOrFail(AnalysisRun, { id: runId });
+      await manager.update(AnalysisRun, { id: runId }, { status: 'queued', progress: 0, stage: 'Queued again after a failed attempt', error: `Attempt ${attempt}: ${reason}.` });
+      await recordAudit(manager, {
+        actor: null,
+        action: 'analysis.retried',
+        target: { type: 'comparison', id: run.comparisonId },
+        details: { runId, attempt, reason },
+      });
+    });
+    this.options.log.warn(`analysis run ${runId}: attempt ${attempt} failed (${reason}); queued again`);
+  }
+
+  private finishContext() {
+    return { mailer: this.options.mailer, publicUrl: this.options.publicUrl };
+  }
+}
+
+type Settlement =
+  | { kind: 'done'; message: Extract<WorkerMessage, { type: 'done' }> }
+  | { kind: 'failed'; message: string; permanent: boolean }
+  | { kind: 'crashed'; reason: string };

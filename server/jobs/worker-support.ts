@@ -1,0 +1,92 @@
+import { setPriority } from 'node:os';
+import Database from 'better-sqlite3';
+import type { AnalysisSettings, ColumnMapping } from '@shared/report';
+import type { RunInput } from '../db/entities/analysis-run';
+import type { PreparedHoldout } from '../stats/policy-data';
+
+/** What the analysis and preparation workers share: reading a run, thread priority, handing data back. */
+
+/**
+ * Puts the calling worker thread below the thread that answers requests. On Linux the nice value
+ * is per thread, and threads started from this one (the bootstrap's) inherit it, so a long
+ * analysis never makes the server slow to answer even when every core is busy. Best effort
+ * elsewhere.
+ */
+export function lowerPriority(nice = 10): void {
+  try {
+    setPriority(nice);
+  } catch {
+    // not permitted here: the thread keeps the normal priority
+  }
+}
+
+export interface StoredRun {
+  mapping: ColumnMapping;
+  settings: AnalysisSettings;
+  input: RunInput;
+  columns: Map<string, Uint8Array>;
+}
+
+/** A run and its stored columns, through a read-only connection of its own (WAL: the main thread may write meanwhile). */
+export function readRun(databasePath: string, runId: number, options: { ids?: boolean } = {}): StoredRun {
+  const db = new Database(databasePath, { readonly: true, fileMustExist: true });
+  try {
+    db.pragma('busy_timeout = 5000');
+    const run = db.prepare('SELECT "mapping", "settings", "input" FROM "analysis_runs" WHERE "id" = ?').get(runId) as
+      | { mapping: string; settings: string; input: string }
+      | undefined;
+    if (!run) throw new Error(`analysis run ${runId} is not in the database`);
+    const sql = options.ids === false ? `SELECT "name", "data" FROM "run_columns" WHERE "runId" = ? AND "name" <> 'ids'` : 'SELECT "name", "data" FROM "run_columns" WHERE "runId" = ?';
+    const rows = db.prepare(sql).all(runId) as { name: string; data: Buffer }[];
+    return {
+      mapping: JSON.parse(run.mapping) as ColumnMapping,
+      settings: JSON.parse(run.settings) as AnalysisSettings,
+      input: JSON.parse(run.input) as RunInput,
+      columns: new Map(rows.map((row) => [row.name, row.data])),
+    };
+  } finally {
+    db.close();
+  }
+}
+
+/**
+ * The prepared data with every typed array on a buffer of its own, and those buffers, to transfer
+ * to the main thread instead of copying them there. Arrays that are views over the database's
+ * bytes (the scores, outcome and exposure) are copied first; an array used twice (a higher = safer
+ * model's scores are also its safety scores) stays one array.
+ */
+export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout; buffers: ArrayBuffer[] } {
+  const seen = new Map<ArrayBufferView, ArrayBufferView>();
+  for (const array of [data.bad, data.exposure, data.champion.raw, data.challenger.raw]) {
+    if (array) seen.set(array, array.slice());
+  }
+  const own = <T extends Uint8Array | Uint32Array | Float64Array>(array: T): T => {
+    const known = seen.get(array);
+    if (known) return known as T;
+    const whole = array.byteOffset === 0 && array.byteLength === array.buffer.byteLength && array.buffer instanceof ArrayBuffer;
+    const result = (whole ? array : array.slice()) as T;
+    seen.set(array, result);
+    return result;
+  };
+  const model = (m: PreparedHoldout['champion']): PreparedHoldout['champion'] => ({
+    ...m,
+    raw: own(m.raw),
+    safety: own(m.safety),
+    order: own(m.order),
+    sorted: own(m.sorted),
+    badsBefore: own(m.badsBefore),
+    blockEnds: own(m.blockEnds),
+    band: own(m.band),
+    bandEnds: own(m.bandEnds),
+  });
+  const prepared: PreparedHoldout = {
+    ...data,
+    bad: own(data.bad),
+    exposure: data.exposure ? own(data.exposure) : null,
+    champion: model(data.champion),
+    challenger: model(data.challenger),
+  };
+  const buffers = new Set<ArrayBuffer>();
+  for (const array of seen.values()) buffers.add(array.buffer as ArrayBuffer);
+  return { prepared, buffers: [...buffers] };
+}
