@@ -15,6 +15,7 @@ import type { AppContext } from './context';
 import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
 import { holdoutRoutes } from './holdouts/router';
+import { governanceRoutes } from './governance/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
@@ -22,6 +23,8 @@ import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
 import type { Mailer } from './mail/mailer';
 import { outboxRoutes } from './mail/router';
+import { noteRoutes } from './notes/router';
+import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
 
@@ -55,6 +58,9 @@ function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>)
     ...outboxRoutes(ctx),
     ...holdoutRoutes(ctx),
     ...comparisonRoutes(ctx),
+    ...governanceRoutes(ctx),
+    ...noteRoutes(ctx),
+    ...policyRoutes(ctx),
   ];
 }
 

@@ -127,6 +127,11 @@ export type Note = z.infer<typeof noteSchema>;
 /** GET /api/policy (signed in) → the current version; PUT (admin) with the fields but `version` → a new version. */
 export const policyInputSchema = adoptionPolicySchema.omit({ version: true });
 export type PolicyInput = z.infer<typeof policyInputSchema>;
+/** The body of PUT /api/policy: the new fields and why they change (kept with the version). */
+export const policyUpdateSchema = policyInputSchema.extend({
+  reason: z.string().trim().min(1, 'Say why the policy changes').max(4000),
+});
+export type PolicyUpdate = z.infer<typeof policyUpdateSchema>;
 export const policyVersionSchema = z.object({
   policy: adoptionPolicySchema,
   createdBy: personRefSchema.nullable(),

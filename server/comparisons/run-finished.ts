@@ -3,6 +3,7 @@ import type { Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { AnalysisRun, Comparison, User } from '../db/entities/index';
+import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
 import { analysisFinishedMail } from './mail';
 import { transition } from './state';
@@ -13,8 +14,8 @@ import { transition } from './state';
  * state change (draft → analysed when the newest run of a draft comparison is done; a failed run
  * leaves it draft), the audit event, and the e-mail to the comparison's creator.
  *
- * Governance: the verdict record of a done run (the report's verdict, under the policy version
- * it names) belongs here too — add it where marked, with the same `manager`.
+ * A done run's verdict is stored as a verdict record (governance/verdicts.ts) in the same
+ * transaction.
  */
 
 export type RunOutcome =
@@ -80,7 +81,8 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
     await manager.update(Comparison, { id: comparison.id }, { updatedAt: finishedAt });
   }
 
-  // Governance: record the verdict of a done run here (outcome.verdict, policy version outcome.verdict.policyVersion).
+  // The verdict record of a done run: the report's verdict under the policy version it names.
+  if (outcome.status === 'done') await recordRunVerdict(manager, run, outcome.verdict);
 
   if (context.mailer && newest?.id === runId) {
     const creator = await manager.findOneBy(User, { id: comparison.createdById });

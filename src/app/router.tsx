@@ -6,6 +6,7 @@ import { LoadingState } from '@/components/loading-state';
 import { requireUser } from '@/app/guards';
 import { AppShell } from '@/app/layouts/app-shell';
 import { RootErrorBoundary, RouteErrorBoundary } from '@/app/route-error';
+import { comparisonTabs } from '@/app/routes/comparisons/tabs';
 
 /**
  * A route module in app/routes exports `Component` and, when the page needs data or a guard,
@@ -58,8 +59,22 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
               ErrorBoundary: RouteErrorBoundary,
               children: [
                 { index: true, ...page(queryClient, () => import('@/app/routes/home')) },
+                { path: paths.comparisons.list.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/list')) },
+                { path: paths.comparisons.new.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/new')) },
+                { path: paths.comparisons.setup.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/setup')) },
+                {
+                  // The comparison shell (header, next step, tabs); each tab is a child route (tabs.ts).
+                  path: paths.comparisons.detail.pattern,
+                  ...page(queryClient, () => import('@/app/routes/comparisons/layout')),
+                  children: comparisonTabs.map((tab) =>
+                    tab.path === paths.comparisons.detail
+                      ? { index: true, ...page(queryClient, tab.load) }
+                      : { path: tab.path.pattern, ...page(queryClient, tab.load) },
+                  ),
+                },
                 { path: paths.admin.people.pattern, ...page(queryClient, () => import('@/app/routes/admin/people')) },
                 { path: paths.admin.outbox.pattern, ...page(queryClient, () => import('@/app/routes/admin/outbox')) },
+                { path: paths.admin.policy.pattern, ...page(queryClient, () => import('@/app/routes/admin/policy')) },
                 ...(import.meta.env.DEV
                   ? [{ path: paths.dev.components.pattern, ...page(queryClient, () => import('@/app/routes/dev/components')) }]
                   : []),

@@ -57,10 +57,18 @@ export const paths = {
   },
 
   comparisons: {
-    list: path('/comparisons', (filters: { state?: string; q?: string; page?: number } = {}) =>
-      withQuery('/comparisons', filters),
+    /** The list with its filters; page 1 and the default sort are left out of the URL. */
+    list: path('/comparisons', (filters: { state?: string; q?: string; page?: number; sort?: string } = {}) =>
+      withQuery('/comparisons', {
+        state: filters.state,
+        q: filters.q,
+        sort: filters.sort && filters.sort !== 'updated-desc' ? filters.sort : null,
+        page: filters.page && filters.page > 1 ? filters.page : null,
+      }),
     ),
     new: fixed('/comparisons/new'),
+    /** The wizard's later steps for a comparison: column mapping, validation, settings, run. */
+    setup: comparison('/setup'),
     /** The verdict is a comparison's front page. */
     detail: comparison(''),
     curves: comparison('/curves'),
@@ -70,6 +78,26 @@ export const paths = {
     data: comparison('/data'),
     review: comparison('/review'),
     report: comparison('/report'),
+  },
+
+  /**
+   * Downloads served by the API, used as plain links (the session cookie goes with them): the band
+   * tables, the swap-in and swap-out accounts at given cut-offs or approval rate (policy role), the
+   * report as JSON, and the evidence pack.
+   */
+  exports: {
+    bandsCsv: path('/api/comparisons/:id/export/bands.csv', (id: Id) => `/api/comparisons/${segment(id)}/export/bands.csv`),
+    swapCsv: path(
+      '/api/comparisons/:id/export/swap.csv',
+      (id: Id, at: { cutoffs: { champion: number; challenger: number } } | { approvalRate: number }) =>
+        withQuery(
+          `/api/comparisons/${segment(id)}/export/swap.csv`,
+          'cutoffs' in at ? { championCutoff: at.cutoffs.champion, challengerCutoff: at.cutoffs.challenger } : { approvalRate: at.approvalRate },
+        ),
+    ),
+    reportJson: path('/api/comparisons/:id/export/report.json', (id: Id) => `/api/comparisons/${segment(id)}/export/report.json`),
+    /** The evidence pack: report, settings, hashes, verdict records, reviews, votes, decision, notes and audit trail. */
+    evidenceJson: path('/api/comparisons/:id/evidence.json', (id: Id) => `/api/comparisons/${segment(id)}/evidence.json`),
   },
 
   admin: {

@@ -76,7 +76,7 @@ describe('restarts', () => {
     expect(shown.state).toBe('analysed');
     expect(shown.runs[0]).toMatchObject({ status: 'done', attempts: 2, error: null, progress: 1 });
     const trail = await actions(id);
-    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.requeued', 'analysis.done', 'comparison.analysed']);
+    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.requeued', 'analysis.done', 'comparison.analysed', 'verdict.recorded']);
     expect(trail[1].details).toMatchObject({ runId: shown.runs[0].id, attempts: 1 });
 
     expect(JSON.parse(await reportOf(id))).toEqual(JSON.parse(await reportOf(reference)));
@@ -133,7 +133,7 @@ describe('workers that die', () => {
     expect(shown.state).toBe('analysed');
     expect(shown.runs[0]).toMatchObject({ status: 'done', attempts: 2 });
     const trail = await actions(id);
-    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.retried', 'analysis.done', 'comparison.analysed']);
+    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.retried', 'analysis.done', 'comparison.analysed', 'verdict.recorded']);
     expect(trail[1].details.reason).toMatch(/stopped without a result \(exit code 3\)/);
   });
 

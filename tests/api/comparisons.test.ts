@@ -86,7 +86,8 @@ describe('creating a comparison', () => {
     });
 
     const trail = await events(id);
-    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.done', 'comparison.analysed']);
+    // verdict.recorded: the run's verdict stored as a verdict record (governance), in the same transaction.
+    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.done', 'comparison.analysed', 'verdict.recorded']);
     expect(trail[0].details).toMatchObject({ holdoutId: sampleId, runId: done.runs[0].id, mapping: { champion: 'champion_points' } });
     expect(trail[1].details).toMatchObject({ runId: done.runs[0].id, verdict: report.verdict.outcome, policyVersion: 1 });
     expect(trail[2].details).toMatchObject({ from: 'draft', to: 'analysed' });
@@ -164,9 +165,11 @@ describe('set-up and state', () => {
       'comparison.created',
       'analysis.done',
       'comparison.analysed',
+      'verdict.recorded',
       'comparison.setup',
       'analysis.done',
       'comparison.analysed',
+      'verdict.recorded',
     ]);
   });
 

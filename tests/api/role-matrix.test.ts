@@ -44,6 +44,20 @@ const intendedAccess: Record<string, string> = {
   'GET /comparisons/:id/export/bands.csv': 'signed-in',
   'GET /comparisons/:id/export/swap.csv': 'policy',
   'GET /comparisons/:id/export/report.json': 'signed-in',
+  'GET /comparisons/:id/governance': 'signed-in',
+  'POST /comparisons/:id/submit': 'modeler',
+  'POST /comparisons/:id/review': 'analyst',
+  'POST /comparisons/:id/votes': 'committee',
+  'POST /comparisons/:id/decision': 'committee',
+  'POST /comparisons/:id/verdicts': 'analyst | committee | admin',
+  'GET /comparisons/:id/audit': 'signed-in',
+  'GET /comparisons/:id/evidence.json': 'signed-in',
+  // Notes: anyone signed in writes in the discussion; swap-set anchors need the policy role (the service answers 403).
+  'GET /comparisons/:id/notes': 'signed-in',
+  'POST /comparisons/:id/notes': 'signed-in',
+  'GET /policy': 'signed-in',
+  'PUT /policy': 'admin',
+  'GET /policy/versions': 'signed-in',
 };
 
 let t: TestApp;

@@ -8,12 +8,12 @@ import { type RunningServer, startServer } from './helpers/server';
 // The demo people of issue 2 (seeded on an empty database outside production), each with one role.
 const DEMO_PASSWORD = 'scorecourt-demo';
 const demoPeople: { email: string; role: Role; nav: string[] }[] = [
-  { email: 'admin@tallowmere.test', role: 'admin', nav: ['Home', 'People', 'Outbox'] },
-  { email: 'modeler@tallowmere.test', role: 'modeler', nav: ['Home'] },
-  { email: 'analyst@tallowmere.test', role: 'analyst', nav: ['Home'] },
-  { email: 'policy@tallowmere.test', role: 'policy', nav: ['Home'] },
-  { email: 'committee@tallowmere.test', role: 'committee', nav: ['Home'] },
-  { email: 'committee2@tallowmere.test', role: 'committee', nav: ['Home'] },
+  { email: 'admin@tallowmere.test', role: 'admin', nav: ['Home', 'Comparisons', 'Adoption policy', 'People', 'Outbox'] },
+  { email: 'modeler@tallowmere.test', role: 'modeler', nav: ['Home', 'Comparisons', 'New comparison', 'Adoption policy'] },
+  { email: 'analyst@tallowmere.test', role: 'analyst', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'policy@tallowmere.test', role: 'policy', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'committee@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons', 'Adoption policy'] },
+  { email: 'committee2@tallowmere.test', role: 'committee', nav: ['Home', 'Comparisons', 'Adoption policy'] },
 ];
 
 let server: RunningServer;
@@ -110,7 +110,7 @@ describe('guards', () => {
       expect(main).toContain(`open to people with the ${roleLabels.admin} role`);
       expect(main).toContain(roleLabels.modeler);
       // The shell stays: the person can go on from here.
-      expect(await mainNav(tab)).toEqual(['Home']);
+      expect(await mainNav(tab)).toEqual(['Home', 'Comparisons', 'New comparison', 'Adoption policy']);
       await tab.screenshot('refusal-modeler-outbox');
       expect(tab.unexpectedErrors()).toEqual([]);
     } finally {

@@ -3,15 +3,41 @@ import { AppSetting } from './app-setting';
 import { AuditEvent } from './audit-event';
 import { Comparison } from './comparison';
 import { CutoffScenario } from './cutoff-scenario';
+import { Decision } from './decision';
 import { Holdout } from './holdout';
 import { HoldoutChunk } from './holdout-chunk';
 import { MailMessage } from './mail-message';
+import { Note } from './note';
 import { OneTimeToken } from './one-time-token';
+import { PolicyVersion } from './policy-version';
+import { Review } from './review';
 import { RunColumn } from './run-column';
 import { Session } from './session';
 import { User } from './user';
+import { VerdictRecord } from './verdict-record';
+import { Vote } from './vote';
 
-export { AnalysisRun, AppSetting, AuditEvent, Comparison, CutoffScenario, Holdout, HoldoutChunk, MailMessage, OneTimeToken, RunColumn, Session, User };
+export {
+  AnalysisRun,
+  AppSetting,
+  AuditEvent,
+  Comparison,
+  CutoffScenario,
+  Decision,
+  Holdout,
+  HoldoutChunk,
+  MailMessage,
+  Note,
+  OneTimeToken,
+  PolicyVersion,
+  Review,
+  RunColumn,
+  Session,
+  User,
+  VerdictRecord,
+  Vote,
+};
+export type { StoredPolicy } from './policy-version';
 export type { RunInput } from './analysis-run';
 export type { StoredHoldoutColumn } from './holdout';
 
@@ -29,4 +55,10 @@ export const entities = [
   AnalysisRun,
   RunColumn,
   CutoffScenario,
+  PolicyVersion,
+  VerdictRecord,
+  Review,
+  Vote,
+  Decision,
+  Note,
 ];

@@ -1,4 +1,4 @@
-import { Link, NavLink, Navigate, Outlet, ScrollRestoration, useLocation, useNavigation } from 'react-router';
+import { Link, NavLink, Navigate, Outlet, ScrollRestoration, matchPath, useLocation, useNavigation } from 'react-router';
 import { paths } from '@/config/paths';
 import { cn } from '@/lib/cn';
 import { describeRoles, hasRole, useLogout, useUser } from '@/lib/auth';
@@ -42,23 +42,30 @@ export function AppShell() {
           </Link>
           <nav aria-label="Main" className="order-last w-full sm:order-none sm:w-auto">
             <ul className="flex flex-wrap gap-1">
-              {items.map((item) => (
-                <li key={item.to}>
-                  <NavLink
-                    to={item.to}
-                    end={item.end}
-                    className={({ isActive }) =>
-                      cn(
-                        'inline-flex h-9 items-center rounded-md px-3 text-sm font-medium',
-                        'focus-visible:outline-2 focus-visible:outline-court-500',
-                        isActive ? 'bg-court-50 text-court-800 ring-1 ring-court-200 ring-inset' : 'text-ink-soft hover:bg-paper-sunk hover:text-ink',
-                      )
-                    }
-                  >
-                    {item.label}
-                  </NavLink>
-                </li>
-              ))}
+              {items.map((item) => {
+                // Another entry is the current one here (e.g. New comparison under Comparisons).
+                const excluded = !!item.except?.some((pattern) => matchPath(pattern, location.pathname));
+                return (
+                  <li key={item.to}>
+                    <NavLink
+                      to={item.to}
+                      end={item.end}
+                      aria-current={excluded ? false : 'page'}
+                      className={({ isActive }) =>
+                        cn(
+                          'inline-flex h-9 items-center rounded-md px-3 text-sm font-medium',
+                          'focus-visible:outline-2 focus-visible:outline-court-500',
+                          isActive && !excluded
+                            ? 'bg-court-50 text-court-800 ring-1 ring-court-200 ring-inset'
+                            : 'text-ink-soft hover:bg-paper-sunk hover:text-ink',
+                        )
+                      }
+                    >
+                      {item.label}
+                    </NavLink>
+                  </li>
+                );
+              })}
             </ul>
           </nav>
           <div className="ml-auto flex items-center gap-4">

@@ -47,6 +47,31 @@ export function Component() {
                     </ButtonLink>
                   </>
                 ),
+                modeler: (
+                  <>
+                    <ButtonLink to={paths.comparisons.new()} size="sm" variant="primary">
+                      Start a new comparison
+                    </ButtonLink>
+                    <ButtonLink to={paths.comparisons.list({ state: 'returned' })} size="sm">
+                      Comparisons returned to modelers
+                    </ButtonLink>
+                  </>
+                ),
+                analyst: (
+                  <ButtonLink to={paths.comparisons.list({ state: 'in-review' })} size="sm" variant="primary">
+                    Comparisons in review
+                  </ButtonLink>
+                ),
+                policy: (
+                  <ButtonLink to={paths.comparisons.list()} size="sm" variant="primary">
+                    Open the comparisons
+                  </ButtonLink>
+                ),
+                committee: (
+                  <ButtonLink to={paths.comparisons.list({ state: 'validated' })} size="sm" variant="primary">
+                    Comparisons awaiting a decision
+                  </ButtonLink>
+                ),
               }}
             />
           </section>

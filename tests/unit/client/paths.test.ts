@@ -12,6 +12,22 @@ describe('paths', () => {
     expect(paths.comparisons.detail(42)).toBe('/comparisons/42');
     expect(paths.comparisons.swapSets(42)).toBe('/comparisons/42/swap-sets');
     expect(paths.comparisons.new()).toBe('/comparisons/new');
+    expect(paths.comparisons.setup(42)).toBe('/comparisons/42/setup');
+    expect(matchPath(paths.comparisons.setup.pattern, paths.comparisons.setup(42))?.params.id).toBe('42');
+  });
+
+  it('keeps the list filters in the URL, leaving out page 1 and the default sort', () => {
+    expect(paths.comparisons.list({ sort: 'updated-desc', page: 1 })).toBe('/comparisons');
+    expect(paths.comparisons.list({ state: 'analysed', q: 'cash flow', sort: 'name-asc', page: 3 })).toBe('/comparisons?state=analysed&q=cash+flow&sort=name-asc&page=3');
+  });
+
+  it('builds the download links of a comparison', () => {
+    expect(paths.exports.bandsCsv(7)).toBe('/api/comparisons/7/export/bands.csv');
+    expect(paths.exports.reportJson(7)).toBe('/api/comparisons/7/export/report.json');
+    expect(paths.exports.swapCsv(7, { approvalRate: 0.65 })).toBe('/api/comparisons/7/export/swap.csv?approvalRate=0.65');
+    expect(paths.exports.swapCsv(7, { cutoffs: { champion: 600, challenger: -1.5 } })).toBe(
+      '/api/comparisons/7/export/swap.csv?championCutoff=600&challengerCutoff=-1.5',
+    );
   });
 
   it('encodes path segments', () => {

@@ -1,0 +1,67 @@
+import type { AuditEvent as AuditEventBody } from '@shared/governance';
+import { Brackets, type DataSource, type EntityManager } from 'typeorm';
+import { auditDetails, verifyAuditChain, type ChainCheck } from '../audit/audit';
+import { AnalysisRun, AuditEvent, Decision, VerdictRecord } from '../db/entities/index';
+import { iso, personRef } from './people';
+import { loadComparison } from './records';
+
+/**
+ * A comparison's audit trail: every event recorded against the comparison (creation, set-ups,
+ * runs, verdicts, scenarios, notes, the workflow's steps and votes), the upload of each holdout
+ * its runs read, and the changes that made the policy versions its verdicts and decision used.
+ * In the order they were recorded, with whether the whole chain verifies (audit/audit.ts).
+ * Reads only: nothing here, or anywhere, changes or removes an event.
+ */
+
+type Source = DataSource | EntityManager;
+
+export function presentAuditEvent(event: AuditEvent): AuditEventBody {
+  return {
+    id: event.id,
+    actor: event.actor ? personRef(event.actor) : null,
+    action: event.action,
+    targetType: event.targetType,
+    targetId: event.targetId,
+    details: auditDetails(event),
+    createdAt: iso(event.createdAt),
+    hash: event.hash,
+    prevHash: event.prevHash,
+  };
+}
+
+export async function comparisonAuditEvents(source: Source, comparisonId: number): Promise<AuditEvent[]> {
+  const comparison = await loadComparison(source, comparisonId);
+  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId }, select: { id: true, holdoutId: true } });
+  const holdoutIds = [...new Set([comparison.holdoutId, ...runs.map((run) => run.holdoutId)])].map(String);
+  const verdictVersions = await source
+    .getRepository(VerdictRecord)
+    .createQueryBuilder('record')
+    .select('DISTINCT record.policyVersion', 'version')
+    .where('record.comparisonId = :comparisonId', { comparisonId })
+    .getRawMany<{ version: number }>();
+  const decision = await source.getRepository(Decision).findOne({ where: { comparisonId }, select: { id: true, policyVersion: true } });
+  const versions = [...new Set([...verdictVersions.map((row) => row.version), ...(decision ? [decision.policyVersion] : [])])].map(String);
+
+  return source
+    .getRepository(AuditEvent)
+    .createQueryBuilder('event')
+    .leftJoinAndSelect('event.actor', 'actor')
+    .where(
+      new Brackets((where) => {
+        where.where("event.targetType = 'comparison' AND event.targetId = :id", { id: String(comparisonId) });
+        where.orWhere("event.targetType = 'holdout' AND event.targetId IN (:...holdoutIds)", { holdoutIds });
+        if (versions.length > 0) where.orWhere("event.targetType = 'policy' AND event.targetId IN (:...versions)", { versions });
+      }),
+    )
+    .orderBy('event.id', 'ASC')
+    .getMany();
+}
+
+export async function comparisonAuditTrail(
+  source: DataSource,
+  comparisonId: number,
+): Promise<{ events: AuditEventBody[]; chainValid: boolean; chain: ChainCheck }> {
+  const events = await comparisonAuditEvents(source, comparisonId);
+  const chain = await verifyAuditChain(source);
+  return { events: events.map(presentAuditEvent), chainValid: chain.ok, chain };
+}

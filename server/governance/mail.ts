@@ -1,0 +1,123 @@
+import { voteChoiceLabels, type VoteChoice } from '@shared/governance';
+import type { ComparisonHeadline } from '@shared/comparisons';
+import type { OutgoingMail } from '../mail/mailer';
+
+/**
+ * Wording of the workflow e-mails, one per transition, to the people who act next: plain text,
+ * short, saying what happened, what to do and where. Signed like the other Scorecourt messages.
+ */
+
+const signature = '— Scorecourt\n\nThis message was sent automatically. Replies are not read.';
+
+function points(value: number): string {
+  return `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
+}
+
+function headlineLine(headline: ComparisonHeadline | null): string[] {
+  if (!headline) return [];
+  return [
+    `Gini: champion ${(headline.championGini * 100).toFixed(1)}, challenger ${(headline.challengerGini * 100).toFixed(1)} ` +
+      `(difference ${points(headline.deltaGini)} points, one-sided p = ${headline.pOneSided.toPrecision(2)}) on ${headline.rows.toLocaleString('en-US')} accounts.`,
+    '',
+  ];
+}
+
+/** Long texts are quoted in full up to a point; the page has the rest. */
+function quote(text: string, limit = 1500): string[] {
+  const cut = text.length > limit ? `${text.slice(0, limit).trimEnd()} […]` : text;
+  return cut.split('\n').map((line) => `  ${line}`);
+}
+
+interface Base {
+  to: string;
+  name: string;
+  comparison: string;
+  link: string;
+}
+
+export function submittedMail(input: Base & { submittedBy: string; message: string; headline: ComparisonHeadline | null }): OutgoingMail {
+  return {
+    to: input.to,
+    subject: `Ready for review: ${input.comparison}`,
+    text: [
+      `Hello ${input.name},`,
+      '',
+      `${input.submittedBy} has submitted "${input.comparison}" for validation.`,
+      '',
+      ...headlineLine(input.headline),
+      ...(input.message ? ['Their note:', ...quote(input.message), ''] : []),
+      'Please read the evidence, write your findings, and either validate the comparison or return it to the modeler:',
+      input.link,
+      '',
+      signature,
+    ].join('\n'),
+  };
+}
+
+export function validatedMail(input: Base & { reviewer: string; findings: string; quorum: number }): OutgoingMail {
+  return {
+    to: input.to,
+    subject: `Validated, waiting for the committee: ${input.comparison}`,
+    text: [
+      `Hello ${input.name},`,
+      '',
+      `${input.reviewer} has validated "${input.comparison}". It now waits for the committee's vote and decision.`,
+      '',
+      'Findings:',
+      ...quote(input.findings),
+      '',
+      input.quorum > 0
+        ? `The adoption policy needs ${input.quorum} committee ${input.quorum === 1 ? 'vote' : 'votes'} before the decision can be recorded.`
+        : 'The adoption policy sets no quorum of votes.',
+      'Vote to adopt the challenger, keep the champion or defer, and record the decision here:',
+      input.link,
+      '',
+      'The verdict only advises: statistical significance is not business approval, and a new model changes who is approved and declined.',
+      '',
+      signature,
+    ].join('\n'),
+  };
+}
+
+export function returnedMail(input: Base & { reviewer: string; findings: string }): OutgoingMail {
+  return {
+    to: input.to,
+    subject: `Returned for changes: ${input.comparison}`,
+    text: [
+      `Hello ${input.name},`,
+      '',
+      `${input.reviewer} has returned "${input.comparison}" to you with these findings:`,
+      '',
+      ...quote(input.findings),
+      '',
+      'Change the holdout, mapping or settings as needed, run the analysis again, and submit it for review once more:',
+      input.link,
+      '',
+      signature,
+    ].join('\n'),
+  };
+}
+
+export function decidedMail(
+  input: Base & { decidedBy: string; outcome: VoteChoice; rationale: string; conditions: string | null; effectiveDate: string | null },
+): OutgoingMail {
+  return {
+    to: input.to,
+    subject: `Decision recorded: ${input.comparison}`,
+    text: [
+      `Hello ${input.name},`,
+      '',
+      `${input.decidedBy} has recorded the committee's decision on "${input.comparison}": ${voteChoiceLabels[input.outcome].toLowerCase()}.`,
+      ...(input.effectiveDate ? [`It applies from ${input.effectiveDate}.`] : []),
+      '',
+      'Rationale:',
+      ...quote(input.rationale),
+      ...(input.conditions ? ['', 'Conditions:', ...quote(input.conditions)] : []),
+      '',
+      'The report with the evidence, the review, the votes and the decision is here:',
+      input.link,
+      '',
+      signature,
+    ].join('\n'),
+  };
+}

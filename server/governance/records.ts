@@ -1,0 +1,61 @@
+import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
+import type { DataSource, EntityManager } from 'typeorm';
+import { findComparison } from '../comparisons/service';
+import { AnalysisRun, Review, Vote, type Comparison } from '../db/entities/index';
+import { conflict, forbidden } from '../errors';
+
+/** Look-ups and rules the governance steps share. */
+
+type Source = DataSource | EntityManager;
+
+/** The comparison with its creator and holdout (for the four-eyes rule), or 404. */
+export function loadComparison(source: Source, id: number): Promise<Comparison> {
+  return findComparison(source, id);
+}
+
+/** The person who created the comparison or uploaded its holdout: they cannot review, vote on or decide it. */
+export function isOwnComparison(comparison: Comparison, user: { id: number }): boolean {
+  return comparison.createdById === user.id || comparison.holdout?.uploadedById === user.id;
+}
+
+export function forbidOwn(comparison: Comparison, user: { id: number }, step: 'review' | 'vote on' | 'decide'): void {
+  if (isOwnComparison(comparison, user)) {
+    throw forbidden(`You created this comparison or uploaded its holdout, so you cannot ${step} it: someone else must (four-eyes rule).`);
+  }
+}
+
+/** A 409 in the words `transition()` uses, for steps that need a state but do not change it. */
+export function requireState(comparison: Comparison, allowed: readonly ComparisonState[]): void {
+  if (allowed.includes(comparison.state)) return;
+  const wanted = allowed.map((state) => comparisonStateLabels[state].toLowerCase()).join(' or ');
+  throw conflict(`This comparison is ${comparisonStateLabels[comparison.state].toLowerCase()}; this step needs it ${wanted}.`, {
+    state: comparison.state,
+    allowedFrom: allowed,
+  });
+}
+
+/** The newest run of a comparison, whatever its status. */
+export function newestRun(source: Source, comparisonId: number): Promise<AnalysisRun | null> {
+  return source.getRepository(AnalysisRun).findOne({ where: { comparisonId }, order: { id: 'DESC' } });
+}
+
+/** The newest review, or null. */
+export function latestReview(source: Source, comparisonId: number): Promise<Review | null> {
+  return source.getRepository(Review).findOne({ where: { comparisonId }, order: { id: 'DESC' } });
+}
+
+/** The validating review that opened the current round of votes (the newest review, when it validated). */
+export async function currentRound(source: Source, comparisonId: number): Promise<Review | null> {
+  const review = await latestReview(source, comparisonId);
+  return review?.outcome === 'validated' ? review : null;
+}
+
+/** The votes that count in a round: each voter's newest, in the order they were first cast. */
+export async function countingVotes(source: Source, reviewId: number): Promise<Vote[]> {
+  const all = await source.getRepository(Vote).find({ where: { reviewId }, order: { id: 'ASC' }, relations: { voter: true } });
+  const byVoter = new Map<number, Vote>();
+  for (const vote of all) byVoter.set(vote.voterId, vote);
+  const firstCast = new Map<number, number>();
+  for (const vote of all) if (!firstCast.has(vote.voterId)) firstCast.set(vote.voterId, vote.id);
+  return [...byVoter.values()].sort((a, b) => firstCast.get(a.voterId)! - firstCast.get(b.voterId)!);
+}

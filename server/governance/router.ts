@@ -1,0 +1,93 @@
+import { decisionInputSchema, reviewInputSchema, submitInputSchema, voteInputSchema } from '@shared/governance';
+import { z } from 'zod';
+import { currentUser } from '../auth/guards';
+import type { AppContext } from '../context';
+import { defineRoute, type RouteDefinition } from '../http/routes';
+import { comparisonAuditTrail } from './audit-trail';
+import { sendEvidencePack } from './evidence';
+import { castVote, getGovernance, recordDecision, reviewComparison, submitComparison } from './service';
+import { reEvaluate } from './verdicts';
+
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+
+/**
+ * The review workflow, verdict records, the audit trail and the evidence pack (shared/governance.ts).
+ * Role rules beyond the guard — the four-eyes rule and the states — are the service's (403 / 409).
+ */
+export function governanceRoutes(ctx: AppContext): RouteDefinition[] {
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/comparisons/:id/governance',
+      access: 'signed-in',
+      summary: 'State, reviews, the current round of votes, the decision, verdict records and the quorum',
+      validate: { params: idParams },
+      handler: (req) => getGovernance(ctx, req.params.id),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/submit',
+      access: ['modeler'],
+      summary: 'Submit for review: analysed → in review, or returned → in review after a new run (409 otherwise); e-mails the analysts',
+      validate: { params: idParams, body: submitInputSchema },
+      handler: (req) => submitComparison(ctx, currentUser(req), req.params.id, req.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/review',
+      access: ['analyst'],
+      summary: 'Findings and outcome: in review → validated (e-mails the committee) or returned (e-mails the creator); not on your own comparison',
+      validate: { params: idParams, body: reviewInputSchema },
+      handler: (req) => reviewComparison(ctx, currentUser(req), req.params.id, req.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/votes',
+      access: ['committee'],
+      summary: 'Vote adopt, keep or defer while validated; a new vote replaces your earlier one; not on your own comparison',
+      validate: { params: idParams, body: voteInputSchema },
+      handler: (req) => castVote(ctx, currentUser(req), req.params.id, req.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/decision',
+      access: ['committee'],
+      summary: "Record the decision: validated → decided, once the policy's quorum is met (409); not on your own comparison; e-mails the creator",
+      validate: { params: idParams, body: decisionInputSchema },
+      handler: (req) => recordDecision(ctx, currentUser(req), req.params.id, req.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/verdicts',
+      access: ['analyst', 'committee', 'admin'],
+      summary: 'Re-evaluate the current run under the current policy → 201 a new verdict record (stored ones never change)',
+      validate: { params: idParams },
+      handler: async (req, res) => {
+        const record = await reEvaluate(ctx, currentUser(req), req.params.id);
+        res.status(201);
+        return record;
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/comparisons/:id/audit',
+      access: 'signed-in',
+      summary: "The comparison's audit events in order, and whether the whole hash chain verifies",
+      validate: { params: idParams },
+      handler: async (req) => {
+        const { events, chainValid } = await comparisonAuditTrail(ctx.dataSource, req.params.id);
+        return { events, chainValid };
+      },
+    }),
+    defineRoute({
+      method: 'get',
+      path: '/comparisons/:id/evidence.json',
+      access: 'signed-in',
+      summary: 'The evidence pack as a download: report, settings, hashes, verdicts, reviews, votes, decision, notes, audit trail',
+      validate: { params: idParams },
+      handler: async (req, res) => {
+        await sendEvidencePack(ctx, currentUser(req), req.params.id, res);
+      },
+    }),
+  ];
+}

@@ -1,0 +1,272 @@
+import type { DecisionInput, Governance, ReviewInput, VoteInput } from '@shared/governance';
+import type { Role } from '@shared/roles';
+import type { EntityManager } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import { transition } from '../comparisons/state';
+import type { AppContext } from '../context';
+import { Decision, Review, User, VerdictRecord, Vote, type Comparison } from '../db/entities/index';
+import { inTransaction } from '../db/transaction';
+import { conflict } from '../errors';
+import type { OutgoingMail } from '../mail/mailer';
+import { currentPolicy } from '../policy/service';
+import { comparisonLink } from './links';
+import { decidedMail, returnedMail, submittedMail, validatedMail } from './mail';
+import { presentDecision, presentReview, presentVerdictRecord, presentVote, voteChoices } from './present';
+import { countingVotes, currentRound, forbidOwn, isOwnComparison, latestReview, loadComparison, newestRun, requireState } from './records';
+
+/**
+ * The review workflow (DESIGN.md "Workflow and roles"): submit (modeler), review (analyst),
+ * votes and the decision (committee). Each step runs in one transaction: its checks, its record,
+ * the state change through `transition()` with its audit event, and the e-mails to the people
+ * who act next (queued in the outbox in the same transaction, delivered after it commits).
+ *
+ * Order of the checks: the route's role guard (403), the comparison exists (404), the four-eyes
+ * rule — whoever created the comparison or uploaded its holdout cannot review, vote on or decide
+ * it (403) —, then the state (409), then the step's own conditions (409).
+ */
+
+async function activeWithRole(manager: EntityManager, role: Role): Promise<User[]> {
+  const active = await manager.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
+  return active.filter((user) => user.roles.includes(role));
+}
+
+async function queueAll(ctx: AppContext, manager: EntityManager, mails: OutgoingMail[]): Promise<void> {
+  for (const mail of mails) await ctx.mailer.queue(manager, mail);
+}
+
+async function creatorOf(manager: EntityManager, comparison: Comparison): Promise<User[]> {
+  const creator = await manager.getRepository(User).findOneBy({ id: comparison.createdById });
+  return creator?.active ? [creator] : [];
+}
+
+/** analysed → in review, or returned → in review after a new analysis run. */
+export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<Governance> {
+  await inTransaction(ctx.dataSource, async (manager) => {
+    const comparison = await loadComparison(manager, id);
+    requireState(comparison, ['analysed', 'returned']);
+    const run = await newestRun(manager, id);
+    if (!run || run.status !== 'done') {
+      throw conflict(
+        run
+          ? `The newest analysis of this comparison is ${run.status === 'failed' ? 'failed' : run.status}; submit it once an analysis has finished.`
+          : 'This comparison has no analysis yet.',
+        { latestRun: run ? { id: run.id, status: run.status } : null },
+      );
+    }
+    if (comparison.state === 'returned') {
+      const returned = await latestReview(manager, id);
+      if (returned && run.id <= returned.runId) {
+        throw conflict(
+          'The analyst returned this comparison on its current analysis. Change the holdout, mapping or settings and run the analysis again before submitting it once more.',
+          { returnedRunId: returned.runId, currentRunId: run.id },
+        );
+      }
+    }
+    await transition(manager, comparison, ['analysed', 'returned'], 'in-review', {
+      actor,
+      action: 'comparison.submitted',
+      details: { runId: run.id, message: input.message },
+    });
+    const link = comparisonLink(ctx.config.publicUrl, id, 'review');
+    const analysts = (await activeWithRole(manager, 'analyst')).filter((person) => !isOwnComparison(comparison, person));
+    await queueAll(
+      ctx,
+      manager,
+      analysts.map((person) =>
+        submittedMail({
+          to: person.email,
+          name: person.name,
+          comparison: comparison.name,
+          link,
+          submittedBy: actor.name,
+          message: input.message,
+          headline: run.headline,
+        }),
+      ),
+    );
+  });
+  ctx.mailer.kick();
+  return getGovernance(ctx, id);
+}
+
+/** in review → validated or returned, with the analyst's findings on the current run. */
+export async function reviewComparison(ctx: AppContext, actor: User, id: number, input: ReviewInput): Promise<Governance> {
+  await inTransaction(ctx.dataSource, async (manager) => {
+    const comparison = await loadComparison(manager, id);
+    forbidOwn(comparison, actor, 'review');
+    requireState(comparison, ['in-review']);
+    const run = await newestRun(manager, id);
+    // Set-up is refused while in review, so the newest run is the done run that was submitted.
+    if (!run || run.status !== 'done') throw new Error(`comparison ${id} is in review without a finished run`);
+    const review = await manager.getRepository(Review).save(
+      manager.getRepository(Review).create({
+        comparisonId: id,
+        runId: run.id,
+        outcome: input.outcome,
+        findings: input.findings,
+        reviewerId: actor.id,
+        createdAt: new Date(),
+      }),
+    );
+    await transition(manager, comparison, ['in-review'], input.outcome, {
+      actor,
+      action: input.outcome === 'validated' ? 'comparison.validated' : 'comparison.returned',
+      details: { reviewId: review.id, runId: run.id, findings: input.findings },
+    });
+    if (input.outcome === 'validated') {
+      const { quorum } = await currentPolicy(manager);
+      const link = comparisonLink(ctx.config.publicUrl, id, 'review');
+      const committee = (await activeWithRole(manager, 'committee')).filter((person) => !isOwnComparison(comparison, person));
+      await queueAll(
+        ctx,
+        manager,
+        committee.map((person) =>
+          validatedMail({ to: person.email, name: person.name, comparison: comparison.name, link, reviewer: actor.name, findings: input.findings, quorum }),
+        ),
+      );
+    } else {
+      const link = comparisonLink(ctx.config.publicUrl, id, 'review');
+      await queueAll(
+        ctx,
+        manager,
+        (await creatorOf(manager, comparison)).map((person) =>
+          returnedMail({ to: person.email, name: person.name, comparison: comparison.name, link, reviewer: actor.name, findings: input.findings }),
+        ),
+      );
+    }
+  });
+  ctx.mailer.kick();
+  return getGovernance(ctx, id);
+}
+
+/** A committee member's vote in the current validation round; a second vote replaces their first. */
+export async function castVote(ctx: AppContext, actor: User, id: number, input: VoteInput): Promise<Governance> {
+  await inTransaction(ctx.dataSource, async (manager) => {
+    const comparison = await loadComparison(manager, id);
+    forbidOwn(comparison, actor, 'vote on');
+    requireState(comparison, ['validated']);
+    const round = await currentRound(manager, id);
+    if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
+    const previous = await manager.getRepository(Vote).findOne({ where: { reviewId: round.id, voterId: actor.id }, order: { id: 'DESC' } });
+    const vote = await manager.getRepository(Vote).save(
+      manager.getRepository(Vote).create({
+        comparisonId: id,
+        reviewId: round.id,
+        voterId: actor.id,
+        vote: input.vote,
+        comment: input.comment,
+        replacesId: previous?.id ?? null,
+        createdAt: new Date(),
+      }),
+    );
+    await recordAudit(manager, {
+      actor,
+      action: previous ? 'vote.changed' : 'vote.cast',
+      target: { type: 'comparison', id },
+      details: {
+        voteId: vote.id,
+        reviewId: round.id,
+        vote: input.vote,
+        comment: input.comment,
+        ...(previous ? { replacesVoteId: previous.id, previousVote: previous.vote } : {}),
+      },
+    });
+  });
+  return getGovernance(ctx, id);
+}
+
+/** validated → decided: the committee's decision, once the policy's quorum of votes is reached. */
+export async function recordDecision(ctx: AppContext, actor: User, id: number, input: DecisionInput): Promise<Governance> {
+  await inTransaction(ctx.dataSource, async (manager) => {
+    const comparison = await loadComparison(manager, id);
+    forbidOwn(comparison, actor, 'decide');
+    requireState(comparison, ['validated']);
+    const round = await currentRound(manager, id);
+    if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
+    const policy = await currentPolicy(manager);
+    const votes = await countingVotes(manager, round.id);
+    if (policy.quorum > 0 && votes.length < policy.quorum) {
+      throw conflict(
+        `The adoption policy (version ${policy.version}) needs ${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision can be recorded; ` +
+          `${votes.length === 0 ? 'none has' : votes.length === 1 ? 'one has' : `${votes.length} have`} been cast.`,
+        { quorum: policy.quorum, votes: votes.length },
+      );
+    }
+    const verdict = await manager.getRepository(VerdictRecord).findOne({ where: { runId: round.runId }, order: { id: 'DESC' } });
+    const decision = await manager.getRepository(Decision).save(
+      manager.getRepository(Decision).create({
+        comparisonId: id,
+        runId: round.runId,
+        reviewId: round.id,
+        policyVersion: policy.version,
+        verdictId: verdict?.id ?? null,
+        outcome: input.outcome,
+        rationale: input.rationale,
+        conditions: input.conditions ? input.conditions : null,
+        effectiveDate: input.effectiveDate ?? null,
+        decidedById: actor.id,
+        createdAt: new Date(),
+      }),
+    );
+    const tally = Object.fromEntries(voteChoices.map((choice) => [choice, votes.filter((vote) => vote.vote === choice).length]));
+    await transition(manager, comparison, ['validated'], 'decided', {
+      actor,
+      action: 'comparison.decided',
+      details: {
+        decisionId: decision.id,
+        outcome: decision.outcome,
+        rationale: decision.rationale,
+        conditions: decision.conditions,
+        effectiveDate: decision.effectiveDate,
+        runId: decision.runId,
+        reviewId: round.id,
+        policyVersion: policy.version,
+        verdictId: decision.verdictId,
+        votes: tally,
+      },
+    });
+    const link = comparisonLink(ctx.config.publicUrl, id, 'report');
+    await queueAll(
+      ctx,
+      manager,
+      (await creatorOf(manager, comparison)).map((person) =>
+        decidedMail({
+          to: person.email,
+          name: person.name,
+          comparison: comparison.name,
+          link,
+          decidedBy: actor.name,
+          outcome: decision.outcome,
+          rationale: decision.rationale,
+          conditions: decision.conditions,
+          effectiveDate: decision.effectiveDate,
+        }),
+      ),
+    );
+  });
+  ctx.mailer.kick();
+  return getGovernance(ctx, id);
+}
+
+/** Everything the review & decision page needs. */
+export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: number): Promise<Governance> {
+  const source = ctx.dataSource;
+  const comparison = await loadComparison(source, id);
+  const reviews = await source.getRepository(Review).find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { reviewer: true } });
+  const round = reviews[0]?.outcome === 'validated' ? reviews[0] : null;
+  const votes = round ? await countingVotes(source, round.id) : [];
+  const decision = await source.getRepository(Decision).findOne({ where: { comparisonId: id }, relations: { decidedBy: true } });
+  const verdicts = await source
+    .getRepository(VerdictRecord)
+    .find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { createdBy: true } });
+  const policy = await currentPolicy(source);
+  return {
+    state: comparison.state,
+    createdBy: { id: comparison.createdBy.id, name: comparison.createdBy.name },
+    reviews: reviews.map(presentReview),
+    votes: votes.map(presentVote),
+    decision: decision ? presentDecision(decision) : null,
+    verdicts: verdicts.map(presentVerdictRecord),
+    quorum: policy.quorum,
+  };
+}

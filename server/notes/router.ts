@@ -1,0 +1,33 @@
+import { noteInputSchema } from '@shared/governance';
+import { z } from 'zod';
+import { currentUser } from '../auth/guards';
+import type { AppContext } from '../context';
+import { defineRoute, type RouteDefinition } from '../http/routes';
+import { addNote, listNotes } from './service';
+
+const idParams = z.object({ id: z.coerce.number().int().positive() });
+
+export function noteRoutes(ctx: AppContext): RouteDefinition[] {
+  return [
+    defineRoute({
+      method: 'get',
+      path: '/comparisons/:id/notes',
+      access: 'signed-in',
+      summary: "The comparison's discussion and swap-set annotations, oldest first",
+      validate: { params: idParams },
+      handler: async (req) => ({ notes: await listNotes(ctx.dataSource, req.params.id) }),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/notes',
+      access: 'signed-in',
+      summary: 'Add a note → 201 the note; anyone to the discussion, the policy role on a swap set (403 otherwise)',
+      validate: { params: idParams, body: noteInputSchema },
+      handler: async (req, res) => {
+        const note = await addNote(ctx, currentUser(req), req.params.id, req.body);
+        res.status(201);
+        return note;
+      },
+    }),
+  ];
+}

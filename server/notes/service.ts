@@ -1,0 +1,69 @@
+import { errorCodes } from '@shared/errors';
+import type { Note as NoteBody, NoteInput } from '@shared/governance';
+import type { DataSource, EntityManager } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import type { AppContext } from '../context';
+import { CutoffScenario, Note, type User } from '../db/entities/index';
+import { inTransaction } from '../db/transaction';
+import { AppError, forbidden } from '../errors';
+import { iso, personRef } from '../governance/people';
+import { loadComparison } from '../governance/records';
+
+/**
+ * Notes on a comparison: the discussion thread, open to everyone signed in, and annotations on
+ * the swap sets, written by the policy role and optionally tied to one of the comparison's saved
+ * cut-off scenarios. Notes are kept as written (no edit, no delete); each has an audit event.
+ */
+
+export function presentNote(note: Note): NoteBody {
+  return {
+    id: note.id,
+    anchor: note.anchor,
+    body: note.body,
+    scenarioId: note.scenarioId,
+    author: personRef(note.author),
+    createdAt: iso(note.createdAt),
+  };
+}
+
+export async function listNotes(source: DataSource | EntityManager, comparisonId: number): Promise<NoteBody[]> {
+  await loadComparison(source, comparisonId);
+  const notes = await source.getRepository(Note).find({ where: { comparisonId }, order: { id: 'ASC' }, relations: { author: true } });
+  return notes.map(presentNote);
+}
+
+export async function addNote(ctx: AppContext, actor: User, comparisonId: number, input: NoteInput): Promise<NoteBody> {
+  const id = await inTransaction(ctx.dataSource, async (manager) => {
+    await loadComparison(manager, comparisonId);
+    if (input.anchor !== 'discussion' && !actor.roles.includes('policy')) {
+      throw forbidden('Only the credit policy role annotates the swap sets; everyone may write in the discussion.');
+    }
+    if (input.scenarioId !== null) {
+      const scenario = await manager.getRepository(CutoffScenario).findOneBy({ id: input.scenarioId, comparisonId });
+      if (!scenario) {
+        throw new AppError(errorCodes.validation, `scenarioId: there is no saved scenario ${input.scenarioId} on this comparison`, 400, {
+          issues: [{ location: 'body', path: 'scenarioId', message: `there is no saved scenario ${input.scenarioId} on this comparison` }],
+        });
+      }
+    }
+    const note = await manager.getRepository(Note).save(
+      manager.getRepository(Note).create({
+        comparisonId,
+        anchor: input.anchor,
+        body: input.body,
+        scenarioId: input.scenarioId,
+        authorId: actor.id,
+        createdAt: new Date(),
+      }),
+    );
+    await recordAudit(manager, {
+      actor,
+      action: 'note.added',
+      target: { type: 'comparison', id: comparisonId },
+      details: { noteId: note.id, anchor: note.anchor, scenarioId: note.scenarioId, body: note.body },
+    });
+    return note.id;
+  });
+  const note = await ctx.dataSource.getRepository(Note).findOneOrFail({ where: { id }, relations: { author: true } });
+  return presentNote(note);
+}

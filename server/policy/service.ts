@@ -1,0 +1,98 @@
+import type { PolicyUpdate, PolicyVersion as PolicyVersionBody } from '@shared/governance';
+import { adoptionPolicySchema, type AdoptionPolicy } from '@shared/policy';
+import type { DataSource, EntityManager } from 'typeorm';
+import { recordAudit } from '../audit/audit';
+import type { AppContext } from '../context';
+import { PolicyVersion, type StoredPolicy, type User } from '../db/entities/index';
+import { inTransaction } from '../db/transaction';
+import { notFound } from '../errors';
+import { iso, personRef } from '../governance/people';
+
+/**
+ * The adoption policy, versioned. The newest stored version is the current one: new analyses are
+ * judged under it and re-evaluations use it. A change by an admin appends a version (with the
+ * admin's reason and an audit event naming the fields that changed); stored versions are never
+ * changed (database triggers refuse it), so every verdict can be read back under its own rules.
+ */
+
+const policyKeys = ['alpha', 'sided', 'materialityGiniPoints', 'requireIntervalAboveZero', 'swapRule', 'minBads', 'quorum'] as const;
+
+function toPolicy(row: PolicyVersion): AdoptionPolicy {
+  // Parse on the way out: a stored row always satisfies the schema the API promises.
+  return adoptionPolicySchema.parse({ ...row.policy, version: row.version });
+}
+
+export function presentPolicyVersion(row: PolicyVersion): PolicyVersionBody {
+  return {
+    policy: toPolicy(row),
+    createdBy: row.createdBy ? personRef(row.createdBy) : null,
+    createdAt: iso(row.createdAt),
+    reason: row.reason,
+  };
+}
+
+async function newestRow(source: DataSource | EntityManager): Promise<PolicyVersion> {
+  const [row] = await source.getRepository(PolicyVersion).find({ order: { version: 'DESC' }, take: 1, relations: { createdBy: true } });
+  // The migration writes version 1, so this only happens on a database that skipped it.
+  if (!row) throw new Error('no adoption policy is stored (the governance migration writes version 1)');
+  return row;
+}
+
+/** The policy new analyses and re-evaluations use: the newest stored version. */
+export async function currentPolicy(source: DataSource | EntityManager): Promise<AdoptionPolicy> {
+  return toPolicy(await newestRow(source));
+}
+
+export async function currentPolicyVersion(source: DataSource | EntityManager): Promise<PolicyVersionBody> {
+  return presentPolicyVersion(await newestRow(source));
+}
+
+/** One stored version, as it was written. */
+export async function policyAtVersion(source: DataSource | EntityManager, version: number): Promise<AdoptionPolicy> {
+  const row = await source.getRepository(PolicyVersion).findOneBy({ version });
+  if (!row) throw notFound(`There is no adoption policy version ${version}.`);
+  return toPolicy(row);
+}
+
+/** Every version, newest first. */
+export async function listPolicyVersions(source: DataSource | EntityManager): Promise<PolicyVersionBody[]> {
+  const rows = await source.getRepository(PolicyVersion).find({ order: { version: 'DESC' }, relations: { createdBy: true } });
+  return rows.map(presentPolicyVersion);
+}
+
+function sameValue(a: unknown, b: unknown): boolean {
+  return JSON.stringify(a) === JSON.stringify(b);
+}
+
+/** Appends a new version with the admin's fields and reason; the previous versions stay as they are. */
+export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUpdate): Promise<PolicyVersionBody> {
+  const { reason, ...fields } = input;
+  const stored: StoredPolicy = {
+    alpha: fields.alpha,
+    sided: fields.sided,
+    materialityGiniPoints: fields.materialityGiniPoints,
+    requireIntervalAboveZero: fields.requireIntervalAboveZero,
+    swapRule: { enabled: fields.swapRule.enabled, approvalRate: fields.swapRule.approvalRate },
+    minBads: fields.minBads,
+    quorum: fields.quorum,
+  };
+  const version = await inTransaction(ctx.dataSource, async (manager) => {
+    const previous = await newestRow(manager);
+    const next = previous.version + 1;
+    const repository = manager.getRepository(PolicyVersion);
+    await repository.insert({ version: next, policy: stored, reason, createdById: actor.id, createdAt: new Date() });
+    const changes: Record<string, { from: unknown; to: unknown }> = {};
+    for (const key of policyKeys) {
+      if (!sameValue(previous.policy[key], stored[key])) changes[key] = { from: previous.policy[key], to: stored[key] };
+    }
+    await recordAudit(manager, {
+      actor,
+      action: 'policy.changed',
+      target: { type: 'policy', id: next },
+      details: { version: next, previousVersion: previous.version, reason, changes },
+    });
+    return next;
+  });
+  const row = await ctx.dataSource.getRepository(PolicyVersion).findOneOrFail({ where: { version }, relations: { createdBy: true } });
+  return presentPolicyVersion(row);
+}

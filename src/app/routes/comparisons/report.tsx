@@ -1,0 +1,238 @@
+import { type QueryClient } from '@tanstack/react-query';
+import { useEffect, useState } from 'react';
+import { type LoaderFunctionArgs, useParams } from 'react-router';
+import { comparisonStateLabels } from '@shared/comparisons';
+import { paths } from '@/config/paths';
+import { useUser } from '@/lib/auth';
+import { formatDateTime, formatPercent } from '@/lib/format';
+import { Button } from '@/components/button';
+import { DecisionCautions } from '@/components/decision-cautions';
+import { DocumentTitle } from '@/components/document-title';
+import { ErrorState } from '@/components/error-state';
+import { LoadingState } from '@/components/loading-state';
+import { GiniContext } from '@/features/comparisons/components/gini-context';
+import { auditTrailQueryOptions, useAuditTrail } from '@/features/governance/api/get-audit-trail';
+import { governanceQueryOptions, useGovernance } from '@/features/governance/api/get-governance';
+import { notesQueryOptions, useNotes } from '@/features/governance/api/get-notes';
+import { AuditEventWhat, ChainStatus } from '@/features/governance/components/audit-timeline';
+import { DecisionRecord } from '@/features/governance/components/decision-record';
+import { NoteItem } from '@/features/governance/components/discussion-thread';
+import { ReviewsList } from '@/features/governance/components/reviews-list';
+import { VerdictOutcomeBadge, VerdictRecords } from '@/features/governance/components/verdict-records';
+import { VotesTally } from '@/features/governance/components/votes-panel';
+import {
+  ReportData,
+  ReportMetrics,
+  ReportSegments,
+  ReportStrategy,
+  ReportSwapTable,
+  ReportTests,
+} from '@/features/governance/components/report/report-evidence';
+import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/components/report/report-table';
+import { scenariosQueryOptions, useScenarios } from '@/features/swap-sets/api/get-scenarios';
+import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
+import { useComparisonPage } from '@/app/routes/comparisons/context';
+
+export const loader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
+  const id = comparisonIdFrom(params);
+  await Promise.all([
+    queryClient.ensureQueryData(governanceQueryOptions(id)),
+    queryClient.ensureQueryData(auditTrailQueryOptions(id)),
+    queryClient.ensureQueryData(notesQueryOptions(id)),
+    queryClient.ensureQueryData(scenariosQueryOptions(id)),
+  ]);
+  return null;
+};
+
+type Paper = 'a4' | 'letter';
+
+/**
+ * The printable model-risk report: one document a model-risk file can hold. On screen it is a
+ * long page with a paper-size choice, a print button and the evidence pack; printed (styles.css,
+ * "report") it drops the app's chrome, uses A4 or Letter pages and starts each part on a new page.
+ */
+export function Component() {
+  const id = comparisonIdFrom(useParams());
+  const { comparison, report } = useComparisonPage();
+  const { data: user } = useUser();
+  const governance = useGovernance(id);
+  const audit = useAuditTrail(id);
+  const notes = useNotes(id);
+  const scenarios = useScenarios(id);
+  const [paper, setPaper] = useState<Paper>('a4');
+  const [generatedAt] = useState(() => new Date());
+  // The print stylesheet picks the paper from the root element (styles.css, "report").
+  useEffect(() => {
+    document.documentElement.dataset.reportPaper = paper;
+    return () => {
+      delete document.documentElement.dataset.reportPaper;
+    };
+  }, [paper]);
+
+  if (governance.isPending || audit.isPending) return <LoadingState label="Assembling the report…" variant="skeleton" />;
+  if (governance.isError) return <ErrorState error={governance.error} onRetry={() => governance.refetch()} />;
+  if (audit.isError) return <ErrorState error={audit.error} onRetry={() => audit.refetch()} />;
+  const g = governance.data;
+  const trail = audit.data;
+  const hasAmount = !!report.mapping.exposure;
+  const verdict = report.verdict;
+  const annotations = (notes.data ?? []).filter((note) => note.anchor !== 'discussion');
+  const discussion = (notes.data ?? []).filter((note) => note.anchor === 'discussion');
+  const scenarioName = new Map((scenarios.data ?? []).map((scenario) => [scenario.id, scenario.name]));
+
+  return (
+    <article data-report data-paper={paper} className="report mx-auto max-w-5xl space-y-10" aria-label="Model-risk report">
+      <DocumentTitle>{`Report: ${comparison.name}`}</DocumentTitle>
+      <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-line bg-paper-raised p-4 print:hidden" data-print="hide">
+        <fieldset className="flex flex-wrap items-center gap-3 text-sm">
+          <legend className="sr-only">Paper size</legend>
+          <span className="font-medium text-ink">Paper</span>
+          {(['a4', 'letter'] as const).map((size) => (
+            <label key={size} className="inline-flex items-center gap-1.5">
+              <input type="radio" name="paper" value={size} checked={paper === size} onChange={() => setPaper(size)} className="accent-court-700" />
+              {size === 'a4' ? 'A4' : 'US Letter'}
+            </label>
+          ))}
+        </fieldset>
+        <div className="flex flex-wrap gap-2">
+          <a className="inline-flex h-9 items-center rounded-md border border-line-strong bg-paper-raised px-3 text-sm font-medium text-ink hover:bg-paper-sunk" href={paths.exports.evidenceJson(id)} download>
+            Download the evidence pack (JSON)
+          </a>
+          <Button variant="primary" size="sm" onClick={() => window.print()}>
+            Print or save as PDF
+          </Button>
+        </div>
+      </div>
+
+      <ReportPart title="Champion–challenger comparison: model-risk report" id="report-summary">
+        <div className="space-y-1">
+          <p className="text-xl font-semibold text-ink">{comparison.name}</p>
+          {comparison.description ? <p className="text-sm text-ink-soft">{comparison.description}</p> : null}
+          <p className="text-sm text-ink-soft">
+            Comparison {comparison.id} · {comparisonStateLabels[g.state]} · created by {comparison.createdBy.name} on {formatDateTime(comparison.createdAt)} ·
+            report generated {formatDateTime(generatedAt)}
+            {user ? ` by ${user.name}` : ''} with Scorecourt
+          </p>
+        </div>
+        <div className="report-block flex flex-wrap items-center gap-3 rounded-md border border-line p-3 text-sm">
+          <span className="font-medium">Verdict under adoption policy version {verdict.policyVersion}:</span>
+          <VerdictOutcomeBadge outcome={verdict.outcome} />
+          <span className="text-ink-soft">{verdict.summary}</span>
+        </div>
+        {g.decision ? (
+          <div className="report-block rounded-md border border-line p-3">
+            <DecisionRecord decision={g.decision} />
+          </div>
+        ) : (
+          <p className="text-sm text-ink-soft">No committee decision is recorded yet: this comparison is {comparisonStateLabels[g.state].toLowerCase()}.</p>
+        )}
+        <ReportData report={report} comparison={comparison} />
+        <DecisionCautions className="report-block" />
+      </ReportPart>
+
+      <ReportPart title="Evidence: metrics and tests" id="report-metrics">
+        <ReportMetrics report={report} />
+        <ReportBlock title="Reading the Gini">
+          <GiniContext report={report} />
+        </ReportBlock>
+        <ReportTests report={report} />
+      </ReportPart>
+
+      <ReportPart title="Who changes sides: swap sets and segments" id="report-swap">
+        <ReportSwapTable swap={report.swap} confidence={report.settings.confidence} hasAmount={hasAmount} title="Swap sets at the report’s cut-offs" />
+        <ReportStrategy report={report} />
+        {scenarios.data && scenarios.data.length > 0 ? (
+          <ReportBlock title="Saved cut-off scenarios" note="Chosen by credit policy; swap sets as computed when each was saved.">
+            <ReportTable
+              caption="Saved cut-off scenarios"
+              head={['Scenario', 'Champion cut-off', 'Challenger cut-off', 'Approval rate', 'Swap-in', 'Swap-in bad rate', 'Swap-out', 'Swap-out bad rate', 'Saved by']}
+              numeric={[1, 2, 3, 4, 5, 6, 7]}
+              rows={scenarios.data.map((scenario) => [
+                scenario.name,
+                String(scenario.cutoffs.champion),
+                String(scenario.cutoffs.challenger),
+                scenario.approvalRate === null ? 'cut-offs' : formatPercent(scenario.approvalRate, 1),
+                String(scenario.swapIn.count),
+                formatPercent(scenario.swapIn.badRate),
+                String(scenario.swapOut.count),
+                formatPercent(scenario.swapOut.badRate),
+                scenario.createdBy.name,
+              ])}
+            />
+          </ReportBlock>
+        ) : null}
+        {annotations.length > 0 ? (
+          <ReportBlock title="Credit policy’s annotations">
+            <ol className="divide-y divide-line rounded-md border border-line">
+              {annotations.map((note) => (
+                <NoteItem key={note.id} note={note} scenarioName={note.scenarioId !== null ? (scenarioName.get(note.scenarioId) ?? null) : null} />
+              ))}
+            </ol>
+          </ReportBlock>
+        ) : null}
+        <ReportSegments report={report} />
+      </ReportPart>
+
+      <ReportPart title="Verdict, review and decision" id="report-governance">
+        <ReportBlock title={`Adoption criteria (policy version ${verdict.policyVersion})`}>
+          <ReportTable
+            caption="Adoption criteria"
+            head={['Criterion', 'Result', 'Why']}
+            nowrap={[1]}
+            rows={verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail])}
+          />
+          <p className="text-xs text-ink-soft">
+            Policy version {report.policy.version}: α = {report.policy.alpha} ({report.policy.sided}), materiality {report.policy.materialityGiniPoints} Gini
+            points, interval above zero {report.policy.requireIntervalAboveZero ? 'required' : 'not required'}, swap rule{' '}
+            {report.policy.swapRule.enabled ? `at a ${formatPercent(report.policy.swapRule.approvalRate, 1)} approval rate` : 'off'}, at least{' '}
+            {report.policy.minBads} bads, quorum {report.policy.quorum || 'none'}.
+          </p>
+        </ReportBlock>
+        <ReportBlock title="Verdict records" note="Every verdict given, newest first, each under the policy version it used; a stored verdict never changes.">
+          <VerdictRecords comparisonId={id} records={g.verdicts} currentRunId={comparison.currentRunId} canReEvaluate={false} />
+        </ReportBlock>
+        <ReportBlock title="Review findings">
+          <ReviewsList reviews={g.reviews} />
+        </ReportBlock>
+        <ReportBlock title="Committee votes">
+          <VotesTally votes={g.votes} quorum={g.quorum} />
+        </ReportBlock>
+        <ReportBlock title="Decision">
+          {g.decision ? <DecisionRecord decision={g.decision} /> : <p className="text-sm text-ink-soft">Not decided yet.</p>}
+        </ReportBlock>
+        {discussion.length > 0 ? (
+          <ReportBlock title="Discussion">
+            <ol className="divide-y divide-line rounded-md border border-line">
+              {discussion.map((note) => (
+                <NoteItem key={note.id} note={note} />
+              ))}
+            </ol>
+          </ReportBlock>
+        ) : null}
+        <p className="report-block text-xs text-ink-soft">
+          The verdict advises and the committee decides; the cautions on the first page apply to every decision recorded here.
+        </p>
+      </ReportPart>
+
+      <ReportPart title="Audit trail" id="report-audit">
+        <ChainStatus valid={trail.chainValid} events={trail.events.length} />
+        <ReportTable
+          caption="Audit trail"
+          head={['When (UTC)', 'Who', 'What', 'Hash']}
+          nowrap={[0]}
+          rows={trail.events.map((event) => [
+            formatDateTime(event.createdAt, 'UTC'),
+            event.actor?.name ?? 'Scorecourt',
+            <AuditEventWhat key={event.id} event={event} />,
+            <code key="hash" className="font-mono text-[10px] break-all text-ink-soft">
+              {event.hash.slice(0, 16)}…
+            </code>,
+          ])}
+        />
+        <p className="text-xs text-ink-soft">
+          Hashes are shortened here; the evidence pack holds them in full, with every event’s details.
+        </p>
+      </ReportPart>
+    </article>
+  );
+}

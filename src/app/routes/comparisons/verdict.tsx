@@ -1,0 +1,47 @@
+import { paths } from '@/config/paths';
+import { formatCount } from '@/lib/format';
+import { ButtonLink } from '@/components/button';
+import { Section } from '@/components/card';
+import { DecisionCautions } from '@/components/decision-cautions';
+import { CriteriaList } from '@/features/comparisons/components/criteria-list';
+import { GiniContext } from '@/features/comparisons/components/gini-context';
+import { ModelMetrics } from '@/features/comparisons/components/model-metrics';
+import { SwapGlance } from '@/features/comparisons/components/swap-glance';
+import { UpliftChart } from '@/features/comparisons/components/uplift-chart';
+import { VerdictHeadline } from '@/features/comparisons/components/verdict-headline';
+import { useComparisonPage } from '@/app/routes/comparisons/context';
+
+/** The comparison's front page: the verdict, the uplift against zero and materiality, the metrics and criteria. */
+export function Component() {
+  const { comparison, report } = useComparisonPage();
+  return (
+    <div className="space-y-6">
+      <VerdictHeadline verdict={report.verdict} />
+      <Section title="The uplift" description="How much better the challenger separates goods from bads, with the uncertainty of the estimate.">
+        <UpliftChart report={report} />
+      </Section>
+      <div className="grid gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+        <Section title="Adoption criteria" description="The adoption policy turns the evidence into a recommendation; each rule with the numbers that decided it.">
+          <CriteriaList verdict={report.verdict} />
+        </Section>
+        <Section title="Reading a Gini">
+          <GiniContext report={report} />
+        </Section>
+      </div>
+      <Section title="Both models" description={`On ${formatCount(report.rows)} accounts with ${formatCount(report.bads)} bads.`}>
+        <ModelMetrics report={report} />
+      </Section>
+      <Section
+        title="Who changes sides"
+        actions={
+          <ButtonLink to={paths.comparisons.swapSets(comparison.id)} size="sm">
+            Explore the swap sets
+          </ButtonLink>
+        }
+      >
+        <SwapGlance report={report} />
+      </Section>
+      <DecisionCautions />
+    </div>
+  );
+}

@@ -1,0 +1,15 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { type Governance, governanceSchema } from '@shared/governance';
+import { api } from '@/lib/api-client';
+
+/** GET /api/comparisons/:id/governance → state, reviews, the current round's votes, the decision, verdict records, quorum. */
+export async function getGovernance(id: number): Promise<Governance> {
+  return api.get(`/api/comparisons/${id}/governance`, { schema: governanceSchema });
+}
+
+export const governanceQueryOptions = (id: number) =>
+  queryOptions({ queryKey: ['comparisons', 'detail', id, 'governance'], queryFn: () => getGovernance(id) });
+
+export function useGovernance(id: number) {
+  return useQuery(governanceQueryOptions(id));
+}

@@ -1,0 +1,17 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { z } from 'zod';
+import { type Note, noteSchema } from '@shared/governance';
+import { api } from '@/lib/api-client';
+
+const notesResponseSchema = z.object({ notes: z.array(noteSchema) });
+
+/** GET /api/comparisons/:id/notes → the discussion and the swap-set annotations, oldest first. */
+export async function getNotes(id: number): Promise<Note[]> {
+  return (await api.get(`/api/comparisons/${id}/notes`, { schema: notesResponseSchema })).notes;
+}
+
+export const notesQueryOptions = (id: number) => queryOptions({ queryKey: ['comparisons', 'detail', id, 'notes'], queryFn: () => getNotes(id) });
+
+export function useNotes(id: number) {
+  return useQuery(notesQueryOptions(id));
+}

@@ -1,0 +1,20 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { type VerdictRecord, verdictRecordSchema } from '@shared/governance';
+import { api } from '@/lib/api-client';
+
+/** POST /api/comparisons/:id/verdicts (analyst, committee or admin): the current run under the current policy → a new verdict record. */
+export async function reEvaluateVerdict(id: number): Promise<VerdictRecord> {
+  return api.post(`/api/comparisons/${id}/verdicts`, {}, { schema: verdictRecordSchema });
+}
+
+export function useReEvaluateVerdict(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: () => reEvaluateVerdict(id),
+    onSuccess: () =>
+      Promise.all([
+        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'governance'] }),
+        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'audit'] }),
+      ]),
+  });
+}

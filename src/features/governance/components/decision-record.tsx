@@ -1,0 +1,32 @@
+import { type Governance, voteChoiceLabels } from '@shared/governance';
+import { formatDate, formatDateTime, isoDateTime } from '@/lib/format';
+import { StatusBadge } from '@/components/status-badge';
+
+/** The recorded decision, as the committee wrote it. */
+export function DecisionRecord({ decision }: { decision: NonNullable<Governance['decision']> }) {
+  return (
+    <div className="space-y-3 text-sm" data-testid="decision">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+        <StatusBadge tone={decision.outcome === 'adopt' ? 'good' : decision.outcome === 'keep' ? 'neutral' : 'caution'}>
+          {voteChoiceLabels[decision.outcome]}
+        </StatusBadge>
+        <span>
+          recorded by <span className="font-medium text-ink">{decision.decidedBy.name}</span>,{' '}
+          <time dateTime={isoDateTime(decision.createdAt)}>{formatDateTime(decision.createdAt)}</time>
+        </span>
+      </div>
+      <dl className="grid gap-x-6 gap-y-2 sm:grid-cols-[10rem_1fr]">
+        <dt className="text-ink-soft">Rationale</dt>
+        <dd className="prewrap text-ink">{decision.rationale}</dd>
+        <dt className="text-ink-soft">Conditions</dt>
+        <dd className="prewrap text-ink">{decision.conditions ?? 'None'}</dd>
+        <dt className="text-ink-soft">Effective from</dt>
+        <dd className="text-ink">{decision.effectiveDate ? formatDate(`${decision.effectiveDate}T00:00:00Z`, 'UTC') : 'Not given'}</dd>
+        <dt className="text-ink-soft">Evidence</dt>
+        <dd className="text-ink">
+          Analysis run {decision.runId}, adoption policy version {decision.policyVersion}
+        </dd>
+      </dl>
+    </div>
+  );
+}

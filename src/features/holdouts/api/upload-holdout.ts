@@ -1,0 +1,27 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { type HoldoutInfo, holdoutSchema } from '@shared/comparisons';
+import { type UploadProgress, upload } from '@/lib/api-client';
+
+export interface UploadHoldoutInput {
+  file: File;
+  onProgress?: (progress: UploadProgress) => void;
+  signal?: AbortSignal;
+}
+
+/**
+ * POST /api/holdouts (modeler; multipart field `file`) → 201 the holdout: columns, row count,
+ * SHA-256, the first 20 rows and a guessed mapping. Sent with XMLHttpRequest for progress events.
+ */
+export async function uploadHoldout({ file, onProgress, signal }: UploadHoldoutInput): Promise<HoldoutInfo> {
+  const form = new FormData();
+  form.append('file', file, file.name);
+  return upload('/api/holdouts', form, { schema: holdoutSchema, onProgress, signal });
+}
+
+export function useUploadHoldout() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: uploadHoldout,
+    onSuccess: (holdout) => queryClient.setQueryData(['holdouts', 'detail', holdout.id], holdout),
+  });
+}

@@ -1,0 +1,175 @@
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useEffect, useMemo } from 'react';
+import { type DeepPartial, type UseFormRegister, useForm, useWatch } from 'react-hook-form';
+import { type HoldoutInfo } from '@shared/comparisons';
+import { type ColumnMapping, type HigherIs } from '@shared/report';
+import { Button } from '@/components/button';
+import { Callout } from '@/components/callout';
+import { Checkbox, CheckboxGroup } from '@/components/checkbox';
+import { ModelTag } from '@/components/model-tag';
+import { Radio, RadioGroup } from '@/components/radio-group';
+import { Select } from '@/components/select';
+import {
+  type MappingFormValues,
+  columnOptionLabel,
+  mappingFormDefaults,
+  mappingFormSchema,
+  outcomeValues,
+  toColumnMapping,
+} from '@/features/holdouts/lib/mapping';
+
+type MappingFormProps = {
+  holdout: HoldoutInfo;
+  /** An earlier mapping to start from (a resumed draft, a re-run); else the reader's guess. */
+  initial: ColumnMapping | null;
+  initialDropMissing: boolean;
+  onSubmit: (mapping: ColumnMapping, dropMissing: boolean) => void;
+  /** Called as the person maps columns, so the preview can label them. */
+  onRolesChange?: (roles: Record<string, string>) => void;
+  busy?: boolean;
+};
+
+const orientationWords: Record<HigherIs, string> = { safer: 'higher is safer', riskier: 'higher is riskier' };
+
+/**
+ * Step 3: which column is the outcome (and which value means bad), which hold the two scores and
+ * which way each points, and the optional id, segments and exposure. Starts from the reader's
+ * guess; the orientation hint from the data is shown beside each score.
+ */
+export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, onRolesChange, busy }: MappingFormProps) {
+  const defaults = useMemo(() => mappingFormDefaults(holdout.guess, initial, initialDropMissing), [holdout.guess, initial, initialDropMissing]);
+  const {
+    register,
+    handleSubmit,
+    control,
+    setValue,
+    formState: { errors },
+  } = useForm<MappingFormValues>({ resolver: zodResolver(mappingFormSchema), defaultValues: defaults });
+  const values = useWatch({ control });
+
+  const columnOptions = holdout.columns.map((column) => ({ value: column.name, label: columnOptionLabel(column) }));
+  const none = { value: '', label: 'None' };
+  const badValues = outcomeValues(holdout, values.outcome ?? '', [holdout.guess.outcome === values.outcome ? holdout.guess.badValue : null, values.badValue ?? null]);
+  const segmentCandidates = holdout.columns.filter((column) => column.kind === 'categorical');
+
+  // A new outcome column: pick its likely bad value again.
+  useEffect(() => {
+    if (values.outcome && values.badValue && !badValues.includes(values.badValue)) setValue('badValue', badValues.includes('1') ? '1' : (badValues[0] ?? ''));
+  }, [values.outcome, values.badValue, badValues, setValue]);
+
+  useEffect(() => {
+    if (!onRolesChange) return;
+    const roles: Record<string, string> = {};
+    if (values.outcome) roles[values.outcome] = 'Outcome';
+    if (values.champion) roles[values.champion] = 'Champion';
+    if (values.challenger) roles[values.challenger] = 'Challenger';
+    if (values.id) roles[values.id] = 'Account id';
+    if (values.exposure) roles[values.exposure] = 'Exposure';
+    for (const segment of values.segments ?? []) if (segment) roles[segment] = 'Segment';
+    onRolesChange(roles);
+  }, [values.outcome, values.champion, values.challenger, values.id, values.exposure, values.segments, onRolesChange]);
+
+  const submit = handleSubmit((form) => onSubmit(toColumnMapping(form), form.dropMissing));
+
+  return (
+    <form onSubmit={submit} noValidate className="space-y-8">
+      <fieldset className="grid gap-4 md:grid-cols-2">
+        <legend className="mb-2 text-base font-semibold text-ink">Outcome</legend>
+        <Select label="Outcome column" hint="Whether each account went bad over the performance window." error={errors.outcome?.message} options={[{ value: '', label: 'Choose a column' }, ...columnOptions]} {...register('outcome')} />
+        <Select
+          label="Value that means bad"
+          hint="Bad is the event; the other value in the column means good."
+          error={errors.badValue?.message}
+          options={[{ value: '', label: 'Choose a value' }, ...badValues.map((value) => ({ value, label: value }))]}
+          {...register('badValue')}
+        />
+      </fieldset>
+
+      <div className="grid gap-6 md:grid-cols-2">
+        <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} />
+        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} />
+      </div>
+
+      <fieldset className="grid gap-4 md:grid-cols-2">
+        <legend className="mb-2 text-base font-semibold text-ink">Optional columns</legend>
+        <Select label="Account id" optional hint="Names accounts in the swap-list export and finds duplicates." error={errors.id?.message} options={[none, ...columnOptions]} {...register('id')} />
+        <Select label="Exposure or amount" optional hint="Summed in the swap sets (e.g. the loan amount)." error={errors.exposure?.message} options={[none, ...columnOptions.filter((option) => holdout.columns.find((column) => column.name === option.value)?.kind === 'numeric')]} {...register('exposure')} />
+        <CheckboxGroup
+          legend="Segments"
+          hint={segmentCandidates.length > 0 ? 'Both models are compared within each value of these columns (with a Holm adjustment).' : 'No column has few enough distinct values to be a segment.'}
+          error={errors.segments?.message}
+          className="md:col-span-2"
+        >
+          <div className="flex flex-wrap gap-x-6 gap-y-2">
+            {segmentCandidates.map((column) => (
+              <Checkbox key={column.name} value={column.name} label={<code className="font-mono text-xs">{column.name}</code>} hint={`${column.distinct} values`} {...register('segments')} />
+            ))}
+          </div>
+        </CheckboxGroup>
+        <Checkbox
+          className="md:col-span-2"
+          label="Leave out rows with an empty score"
+          hint="Otherwise an empty score stops the check with its row and column. Rows left out are counted in the report."
+          {...register('dropMissing')}
+        />
+      </fieldset>
+
+      <div className="flex flex-wrap gap-2 border-t border-line pt-4">
+        <Button type="submit" variant="primary" loading={busy} loadingText="Checking every row…">
+          Check the data
+        </Button>
+      </div>
+    </form>
+  );
+}
+
+function ScoreFields({
+  model,
+  holdout,
+  register,
+  values,
+  error,
+  columnOptions,
+}: {
+  model: 'champion' | 'challenger';
+  holdout: HoldoutInfo;
+  register: UseFormRegister<MappingFormValues>;
+  values: DeepPartial<MappingFormValues>;
+  error?: string;
+  columnOptions: { value: string; label: string }[];
+}) {
+  const column = values[model];
+  const chosen = values.higherIs?.[model];
+  const { guess } = holdout;
+  // The hints are about the guessed columns; follow the column, wherever the person put it.
+  const hintFor = (name: string | undefined): { text: string; higherIs: HigherIs | null } | null => {
+    if (!name) return null;
+    if (name === guess.champion && guess.orientationHints.champion) return { text: guess.orientationHints.champion, higherIs: guess.higherIs.champion };
+    if (name === guess.challenger && guess.orientationHints.challenger) return { text: guess.orientationHints.challenger, higherIs: guess.higherIs.challenger };
+    return null;
+  };
+  const hint = hintFor(column);
+  const disagrees = hint?.higherIs && chosen && hint.higherIs !== chosen;
+  const title = model === 'champion' ? 'Champion (the model in production)' : 'Challenger (the candidate)';
+  return (
+    <fieldset className="space-y-4 rounded-lg border border-line p-4">
+      <legend className="px-1">
+        <ModelTag model={model} />
+      </legend>
+      <p className="-mt-2 text-sm text-ink-soft">{title}</p>
+      <Select label={`${model === 'champion' ? 'Champion' : 'Challenger'} score column`} error={error} options={[{ value: '', label: 'Choose a column' }, ...columnOptions]} {...register(model)} />
+      <RadioGroup legend="Orientation" inline hint={hint ? `From the data: ${hint.text}.` : column ? 'No hint from the data for this column: check which way it points.' : undefined}>
+        <Radio value="safer" label="Higher is safer" hint="points" {...register(`higherIs.${model}`)} />
+        <Radio value="riskier" label="Higher is riskier" hint="a PD" {...register(`higherIs.${model}`)} />
+      </RadioGroup>
+      {disagrees ? (
+        <Callout tone="caution" title="The data point the other way">
+          <p>
+            You chose {orientationWords[chosen]}, but the data suggest {orientationWords[hint.higherIs!]}. A wrong orientation turns the Gini
+            negative.
+          </p>
+        </Callout>
+      ) : null}
+    </fieldset>
+  );
+}

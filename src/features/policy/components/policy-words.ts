@@ -1,0 +1,19 @@
+import { type AdoptionPolicy } from '@shared/policy';
+
+/** Each rule of the adoption policy in words, for the summary and the version history. */
+export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: string; value: string }[] {
+  const percent = (fraction: number) => `${Number((fraction * 100).toFixed(1))}%`;
+  return [
+    { label: 'Significance', value: `${policy.sided === 'one-sided' ? 'One-sided' : 'Two-sided'} DeLong test of ΔGini at α = ${policy.alpha}` },
+    { label: 'Materiality', value: `ΔGini of at least ${policy.materialityGiniPoints} Gini points` },
+    { label: 'Interval', value: policy.requireIntervalAboveZero ? 'The lower bound of the ΔGini interval must be above 0' : 'Not required' },
+    {
+      label: 'Swap sets',
+      value: policy.swapRule.enabled
+        ? `Swap-in bad rate not above the swap-out bad rate at a ${percent(policy.swapRule.approvalRate)} approval rate`
+        : 'Not checked',
+    },
+    { label: 'Minimum bads', value: `At least ${policy.minBads.toLocaleString('en-US')} bads in the holdout` },
+    { label: 'Quorum', value: policy.quorum > 0 ? `${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision` : 'None' },
+  ];
+}

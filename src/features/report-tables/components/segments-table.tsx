@@ -1,0 +1,66 @@
+import { createColumnHelper } from '@tanstack/react-table';
+import { type SegmentRow } from '@shared/report';
+import { formatCount, formatGini, formatGiniDelta, formatPValue } from '@/lib/format';
+import { DataTable } from '@/components/data-table';
+import { EmptyState } from '@/components/empty-state';
+import { StatusBadge } from '@/components/status-badge';
+
+const column = createColumnHelper<SegmentRow>();
+
+/** A p-value with the words "below α" when the policy's level is met: never colour alone. */
+function PCell({ p, alpha }: { p: number | null; alpha: number }) {
+  return (
+    <span className="inline-flex flex-col items-end">
+      <span>{formatPValue(p)}</span>
+      {p !== null && p < alpha ? <span className="text-xs font-medium text-good-strong">below α</span> : null}
+    </span>
+  );
+}
+
+/**
+ * Both models within each value of each segment column: n, bads, both Ginis, ΔGini with its
+ * DeLong p, the Holm-adjusted p across all segment rows, and a flag for too few bads.
+ */
+export function SegmentsTable({ segments, alpha }: { segments: SegmentRow[]; alpha: number }) {
+  const columns = [
+    column.accessor('column', { header: 'Column', cell: ({ getValue }) => <code className="font-mono text-xs">{getValue()}</code> }),
+    column.accessor('value', { header: 'Value', meta: { rowHeader: true } }),
+    column.accessor('n', { header: 'Accounts', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
+    column.accessor('bads', { header: 'Bads', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
+    column.accessor('championGini', { header: 'Champion Gini', meta: { numeric: true }, cell: ({ getValue }) => formatGini(getValue()) }),
+    column.accessor('challengerGini', { header: 'Challenger Gini', meta: { numeric: true }, cell: ({ getValue }) => formatGini(getValue()) }),
+    column.accessor('deltaGini', {
+      header: 'ΔGini',
+      meta: { numeric: true },
+      sortUndefined: 'last',
+      cell: ({ getValue }) => {
+        const value = getValue();
+        return (
+          <span className="inline-flex items-center gap-1">
+            {value !== null && value < 0 ? <span className="text-xs text-bad-strong">(worse)</span> : null}
+            <span className="font-medium">{formatGiniDelta(value)}</span>
+          </span>
+        );
+      },
+    }),
+    column.accessor('p', { header: 'p', meta: { numeric: true }, cell: ({ getValue }) => <PCell p={getValue()} alpha={alpha} /> }),
+    column.accessor('pHolm', { header: 'p, Holm-adjusted', meta: { numeric: true }, cell: ({ getValue }) => <PCell p={getValue()} alpha={alpha} /> }),
+    column.accessor('tooFewBads', {
+      header: 'Flags',
+      cell: ({ getValue }) => (getValue() ? <StatusBadge tone="caution">Too few bads</StatusBadge> : <span className="text-ink-faint">none</span>),
+    }),
+    column.accessor('note', { header: 'Notes', enableSorting: false, cell: ({ getValue }) => <span className="text-ink-soft">{getValue() ?? ''}</span> }),
+  ];
+  return (
+    <DataTable
+      data={segments}
+      columns={columns}
+      caption="Both models within each segment"
+      density="compact"
+      getRowId={(row) => `${row.column}=${row.value}`}
+      empty={
+        <EmptyState title="No segments in this analysis">Map one or more segment columns (product, channel, vintage…) to compare the models within each value.</EmptyState>
+      }
+    />
+  );
+}

@@ -1,0 +1,11 @@
+import { useEffect, useState } from 'react';
+
+/** `value`, once it has stopped changing for `delay` milliseconds (sliders, search boxes). */
+export function useDebounced<T>(value: T, delay = 300): T {
+  const [settled, setSettled] = useState(value);
+  useEffect(() => {
+    const timer = setTimeout(() => setSettled(value), delay);
+    return () => clearTimeout(timer);
+  }, [value, delay]);
+  return settled;
+}

@@ -1,0 +1,168 @@
+import type { ComparisonState } from '@shared/comparisons';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { buildTestApp, type TestApp } from './helpers/app';
+import { signedInAs, type TestClient } from './helpers/client';
+import { lastOutboxId, outboxAfter, personWith, waitForRuns } from './helpers/governance';
+import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
+
+/**
+ * The 403/409 matrix of the workflow: every transition × every state × three kinds of caller —
+ * someone holding the step's role who did not create the comparison, the creator holding that
+ * role too (four-eyes), and a role the step does not name. Expected (server/governance/service.ts):
+ * wrong role → 403 (the guard); the creator → 403 for review, votes and the decision, whatever the
+ * state; otherwise 409 unless the state is one the step starts from, then 200.
+ * All comparisons are created by one person who holds every workflow role.
+ */
+
+type Step = 'submit' | 'validate' | 'return' | 'vote' | 'decide';
+
+const steps: Record<Step, { path: string; body: object; role: 'modeler' | 'analyst' | 'committee'; from: ComparisonState[]; fourEyes: boolean }> = {
+  submit: { path: 'submit', body: { message: '' }, role: 'modeler', from: ['analysed'], fourEyes: false },
+  validate: { path: 'review', body: { outcome: 'validated', findings: 'Fine.' }, role: 'analyst', from: ['in-review'], fourEyes: true },
+  return: { path: 'review', body: { outcome: 'returned', findings: 'Not yet.' }, role: 'analyst', from: ['in-review'], fourEyes: true },
+  vote: { path: 'votes', body: { vote: 'adopt', comment: '' }, role: 'committee', from: ['validated'], fourEyes: true },
+  decide: { path: 'decision', body: { outcome: 'keep', rationale: 'Not material.' }, role: 'committee', from: ['validated'], fourEyes: true },
+};
+/** A role each step does not name. */
+const wrongRole: Record<Step, 'policy' | 'analyst' | 'modeler'> = { submit: 'analyst', validate: 'policy', return: 'modeler', vote: 'analyst', decide: 'policy' };
+
+const states: ComparisonState[] = ['draft', 'analysed', 'in-review', 'validated', 'returned', 'decided'];
+
+let t: TestApp;
+let owner: TestClient;
+const clients = new Map<string, TestClient>();
+/** A comparison in each state, and spare ones for the calls that succeed (they change the state). */
+const inState = new Map<ComparisonState, number>();
+const spare = new Map<Step, number>();
+
+async function ok(response: Promise<{ status: number; body: unknown }>): Promise<void> {
+  const { status, body } = await response;
+  expect(status, JSON.stringify(body)).toBe(200);
+}
+
+async function driveTo(id: number, state: ComparisonState): Promise<void> {
+  if (state === 'analysed' || state === 'draft') return;
+  await ok(owner.post(`/api/comparisons/${id}/submit`, {}));
+  if (state === 'in-review') return;
+  await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, { outcome: state === 'returned' ? 'returned' : 'validated', findings: 'Set-up.' }));
+  if (state === 'decided') await ok(clients.get('committee')!.post(`/api/comparisons/${id}/decision`, { outcome: 'defer', rationale: 'Set-up.' }));
+}
+
+beforeAll(async () => {
+  t = await buildTestApp();
+  ({ client: owner } = await personWith(t, 'owner@tallowmere.test', ['modeler', 'analyst', 'committee']));
+  for (const role of ['modeler', 'analyst', 'committee', 'policy'] as const) clients.set(role, await signedInAs(t.app, role));
+  const upload = await uploadFile(owner, sample2k(), 'sample-2k.csv');
+  expect(upload.status).toBe(201);
+  const holdoutId = (upload.body as { id: number }).id;
+  const create = async (name: string, withMapping: boolean) => {
+    const response = await owner.post('/api/comparisons', { name, holdoutId, ...(withMapping ? { mapping: sampleMapping, settings: { bootstrap: 0 } } : {}) });
+    expect(response.status).toBe(201);
+    return (response.body as { id: number }).id;
+  };
+  for (const state of states) inState.set(state, await create(`matrix ${state}`, state !== 'draft'));
+  spare.set('submit', await create('spare submit', true));
+  spare.set('validate', await create('spare validate', true));
+  spare.set('return', await create('spare return', true));
+  spare.set('vote', await create('spare vote', true));
+  spare.set('decide', await create('spare decide', true));
+  await waitForRuns(t);
+  for (const state of states) await driveTo(inState.get(state)!, state);
+  await driveTo(spare.get('validate')!, 'in-review');
+  await driveTo(spare.get('return')!, 'in-review');
+  await driveTo(spare.get('vote')!, 'validated');
+  await driveTo(spare.get('decide')!, 'validated');
+}, 60_000);
+afterAll(async () => {
+  await t.close();
+});
+
+async function stateOf(id: number): Promise<ComparisonState> {
+  return ((await owner.get(`/api/comparisons/${id}`)).body as { state: ComparisonState }).state;
+}
+
+describe('workflow: the 403/409 matrix', () => {
+  it('has each comparison in the state it stands for', async () => {
+    for (const state of states) expect(await stateOf(inState.get(state)!)).toBe(state);
+  });
+
+  it('answers every step × state × caller as the rules say, and a refused call changes nothing', async () => {
+    const failures: string[] = [];
+    let cells = 0;
+    for (const [step, rule] of Object.entries(steps) as [Step, (typeof steps)[Step]][]) {
+      for (const state of states) {
+        const id = inState.get(state)!;
+        const callers: [string, TestClient, number][] = [
+          [`${wrongRole[step]} (wrong role)`, clients.get(wrongRole[step])!, 403],
+          ['creator holding the role', owner, rule.fourEyes ? 403 : rule.from.includes(state) ? 200 : 409],
+          // The successful cells are checked on spare comparisons below, so the matrix's stay put.
+          [`${rule.role} (not the creator)`, clients.get(rule.role)!, rule.from.includes(state) ? 200 : 409],
+        ];
+        for (const [who, client, want] of callers) {
+          if (want === 200) continue;
+          cells += 1;
+          const response = await client.post(`/api/comparisons/${id}/${rule.path}`, rule.body);
+          if (response.status !== want) failures.push(`${step} on ${state} as ${who}: got ${response.status}, want ${want}`);
+          const body = response.body as { error?: { code: string; message: string } };
+          // A returned comparison is 409 for a different reason: it needs a new run first.
+          const why = step === 'submit' && state === 'returned' ? /run the analysis again/ : /^This comparison is /;
+          if (want === 409 && !why.test(body.error?.message ?? '')) failures.push(`${step} on ${state}: 409 message ${body.error?.message}`);
+          if (want === 403 && who.startsWith('creator') && !body.error?.message.includes('four-eyes')) failures.push(`${step} on ${state}: 403 message ${body.error?.message}`);
+        }
+        if ((await stateOf(id)) !== state) failures.push(`${step} on ${state}: the state changed`);
+      }
+    }
+    expect(failures).toEqual([]);
+    expect(cells).toBeGreaterThan(60);
+  });
+
+  it('the same steps succeed from their own state for someone else holding the role', async () => {
+    await ok(owner.post(`/api/comparisons/${spare.get('submit')!}/submit`, {}));
+    expect(await stateOf(spare.get('submit')!)).toBe('in-review');
+    await ok(clients.get('analyst')!.post(`/api/comparisons/${spare.get('validate')!}/review`, steps.validate.body));
+    expect(await stateOf(spare.get('validate')!)).toBe('validated');
+    await ok(clients.get('analyst')!.post(`/api/comparisons/${spare.get('return')!}/review`, steps.return.body));
+    expect(await stateOf(spare.get('return')!)).toBe('returned');
+    await ok(clients.get('committee')!.post(`/api/comparisons/${spare.get('vote')!}/votes`, steps.vote.body));
+    expect(await stateOf(spare.get('vote')!)).toBe('validated');
+    await ok(clients.get('committee')!.post(`/api/comparisons/${spare.get('decide')!}/decision`, steps.decide.body));
+    expect(await stateOf(spare.get('decide')!)).toBe('decided');
+  });
+
+  it('never tells the creator to review or decide: analysts and committee members other than the creator get the e-mails', async () => {
+    const id = spare.get('return')!;
+    // Returned → a new set-up → analysed → submit (by the creator, who is also an analyst).
+    const detail = (await owner.get(`/api/comparisons/${id}`)).body as { mapping: unknown };
+    await ok(owner.send('put', `/api/comparisons/${id}/setup`, { mapping: detail.mapping, settings: { bootstrap: 0, seed: 3 } }));
+    await waitForRuns(t);
+    const before = await lastOutboxId(t);
+    await ok(owner.post(`/api/comparisons/${id}/submit`, {}));
+    expect((await outboxAfter(t, before)).map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    const validated = await lastOutboxId(t);
+    await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, steps.validate.body));
+    expect((await outboxAfter(t, validated)).map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
+  });
+
+  it('the person who uploaded the holdout cannot review a comparison someone else created on it', async () => {
+    const { client: uploader } = await personWith(t, 'uploader@tallowmere.test', ['modeler', 'analyst']);
+    const upload = await uploadFile(uploader, sample2k(), 'uploaded-by-another.csv');
+    const created = await clients.get('modeler')!.post('/api/comparisons', {
+      name: 'On a colleague’s upload',
+      holdoutId: (upload.body as { id: number }).id,
+      mapping: sampleMapping,
+      settings: { bootstrap: 0 },
+    });
+    expect(created.status).toBe(201);
+    const id = (created.body as { id: number }).id;
+    await waitForRuns(t);
+    await ok(clients.get('modeler')!.post(`/api/comparisons/${id}/submit`, {}));
+    const response = await uploader.post(`/api/comparisons/${id}/review`, steps.validate.body);
+    expect(response.status).toBe(403);
+    expect(await stateOf(id)).toBe('in-review');
+  });
+
+  it('answers 404 for a comparison that does not exist, before any state rule', async () => {
+    const response = await clients.get('analyst')!.post('/api/comparisons/999999/review', steps.validate.body);
+    expect(response.status).toBe(404);
+  });
+});
