@@ -21,8 +21,8 @@ const CHUNK = 1 << 18;
 
 /**
  * Streams the source as UTF-8 text chunks (BOM removed), hashing the bytes on the way.
- * Rejects binary input: bytes that are not UTF-8, NUL characters, or the signature of a ZIP
- * (xlsx) or gzip file.
+ * Rejects binary input: bytes that are not UTF-8 (UTF-16 is named as such), NUL characters, or
+ * the signature of a ZIP (xlsx) or gzip file.
  */
 export async function* textChunks(source: HoldoutSource, info: SourceInfo, onBytes?: (read: number) => void): AsyncGenerator<string> {
   const hash = createHash('sha256');
@@ -38,6 +38,8 @@ export async function* textChunks(source: HoldoutSource, info: SourceInfo, onByt
       if (chunk[0] === 0x1f && chunk[1] === 0x8b) {
         throw new HoldoutInputError('binary_file', 'the file is gzip-compressed, not CSV text: decompress it first');
       }
+      const utf16 = utf16Kind(chunk);
+      if (utf16) throw new HoldoutInputError('not_utf8', `the file is UTF-16 text (${utf16}), not UTF-8: save it as CSV in UTF-8`);
     }
     let text: string;
     try {
@@ -84,6 +86,26 @@ export async function* textChunks(source: HoldoutSource, info: SourceInfo, onByt
   }
   info.bytes = read;
   info.sha256 = hash.digest('hex');
+}
+
+/**
+ * Whether the file's first bytes are UTF-16: a byte-order mark (FF FE little-endian, FE FF
+ * big-endian), or — without one — text whose every other byte is NUL, as ASCII text is in UTF-16.
+ */
+function utf16Kind(chunk: Uint8Array): string | null {
+  if (chunk[0] === 0xff && chunk[1] === 0xfe) return 'little-endian, with a byte-order mark';
+  if (chunk[0] === 0xfe && chunk[1] === 0xff) return 'big-endian, with a byte-order mark';
+  const pairs = Math.min(64, chunk.length >> 1);
+  if (pairs < 4) return null;
+  let evenNul = 0;
+  let oddNul = 0;
+  for (let i = 0; i < pairs; i++) {
+    if (chunk[2 * i] === 0) evenNul++;
+    if (chunk[2 * i + 1] === 0) oddNul++;
+  }
+  if (oddNul === pairs && evenNul === 0) return 'little-endian';
+  if (evenNul === pairs && oddNul === 0) return 'big-endian';
+  return null;
 }
 
 export function sourceInfo(source: HoldoutSource): SourceInfo {

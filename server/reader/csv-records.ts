@@ -10,7 +10,8 @@ import { HoldoutInputError } from './errors';
  *
  * Guards against absurd input with a clear error instead of running out of memory: more than
  * MAX_COLUMNS columns, or a row (a record, quotes included) longer than MAX_ROW_CHARS — which is
- * also what an unclosed quote looks like.
+ * also what an unclosed quote looks like in the middle of a file; at its end, the row where the
+ * quote opened is named.
  */
 
 export const MAX_COLUMNS = 5000;
@@ -79,8 +80,11 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
   };
 
   const take = (input: string, last: boolean) => {
-    const result = parser!.parse(input, 0, !last) as { data: string[][]; meta: { cursor: number } };
-    const rows = result.data;
+    const result = parser!.parse(input, 0, !last) as { data: string[][]; meta: { cursor: number }; errors: { code: string; row: number }[] };
+    let rows = result.data;
+    // At the end of the file, a quote that never closed has swallowed the rest of it as one field:
+    // the rows before it are read as usual, then that row is named.
+    const unclosed = last ? result.errors.find((error) => error.code === 'MissingQuotes') : undefined;
     const consumed = last ? input.length : result.meta.cursor;
     if (!last) {
       const rest = input.length - consumed;
@@ -110,11 +114,21 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
         }
       }
     }
+    let openLine = 0;
+    if (unclosed !== undefined) {
+      openLine = unclosed.row < rows.length ? lines[unclosed.row] : line;
+      rows = rows.slice(0, Math.min(unclosed.row, rows.length));
+    }
+    const openQuote = () =>
+      new HoldoutInputError('unclosed_quote', `row ${openLine}: a quote opened on this row is never closed, so the rest of the file reads as one field`, openLine);
     let offset = 0;
     if (layout!.header.length === 0) {
       // Blank lines before the header are skipped.
       while (offset < rows.length && rows[offset].length === 1 && rows[offset][0].trim() === '') offset++;
-      if (offset === rows.length) return input.substring(consumed);
+      if (offset === rows.length) {
+        if (unclosed !== undefined) throw openQuote();
+        return input.substring(consumed);
+      }
     }
     if (layout!.header.length === 0) {
       const header = rows[offset].map((name) => name.trim());
@@ -130,8 +144,9 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
       if (records > MAX_ROWS) {
         throw new HoldoutInputError('too_many_rows', `the file has more than ${MAX_ROWS.toLocaleString('en-US')} rows`, null);
       }
-      handlers.onRows(offset === 0 ? rows : rows.slice(offset), offset === 0 ? lines : lines.subarray(offset));
+      handlers.onRows(offset === 0 ? rows : rows.slice(offset), offset === 0 ? lines : lines.subarray(offset, rows.length));
     }
+    if (unclosed !== undefined) throw openQuote();
     return input.substring(consumed);
   };
 

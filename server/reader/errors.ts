@@ -12,6 +12,7 @@ export type HoldoutInputCode =
   | 'not_utf8'
   | 'too_many_columns'
   | 'row_too_long'
+  | 'unclosed_quote'
   | 'too_many_rows'
   | 'duplicate_column'
   | 'missing_column'
@@ -42,9 +43,37 @@ export class HoldoutInputError extends Error {
   }
 }
 
+/**
+ * A column name in quotes for a message: `"challenger"`, shortened when long (a header cell can
+ * be megabytes) and with line breaks and other control characters escaped, so a message stays one
+ * line.
+ */
+export function columnName(name: string): string {
+  const short = name.length > 60 ? `${name.slice(0, 57)}…` : name;
+  // eslint-disable-next-line no-control-regex -- escaping control characters is the point
+  return `"${short.replace(/[\u0000-\u001f\u007f\u0085\u2028\u2029]/g, (c) => (c === '\n' ? '\\n' : c === '\r' ? '\\r' : c === '\t' ? '\\t' : `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`))}"`;
+}
+
 /** `row 12, column "x": ` — the prefix every row-level message starts with. */
 export function where(row: number, column?: string): string {
-  return column === undefined ? `row ${row}` : `row ${row}, column "${column}"`;
+  return column === undefined ? `row ${row}` : `row ${row}, column ${columnName(column)}`;
+}
+
+/**
+ * `row 12 has 3 fields, the header has 8`, with the likely cause when the row's fields show it:
+ * a field that holds the file's own line end can only be a quoted field running over several
+ * lines (a quote left open?); in an LF or CR file, one that holds the other kind means the file
+ * mixes line ends.
+ */
+export function raggedRowMessage(row: number, fields: readonly string[], width: number, newline: '\n' | '\r\n' | '\r'): string {
+  const base = `${where(row)} has ${fields.length} field${fields.length === 1 ? '' : 's'}, the header has ${width}`;
+  if (fields.some((field) => field.includes(newline))) return `${base}; a quoted field on it runs over several lines: is a quote left open?`;
+  // (A CRLF file's quoted fields often hold a bare LF, a line break inside a cell: no hint then.)
+  if (newline !== '\r\n' && fields.some((field) => field.includes(newline === '\n' ? '\r' : '\n'))) {
+    const name = { '\n': 'LF', '\r\n': 'CRLF', '\r': 'CR' }[newline];
+    return `${base}; the file mixes line ends (its header ends with ${name}): save it with one kind`;
+  }
+  return base;
 }
 
 /** A cell quoted for a message, shortened when long. */

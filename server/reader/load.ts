@@ -3,7 +3,7 @@ import type { ColumnMapping } from '@shared/report';
 import type { Holdout, SegmentColumn } from '@server/stats/holdout';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
-import { HoldoutInputError, quoteCell, where } from './errors';
+import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
 
 /**
@@ -94,14 +94,14 @@ interface PassResult {
 async function pass(source: HoldoutSource, mapping: ColumnMapping, options: LoadOptions, errorLimit: number | null): Promise<PassResult> {
   const sink = new ErrorSink(errorLimit);
   if (mapping.weight) {
-    throw new HoldoutInputError('unsupported_weight', `column "${mapping.weight}": sampling weights are not supported by this engine version; remove the weight from the mapping`, null, mapping.weight);
+    throw new HoldoutInputError('unsupported_weight', `column ${columnName(mapping.weight)}: sampling weights are not supported by this engine version; remove the weight from the mapping`, null, mapping.weight);
   }
   for (const [role, name] of [
     ['champion', mapping.champion],
     ['challenger', mapping.challenger],
   ] as const) {
     if (name === mapping.outcome) {
-      throw new HoldoutInputError('same_column', `column "${name}" is mapped as both the outcome and the ${role}'s score`, null, name);
+      throw new HoldoutInputError('same_column', `column ${columnName(name)} is mapped as both the outcome and the ${role}'s score`, null, name);
     }
   }
   const info = sourceInfo(source);
@@ -118,6 +118,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   let exposureAt = -1;
   let segmentAt: number[] = [];
   let decimalComma = false;
+  let newline: CsvLayout['newline'] = '\n';
 
   const bad = new Uint32Column();
   const champion = new Float64Column();
@@ -142,16 +143,16 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const resolve = (header: string[], name: string): number => {
     const at = header.indexOf(name);
     if (at === -1) {
-      const shown = header.slice(0, 12).map((column) => `"${column}"`).join(', ');
+      const shown = header.slice(0, 12).map(columnName).join(', ');
       throw new HoldoutInputError(
         'missing_column',
-        `column "${name}" is not in the file (its columns: ${shown}${header.length > 12 ? ', …' : ''})`,
+        `column ${columnName(name)} is not in the file (its columns: ${shown}${header.length > 12 ? ', …' : ''})`,
         1,
         name,
       );
     }
     if (header.indexOf(name, at + 1) !== -1) {
-      throw new HoldoutInputError('duplicate_column', `column "${name}" appears more than once in the header`, 1, name);
+      throw new HoldoutInputError('duplicate_column', `column ${columnName(name)} appears more than once in the header`, 1, name);
     }
     return at;
   };
@@ -206,12 +207,15 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     return false;
   };
 
-  const layout = await readCsv(source, info, {
+  // In validation mode a problem that stops the reader (a row too long, a quote never closed) is
+  // listed after the problems found before it, in file order, like every other.
+  const read = readCsv(source, info, {
     onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
     onHeader(found) {
       const header = found.header;
       width = header.length;
       decimalComma = found.delimiter === ';';
+      newline = found.newline;
       outcomeAt = resolve(header, mapping.outcome);
       championAt = resolve(header, mapping.champion);
       challengerAt = resolve(header, mapping.challenger);
@@ -226,13 +230,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           if (row.length === 1 && row[0].trim() === '') continue; // a blank line
           rowsRead++;
           const line = lines[r];
-          sink.report(
-            new HoldoutInputError(
-              'ragged_row',
-              `${where(line)} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${width}`,
-              line,
-            ),
-          );
+          sink.report(new HoldoutInputError('ragged_row', raggedRowMessage(line, row, width, newline), line));
           if (sink.full) return;
           continue;
         }
@@ -310,6 +308,14 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       }
     },
   });
+  let layout: CsvLayout;
+  try {
+    layout = await read;
+  } catch (error) {
+    if (errorLimit === null || !(error instanceof HoldoutInputError)) throw error;
+    sink.report(error);
+    return { loaded: null, errors: sink.errors };
+  }
 
   const n = champion.length;
   if (sink.errors.length === 0) {
@@ -320,7 +326,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       const hint = bads === 0 ? `; no row has the bad value ${quoteCell(badValue)} (is the bad value right?)` : '';
       throw new HoldoutInputError(
         'single_class',
-        `column "${mapping.outcome}": every row used has ${only}${hint}; a comparison needs both goods and bads`,
+        `column ${columnName(mapping.outcome)}: every row used has ${only}${hint}; a comparison needs both goods and bads`,
         null,
         mapping.outcome,
       );

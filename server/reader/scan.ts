@@ -4,7 +4,7 @@ import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
-import { HoldoutInputError } from './errors';
+import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
 import { INVALID, MISSING, parseNumber } from './values';
 
 /**
@@ -88,6 +88,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
   let sampleRows = 0;
   let sampleLimit = 0;
   let decimalComma = false;
+  let newline: CsvLayout['newline'] = '\n';
   const preview: string[][] = [];
 
   const layout = await readCsv(source, info, {
@@ -95,9 +96,10 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     onHeader(found) {
       header = found.header;
       decimalComma = found.delimiter === ';';
+      newline = found.newline;
       const seen = new Set<string>();
       for (const name of header) {
-        if (seen.has(name)) throw new HoldoutInputError('duplicate_column', `column "${name}" appears more than once in the header`, 1, name);
+        if (seen.has(name)) throw new HoldoutInputError('duplicate_column', `column ${columnName(name)} appears more than once in the header`, 1, name);
         seen.add(name);
       }
       // Keep the sample within about 20 million values whatever the width.
@@ -119,7 +121,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
           // Counted and reported, not fatal: the validation report lists it with the rest.
           rowCount++;
           if (problems.length < MAX_PROBLEMS) {
-            problems.push({ row: lines[r], column: null, message: `row ${lines[r]} has ${row.length} field${row.length === 1 ? '' : 's'}, the header has ${header.length}` });
+            problems.push({ row: lines[r], column: null, message: raggedRowMessage(lines[r], row, header.length, newline) });
           }
           continue;
         }

@@ -37,6 +37,10 @@ export function parseNumber(cell: string, decimalComma: boolean): ParsedNumber {
     if (c0 === 48 && cell.length > 2) {
       const c1 = cell.charCodeAt(1) | 32;
       if (c1 === 120 || c1 === 98 || c1 === 111) return INVALID;
+    } else if (c0 <= 32 || c0 === 0xa0 || c0 === 0xfeff || c0 >= 0x1680) {
+      // Spaces (Number() skips any Unicode space) before a literal such as ' 0x1f'.
+      const trimmed = cell.trim();
+      if (trimmed.length > 2 && trimmed.charCodeAt(0) === 48 && [120, 98, 111].includes(trimmed.charCodeAt(1) | 32)) return INVALID;
     }
     return value;
   }

@@ -220,3 +220,53 @@ describe('validation report', () => {
     expect(report.errors[49].row).toBe(51);
   });
 });
+
+describe('bad input found by the reliability suite (tests/reliability/reader-properties.test.ts)', () => {
+  it('names the row of a quote that is never closed, after reading the rows before it', async () => {
+    const text = 'bad,champion,challenger\n0,600,0.1\n1,"550,0.4\n0,610,0.05\n';
+    expect(await failure(text)).toMatchObject({
+      code: 'unclosed_quote',
+      row: 3,
+      message: 'row 3: a quote opened on this row is never closed, so the rest of the file reads as one field',
+    });
+    // Problems before it come first in the validation report, in file order.
+    const report = await validateHoldout({ bytes: bytes(`bad,champion,challenger\n0,x,0.1\n${text.split('\n').slice(2).join('\n')}`), fileName: 'q.csv' }, mapping);
+    expect(report.errors.map((error) => [error.row, error.column])).toEqual([
+      [2, 'champion'],
+      [3, null],
+    ]);
+  });
+
+  it('keeps the problems found before one that stops the reader (a row over the limit)', async () => {
+    const text = `bad,champion,challenger\n0,abc,0.1\n1,550,0.4\n0,600,"${'x'.repeat(MAX_ROW_CHARS + 10)}\n1,1,1\n`;
+    const report = await validateHoldout({ bytes: bytes(text), fileName: 'long.csv' }, mapping);
+    expect(report.errors.map((error) => error.row)).toEqual([2, 4]);
+    expect(report.errors[0].message).toBe((await failure(text)).message);
+  });
+
+  it('explains a ragged row: a quoted field over several lines, or mixed line ends', async () => {
+    const open = 'bad,champion,challenger\n0,600,0.1\n1,"550\n0",610,0.05\n"x"\n';
+    expect((await failure(open)).message).toBe('row 3 has 4 fields, the header has 3; a quoted field on it runs over several lines: is a quote left open?');
+    const mixed = 'bad,champion,challenger\r0,600,0.1\n1,550,0.4\r';
+    expect((await failure(mixed)).message).toBe('row 2 has 5 fields, the header has 3; the file mixes line ends (its header ends with CR): save it with one kind');
+  });
+
+  it('names UTF-16, with or without a byte-order mark', async () => {
+    const utf16 = Buffer.from(basic, 'utf16le');
+    expect((await failure(Uint8Array.from([0xff, 0xfe, ...utf16]))).message).toBe('the file is UTF-16 text (little-endian, with a byte-order mark), not UTF-8: save it as CSV in UTF-8');
+    expect((await failure(Uint8Array.from([0xfe, 0xff, ...Buffer.from(utf16).swap16()]))).message).toContain('UTF-16 text (big-endian, with a byte-order mark)');
+    expect((await failure(Uint8Array.from(utf16))).message).toContain('UTF-16 text (little-endian)');
+  });
+
+  it('reads a hexadecimal literal after spaces as text, not a number', async () => {
+    expect(await failure('bad,champion,challenger\n0, 0x1f,0.1\n1,550,0.4\n')).toMatchObject({ code: 'not_a_number', row: 2, column: 'champion' });
+  });
+
+  it('keeps a message on one line and short, whatever the column names hold', async () => {
+    const header = `"a\nb",${'w'.repeat(5000)},champion,challenger\n1,2,3,4\n`;
+    const error = await failure(header);
+    expect(error.code).toBe('missing_column');
+    expect(error.message).not.toMatch(/[\r\n]/);
+    expect(error.message).toBe(`column "bad" is not in the file (its columns: "a\\nb", "${'w'.repeat(57)}…", "champion", "challenger")`);
+  });
+});
