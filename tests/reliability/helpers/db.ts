@@ -27,6 +27,8 @@ export interface Inspection {
   comparisonsWithoutAudit: number[];
   /** Runs by status. */
   runs: Record<string, number>;
+  /** Runs missing one of their input columns (bad, champion, challenger). */
+  runsWithoutColumns: number[];
 }
 
 export function inspect(databasePath: string): Inspection {
@@ -57,8 +59,17 @@ export function inspect(databasePath: string): Inspection {
       ).map((row) => row.id);
     const runs: Record<string, number> = {};
     for (const row of db.prepare('SELECT "status", COUNT(*) AS n FROM "analysis_runs" GROUP BY "status"').all() as { status: string; n: number }[]) runs[row.status] = row.n;
+    const runsWithoutColumns = (
+      db
+        .prepare(
+          `SELECT r."id" AS id FROM "analysis_runs" r WHERE r."status" != 'failed' AND
+           (SELECT COUNT(*) FROM "run_columns" c WHERE c."runId" = r."id" AND c."name" IN ('bad', 'champion', 'challenger')) != 3`,
+        )
+        .all() as { id: number }[]
+    ).map((row) => row.id);
     return {
       integrity,
+      runsWithoutColumns,
       foreignKeyProblems,
       counts,
       orphanChunks,
@@ -80,6 +91,7 @@ export function invariantProblems(found: Inspection): string[] {
   if (found.orphanChunks > 0) problems.push(`${found.orphanChunks} holdout chunks without their holdout`);
   if (found.incompleteHoldouts.length > 0) problems.push(`holdouts stored in part: ${found.incompleteHoldouts.join(', ')}`);
   if (found.holdoutsWithoutAudit.length > 0) problems.push(`holdouts without their audit event: ${found.holdoutsWithoutAudit.join(', ')}`);
+  if (found.runsWithoutColumns.length > 0) problems.push(`runs without their input columns: ${found.runsWithoutColumns.join(', ')}`);
   if (found.comparisonsWithoutAudit.length > 0) problems.push(`comparisons without their audit event: ${found.comparisonsWithoutAudit.join(', ')}`);
   return problems;
 }
