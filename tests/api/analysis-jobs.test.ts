@@ -154,6 +154,51 @@ describe('workers that die', () => {
     expect((await modeler.get('/api/health')).body).toEqual({ ok: true });
   });
 
+  it('retries a run whose worker dies in the middle of the analysis, and keeps serving meanwhile', async () => {
+    const faulty = runner({ workerPath: 'tests/api/helpers/workers/die-mid-analysis-once-worker' });
+    const served: number[] = [];
+    const id = await withQueue(faulty, async () => {
+      await faulty.start();
+      const response = await modeler.post('/api/comparisons', { name: 'Dies mid-analysis once', holdoutId, mapping: sampleMapping, settings: { bootstrap: 2000, seed: 9 } });
+      expect(response.status).toBe(201);
+      faulty.kick();
+      const idle = faulty.whenIdle();
+      let finished = false;
+      void idle.finally(() => (finished = true));
+      while (!finished) {
+        served.push((await modeler.get('/api/health')).status, (await modeler.get(`/api/comparisons/${response.body.id}`)).status);
+        await new Promise((resolve) => setTimeout(resolve, 20));
+      }
+      await idle;
+      return response.body.id as number;
+    });
+    const shown = await detail(id);
+    expect(shown.state).toBe('analysed');
+    expect(shown.runs[0]).toMatchObject({ status: 'done', attempts: 2, error: null });
+    const trail = await actions(id);
+    expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.retried', 'analysis.done', 'comparison.analysed', 'verdict.recorded']);
+    expect(trail[1].details).toMatchObject({ attempt: 1, reason: 'the analysis worker stopped without a result (exit code 5)' });
+    expect(served.length).toBeGreaterThan(2);
+    expect(new Set(served)).toEqual(new Set([200]));
+  });
+
+  it('fails a run whose worker dies in the middle of both attempts, with the reason', async () => {
+    const faulty = runner({ workerPath: 'tests/api/helpers/workers/die-mid-analysis-always-worker' });
+    const id = await withQueue(faulty, async () => {
+      await faulty.start();
+      const response = await modeler.post('/api/comparisons', { name: 'Dies mid-analysis always', holdoutId, mapping: sampleMapping, settings: { bootstrap: 2000, seed: 9 } });
+      faulty.kick();
+      await faulty.whenIdle();
+      return response.body.id as number;
+    });
+    const shown = await detail(id);
+    expect(shown.state).toBe('draft');
+    expect(shown.runs[0]).toMatchObject({ status: 'failed', attempts: 2 });
+    expect(shown.runs[0].error).toBe('The analysis failed on each of its 2 attempts; the last time the analysis worker stopped without a result (exit code 6).');
+    expect((await actions(id)).map((event) => event.action)).toEqual(['comparison.created', 'analysis.retried', 'analysis.failed']);
+    expect((await modeler.get(`/api/comparisons/${id}/report`)).status).toBe(409);
+  });
+
   it('fails a run whose worker runs out of memory, naming it', async () => {
     const faulty = runner({ workerPath: 'tests/api/helpers/workers/out-of-memory-worker', resourceLimits: { maxOldGenerationSizeMb: 48, maxYoungGenerationSizeMb: 8 } });
     const id = await withQueue(faulty, async () => {
