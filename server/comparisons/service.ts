@@ -45,8 +45,22 @@ export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
   return normal;
 }
 
+/**
+ * Comparisons with their creator and holdout — the holdout without what only its own page shows
+ * (columns, preview, mapping guess: JSON that would be parsed on every request for nothing).
+ */
+function comparisonsWithRelations(source: DataSource | EntityManager) {
+  return source
+    .getRepository(Comparison)
+    .createQueryBuilder('comparison')
+    .leftJoinAndSelect('comparison.createdBy', 'createdBy')
+    .leftJoin('comparison.holdout', 'holdout')
+    .addSelect(holdoutSummaryColumns.map((column) => `holdout.${column}`));
+}
+const holdoutSummaryColumns = ['id', 'fileName', 'sha256', 'bytes', 'rowCount', 'delimiter', 'chunkSize', 'chunkCount', 'uploadedById', 'uploadedAt'] as const;
+
 export async function findComparison(source: DataSource | EntityManager, id: number): Promise<Comparison> {
-  const comparison = await source.getRepository(Comparison).findOne({ where: { id }, relations: { createdBy: true, holdout: true } });
+  const comparison = await comparisonsWithRelations(source).where('comparison.id = :id', { id }).getOne();
   if (!comparison) throw notFound(`There is no comparison ${id}.`);
   return comparison;
 }
@@ -209,7 +223,12 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
 
 export async function getComparisonDetail(source: DataSource | EntityManager, id: number): Promise<ComparisonDetail> {
   const comparison = await findComparison(source, id);
-  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId: id }, order: { id: 'DESC' } });
+  // What the detail shows of each run (presentRun, and the current run's headline).
+  const runs = await source.getRepository(AnalysisRun).find({
+    where: { comparisonId: id },
+    order: { id: 'DESC' },
+    select: { id: true, comparisonId: true, status: true, progress: true, stage: true, attempts: true, error: true, engineVersion: true, queuedAt: true, startedAt: true, finishedAt: true, headline: true },
+  });
   return presentDetail(comparison, runs);
 }
 
@@ -245,13 +264,20 @@ export async function listComparisons(source: DataSource, query: ListComparisons
   const ids = page.map((row) => row.id);
   if (ids.length === 0) return { items: [], total, page: query.page, pageSize: query.pageSize };
 
-  const comparisons = await source.getRepository(Comparison).find({ where: { id: In(ids) }, relations: { createdBy: true, holdout: true } });
+  const comparisons = await comparisonsWithRelations(source).where('comparison.id IN (:...ids)', { ids }).getMany();
   const runIds = (await source.query(
     `SELECT MAX("id") AS "id" FROM "analysis_runs" WHERE "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId" ` +
       `UNION SELECT MAX("id") FROM "analysis_runs" WHERE "status" = 'done' AND "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId"`,
     [...ids, ...ids],
   )) as { id: number }[];
-  const runs = runIds.length > 0 ? await source.getRepository(AnalysisRun).find({ where: { id: In(runIds.map((row) => row.id)) } }) : [];
+  // Only what the list shows of each run (not its mapping, settings and input).
+  const runs =
+    runIds.length > 0
+      ? await source.getRepository(AnalysisRun).find({
+          where: { id: In(runIds.map((row) => row.id)) },
+          select: { id: true, comparisonId: true, status: true, progress: true, stage: true, headline: true },
+        })
+      : [];
   const byId = new Map(comparisons.map((comparison) => [comparison.id, comparison]));
   const items = ids.map((id) => {
     const mine = runs.filter((run) => run.comparisonId === id).sort((a, b) => b.id - a.id);
@@ -260,9 +286,20 @@ export async function listComparisons(source: DataSource, query: ListComparisons
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
 
-/** The current run's report as the stored JSON text (409 while no run is done). */
-export async function currentReportJson(source: DataSource | EntityManager, comparisonId: number): Promise<{ run: AnalysisRun; json: string }> {
-  const run = await requireCurrentRun(source, comparisonId, true);
-  if (run.report === null) throw new Error(`analysis run ${run.id} is done but has no report`);
-  return { run, json: run.report };
+/**
+ * The current run's report as the stored JSON text (404 without the comparison, 409 while no run
+ * is done). One plain query in the usual case: a done run implies its comparison exists, and the
+ * text is sent as it is stored, without building the run's entity.
+ */
+export async function currentReportJson(source: DataSource | EntityManager, comparisonId: number): Promise<{ runId: number; json: string }> {
+  const [row] = (await source.query(
+    `SELECT "id", "report" FROM "analysis_runs" WHERE "comparisonId" = ? AND "status" = 'done' ORDER BY "id" DESC LIMIT 1`,
+    [comparisonId],
+  )) as { id: number; report: string | null }[];
+  if (!row) {
+    await requireCurrentRun(source, comparisonId); // throws the 404 or the 409 that says why
+    throw new Error(`comparison ${comparisonId}: no done run, yet requireCurrentRun found one`);
+  }
+  if (row.report === null) throw new Error(`analysis run ${row.id} is done but has no report`);
+  return { runId: row.id, json: row.report };
 }

@@ -11,12 +11,14 @@ import { writeBenchHoldout } from '../../../bench/holdout';
  */
 const dataDir = join(tmpdir(), 'scorecourt-bench');
 
-export async function benchHoldout(rows: number): Promise<string> {
-  const file = join(dataDir, `holdout-${rows}-points.csv`);
+/** The file of `rows` accounts; `variant` > 0 gives other accounts of the same kind (another seed). */
+export async function benchHoldout(rows: number, variant = 0): Promise<string> {
+  const name = variant === 0 ? `holdout-${rows}-points` : `holdout-${rows}-points-v${variant}`;
+  const file = join(dataDir, `${name}.csv`);
   if (!existsSync(file)) {
     mkdirSync(dataDir, { recursive: true });
     const partial = `${file}.${process.pid}.part`;
-    await writeBenchHoldout(partial, { rows, seed: `bench-${rows}-points`, scores: 'points' });
+    await writeBenchHoldout(partial, { rows, seed: variant === 0 ? `bench-${rows}-points` : `bench-${rows}-points-v${variant}`, scores: 'points' });
     renameSync(partial, file);
   }
   return file;

@@ -31,6 +31,8 @@ export interface CompiledServer {
 
 export interface StartOptions {
   env?: Record<string, string>;
+  /** Flags for node itself, before the entry point (e.g. --cpu-prof). */
+  nodeArgs?: string[];
   dir?: string;
   timeoutMs?: number;
 }
@@ -73,7 +75,7 @@ export async function startCompiled(options: StartOptions = {}): Promise<Compile
 
   const launch = async () => {
     log += `\n--- start (pid pending) ---\n`;
-    child = spawn(process.execPath, [entry], { cwd: projectRoot, env: baseEnv(port, databasePath, env), stdio: ['ignore', 'pipe', 'pipe'] });
+    child = spawn(process.execPath, [...(options.nodeArgs ?? []), entry], { cwd: projectRoot, env: baseEnv(port, databasePath, env), stdio: ['ignore', 'pipe', 'pipe'] });
     child.stdout?.on('data', (chunk: Buffer) => (log += chunk.toString()));
     child.stderr?.on('data', (chunk: Buffer) => (log += chunk.toString()));
     const deadline = Date.now() + (options.timeoutMs ?? 30_000);
