@@ -43,6 +43,10 @@ function fromLibrary(err: unknown): AppError | null {
     if (e.code === 'LIMIT_FILE_SIZE') return new AppError(errorCodes.tooLarge, 'The file is larger than the upload limit.', 413);
     return new AppError(errorCodes.badInput, `The upload was refused (${String(e.code)}).`, 400);
   }
+  // the router, when a path parameter's percent-encoding is malformed (`/comparisons/%E0%A4%A`)
+  if (err instanceof URIError && e.status === 400) {
+    return new AppError(errorCodes.badInput, 'The address holds a malformed percent-encoding (a "%" not followed by two hexadecimal digits of UTF-8).', 400);
+  }
   // http-errors with a client status and a message meant for the client
   if (typeof e.status === 'number' && e.status >= 400 && e.status < 500 && e.expose === true && typeof e.message === 'string') {
     return new AppError(errorCodes.badInput, e.message, e.status);
@@ -72,5 +76,7 @@ export function errorMiddleware(log: Logger): ErrorRequestHandler {
 
 /** Unknown /api routes answer JSON, never the client's HTML. */
 export const apiNotFound: RequestHandler = (req, _res, next) => {
-  next(notFound(`There is no API route ${req.method} ${req.originalUrl.split('?')[0]}.`));
+  const path = req.originalUrl.split('?')[0];
+  // The path is the client's: shown shortened, so a long address does not come back whole.
+  next(notFound(`There is no API route ${req.method} ${path.length > 120 ? `${path.slice(0, 117)}…` : path}.`));
 };

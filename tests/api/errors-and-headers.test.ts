@@ -32,6 +32,22 @@ describe('error shape', () => {
     expect(post.headers['content-type']).toMatch(/application\/json/);
   });
 
+  it('answers a malformed percent-encoding in a path parameter with 400, not 500', async () => {
+    const client = await signedInAs(t.app, 'analyst');
+    for (const path of ['/api/comparisons/%E0%A4%A', '/api/comparisons/%', '/api/auth/tokens/%ZZ']) {
+      const response = await client.get(path);
+      expect(response.status, path).toBe(400);
+      expect(apiErrorSchema.parse(response.body).error.code).toBe(errorCodes.badInput);
+      expect(response.body.error.message).toMatch(/malformed percent-encoding/);
+    }
+  });
+
+  it('shortens a long unknown path in its 404 message', async () => {
+    const response = await request(t.app).get(`/api/${'a'.repeat(5000)}`).expect(404);
+    expect(response.body.error.message.length).toBeLessThan(200);
+    expect(response.body.error.message).toMatch(/^There is no API route GET \/api\/a+…\.$/);
+  });
+
   it('answers a malformed JSON body with 400 bad_input', async () => {
     const client = new TestClient(t.app);
     const token = await client.fetchCsrf();
