@@ -11,6 +11,12 @@ import type { Logger } from '../log';
  */
 export class SqliteSessionStore extends session.Store {
   private readonly timer: NodeJS.Timeout;
+  /**
+   * The expiry each session has in its row, as last read or written here (this process is the
+   * only writer), so that a rolling touch — every request — is written only when it would move
+   * the expiry by more than a minute, without a write statement to find that out.
+   */
+  private readonly storedExpiry = new Map<string, number>();
 
   constructor(
     private readonly dataSource: DataSource,
@@ -39,15 +45,25 @@ export class SqliteSessionStore extends session.Store {
     return typeof user === 'number' ? user : null;
   }
 
+  private remember(sid: string, expiresAt: number): void {
+    if (this.storedExpiry.size >= 50_000) this.storedExpiry.clear();
+    this.storedExpiry.set(sid, expiresAt);
+  }
+
   override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
-    this.repository
-      .findOneBy({ sid })
-      .then((row) => {
-        if (!row) return callback(null, null);
-        if (row.expiresAt.getTime() <= Date.now()) {
+    // A plain query: this runs on every request, and the row needs no entity.
+    (this.dataSource.query('SELECT "data", "expiresAt" FROM "sessions" WHERE "sid" = ?', [sid]) as Promise<{ data: string; expiresAt: string }[]>)
+      .then(([row]) => {
+        if (!row) {
+          this.storedExpiry.delete(sid);
+          return callback(null, null);
+        }
+        const expiresAt = storedDate(row.expiresAt);
+        if (!(expiresAt > Date.now())) {
           this.destroy(sid);
           return callback(null, null);
         }
+        this.remember(sid, expiresAt);
         callback(null, JSON.parse(row.data) as session.SessionData);
       })
       .catch((error: unknown) => callback(error));
@@ -56,7 +72,10 @@ export class SqliteSessionStore extends session.Store {
   override set(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
     const row = { sid, data: JSON.stringify(data), expiresAt: this.expiry(data), userId: SqliteSessionStore.userIdOf(data) };
     withWriteLock(this.dataSource, () => this.repository.upsert(row, ['sid']))
-      .then(() => callback?.())
+      .then(() => {
+        this.remember(sid, row.expiresAt.getTime());
+        callback?.();
+      })
       .catch((error: unknown) => callback?.(error));
   }
 
@@ -66,19 +85,29 @@ export class SqliteSessionStore extends session.Store {
    */
   override touch(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
     const expiresAt = this.expiry(data);
+    const known = this.storedExpiry.get(sid);
+    if (known !== undefined && expiresAt.getTime() - known < 60_000) {
+      callback?.();
+      return;
+    }
     const staleBefore = new Date(expiresAt.getTime() - 60_000);
     withWriteLock(this.dataSource, () => this.repository.update({ sid, expiresAt: LessThan(staleBefore) }, { expiresAt }))
-      .then(() => callback?.())
+      .then((result) => {
+        if (result.affected) this.remember(sid, expiresAt.getTime());
+        callback?.();
+      })
       .catch((error: unknown) => callback?.(error));
   }
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
+    this.storedExpiry.delete(sid);
     withWriteLock(this.dataSource, () => this.repository.delete({ sid }))
       .then(() => callback?.())
       .catch((error: unknown) => callback?.(error));
   }
 
   override clear(callback?: (err?: unknown) => void): void {
+    this.storedExpiry.clear();
     withWriteLock(this.dataSource, () => this.repository.clear())
       .then(() => callback?.())
       .catch((error: unknown) => callback?.(error));
@@ -100,4 +129,11 @@ export class SqliteSessionStore extends session.Store {
   close(): void {
     clearInterval(this.timer);
   }
+}
+
+/** A datetime as TypeORM stores it in SQLite (`2026-12-01 20:37:32.123`, UTC) → milliseconds. */
+function storedDate(value: string | Date): number {
+  if (value instanceof Date) return value.getTime();
+  const iso = /^\d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2}(\.\d+)?$/.test(value) ? `${value.replace(' ', 'T')}Z` : value;
+  return Date.parse(iso);
 }

@@ -75,7 +75,10 @@ export function comparisonRoutes(ctx: AppContext): RouteDefinition[] {
       summary: "The current run's report (the CLI's JSON); 409 while no run is done",
       validate: { params: idParams },
       handler: async (req, res) => {
-        const { json } = await currentReportJson(ctx.dataSource, req.params.id);
+        const { runId, json } = await currentReportJson(ctx.dataSource, req.params.id);
+        // A run's report never changes once stored: its id is its version (and Express need not
+        // hash the whole report on every request to make an ETag).
+        res.setHeader('ETag', `W/"report-${runId}"`);
         res.type('application/json').send(json);
       },
     }),

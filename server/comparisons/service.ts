@@ -264,7 +264,17 @@ export async function listComparisons(source: DataSource, query: ListComparisons
   const ids = page.map((row) => row.id);
   if (ids.length === 0) return { items: [], total, page: query.page, pageSize: query.pageSize };
 
-  const comparisons = await comparisonsWithRelations(source).where('comparison.id IN (:...ids)', { ids }).getMany();
+  // Only what the list shows (presentSummary): no mapping, settings, roles or password hash to parse.
+  const comparisons = await source
+    .getRepository(Comparison)
+    .createQueryBuilder('comparison')
+    .select(['comparison.id', 'comparison.name', 'comparison.state', 'comparison.createdAt', 'comparison.updatedAt', 'comparison.createdById', 'comparison.holdoutId'])
+    .leftJoin('comparison.createdBy', 'createdBy')
+    .addSelect(['createdBy.id', 'createdBy.name'])
+    .leftJoin('comparison.holdout', 'holdout')
+    .addSelect(['holdout.id', 'holdout.fileName', 'holdout.rowCount'])
+    .where('comparison.id IN (:...ids)', { ids })
+    .getMany();
   const runIds = (await source.query(
     `SELECT MAX("id") AS "id" FROM "analysis_runs" WHERE "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId" ` +
       `UNION SELECT MAX("id") FROM "analysis_runs" WHERE "status" = 'done' AND "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId"`,

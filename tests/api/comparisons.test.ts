@@ -69,7 +69,11 @@ describe('creating a comparison', () => {
     // The settings as stored: the defaults of shared/report.ts analysisSettingsSchema filled in.
     expect(done.settings).toEqual({ bootstrap: 100, seed: 3, confidence: 0.95, approvalRate: 0.7, cutoffs: null, dropMissing: false, bands: 10, economics: null });
 
-    const report = reportSchema.parse((await modeler.get(`/api/comparisons/${id}/report`).expect(200)).body);
+    const reportResponse = await modeler.get(`/api/comparisons/${id}/report`).expect(200);
+    const report = reportSchema.parse(reportResponse.body);
+    // The stored report never changes: its run id is its ETag, and a client holding it gets a 304.
+    expect(reportResponse.headers.etag).toBe(`W/"report-${done.runs[0].id}"`);
+    await modeler.get(`/api/comparisons/${id}/report`).set('If-None-Match', reportResponse.headers.etag).expect(304);
     expect(report.input).toEqual({ fileName: 'sample-2k.csv', sha256: done.holdout.sha256, bytes: done.holdout.bytes });
     expect(report.rows).toBe(2000);
     expect(report.bootstrap.replicates).toBe(100);

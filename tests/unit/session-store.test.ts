@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { SessionData } from 'express-session';
 import type { DataSource } from 'typeorm';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { SqliteSessionStore } from '@server/auth/session-store';
 import { openDatabase } from '@server/db/data-source';
 import { Session, User } from '@server/db/entities/index';
@@ -49,6 +49,27 @@ describe('SQLite session store', () => {
 
     await call((cb) => store.destroy('s1', cb));
     expect(await call((cb) => store.get('s1', cb))).toBeNull();
+  });
+
+  it('touches a session read a moment ago without any write (rolling sessions touch on every request)', async () => {
+    const later = new Date(Date.now() + 60_000);
+    await call((cb) => store.set('s2', sessionFor(later, 1), cb));
+    await call((cb) => store.get('s2', cb));
+    const update = vi.spyOn(dataSource.getRepository(Session), 'update');
+    try {
+      for (let i = 0; i < 5; i++) await call((cb) => store.touch('s2', sessionFor(new Date(later.getTime() + i * 1000), 1), cb));
+      expect(update).not.toHaveBeenCalled();
+      // More than a minute on, it is written, once.
+      await call((cb) => store.touch('s2', sessionFor(new Date(later.getTime() + 90_000), 1), cb));
+      await call((cb) => store.touch('s2', sessionFor(new Date(later.getTime() + 91_000), 1), cb));
+      expect(update).toHaveBeenCalledTimes(1);
+    } finally {
+      update.mockRestore();
+    }
+    expect((await dataSource.getRepository(Session).findOneByOrFail({ sid: 's2' })).expiresAt.getTime()).toBe(later.getTime() + 90_000);
+    // A session removed behind the store's back (a deactivation) is not found again.
+    await dataSource.getRepository(Session).delete({ sid: 's2' });
+    expect(await call((cb) => store.get('s2', cb))).toBeNull();
   });
 
   it('ignores and prunes expired sessions', async () => {
