@@ -17,7 +17,7 @@ import { record } from './helpers/figures';
  */
 
 const cli = join(projectRoot, 'dist/server/cli/compare.js');
-const RUNS = Number(process.env.RELIABILITY_CLI_RUNS ?? 30);
+const RUNS = Number(process.env.RELIABILITY_CLI_RUNS ?? 40);
 let dir: string;
 
 beforeAll(() => {

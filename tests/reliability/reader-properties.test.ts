@@ -19,7 +19,7 @@ import { record } from './helpers/figures';
  * engine's own clear error.
  */
 
-const RUNS = Number(process.env.RELIABILITY_READER_RUNS ?? 300);
+const RUNS = Number(process.env.RELIABILITY_READER_RUNS ?? 500);
 /** Per step; the slowest honest case (a 9 MB field) takes well under a second. */
 const STEP_MS = 10_000;
 

@@ -212,7 +212,7 @@ describe('sessions, sign-in limit and one-time links on the running server', () 
   it('answers a file over UPLOAD_LIMIT_MB with 413 and removes what it had received', async () => {
     const session = await new Session(server.url).signIn('modeler@tallowmere.test');
     const before = inspect(server.databasePath).counts;
-    const big = Buffer.from(validHoldout(400).repeat(60)); // about 2.5 MB, over the 1 MB limit
+    const big = Buffer.from(validHoldout(400).repeat(60)); // about 1.3 MB, over the 1 MB limit
     const response = await session.upload(big);
     expect(response.status).toBe(413);
     expect(response.body).toMatchObject({ error: { code: 'payload_too_large', message: 'The file is larger than the upload limit.' } });

@@ -19,7 +19,7 @@ import { type CompiledServer, startCompiled } from './helpers/server';
  * failed with a reason. The database passes PRAGMA integrity_check afterwards.
  */
 
-const RUNS = Number(process.env.RELIABILITY_UPLOAD_RUNS ?? 60);
+const RUNS = Number(process.env.RELIABILITY_UPLOAD_RUNS ?? 100);
 const CHUNK = 4 * 1024 * 1024;
 let server: CompiledServer;
 let modeler: ApiSession;
