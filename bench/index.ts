@@ -184,15 +184,18 @@ function compareCommand(scores: Scores): StageResult {
   const higherIs = scores === 'points' ? 'safer' : 'riskier';
   const args = [cli, fileFor(scores, ROWS), '--bootstrap', '0', '--higher-is', higherIs, '--json'];
   const runsMs: number[] = [];
+  const cpuMs: number[] = [];
   let peak = 0;
   for (let r = 0; r < 3; r++) {
     const start = performance.now();
-    const result = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
+    const result = spawnSync('/usr/bin/time', ['-f', '%M %U %S', process.execPath, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
     runsMs.push(performance.now() - start);
     if (result.status !== 0) throw new Error(`compare failed: ${result.stderr}`);
-    peak = Math.max(peak, Number(result.stderr.trim().split('\n').at(-1)) / 1024);
+    const [rss, user, system] = (result.stderr.trim().split('\n').at(-1) ?? '').split(' ').map(Number);
+    peak = Math.max(peak, rss / 1024);
+    cpuMs.push((user + system) * 1000);
   }
-  return { stage: `whole compare command, no bootstrap (${scores}, node dist/server/cli/compare.js)`, runsMs, peakRssMb: peak };
+  return { stage: `whole compare command, no bootstrap (${scores}, node dist/server/cli/compare.js)`, runsMs, cpuMs, peakRssMb: peak };
 }
 
 function proc(scores: Scores): StageResult | null {
