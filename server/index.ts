@@ -2,6 +2,7 @@ import type { Server } from 'node:http';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
+import { WalCheckpointer } from './db/checkpointer';
 import { storedSessionSecret } from './db/settings';
 import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
 import { JobRunner } from './jobs/runner';
@@ -33,6 +34,9 @@ async function main(): Promise<void> {
   const log = createLogger(config.logLevel);
 
   const dataSource = await openDatabase(config.databasePath);
+  // WAL checkpoints on their own thread, not after a large commit on this one.
+  const checkpointer = new WalCheckpointer(dataSource, config.databasePath, log);
+  await checkpointer.start();
   const seeded = config.isProduction ? null : await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
   const sessionSecret = config.sessionSecret ?? (await storedSessionSecret(dataSource));
 
@@ -97,6 +101,7 @@ async function main(): Promise<void> {
         await jobs.stop();
         await mailer.stop();
         await mail.sink?.close();
+        await checkpointer.stop();
         await dataSource.destroy();
       })().then(
         () => process.exit(0),

@@ -3,7 +3,6 @@ import type { Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { AnalysisRun, Comparison, User } from '../db/entities/index';
-import { encodeOrder, orderColumn } from '../holdouts/columns';
 import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
 import { analysisFinishedMail } from './mail';
@@ -11,7 +10,7 @@ import { transition } from './state';
 
 /**
  * The one place where a finished analysis run is handled, on the main thread, inside one
- * transaction: the run's result (report, headline, sort orders) or its error, the comparison's
+ * transaction: the run's result (report, headline) or its error, the comparison's
  * state change (draft → analysed when the newest run of a draft comparison is done; a failed run
  * leaves it draft), the audit event, and the e-mail to the comparison's creator.
  *
@@ -26,7 +25,6 @@ export type RunOutcome =
       engineVersion: string;
       headline: ComparisonHeadline;
       verdict: Verdict;
-      orders: { champion: Uint32Array; challenger: Uint32Array };
     }
   | { status: 'failed'; error: string };
 
@@ -53,13 +51,6 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
         finishedAt,
       },
     );
-    for (const model of ['champion', 'challenger'] as const) {
-      await manager.query('INSERT OR REPLACE INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [
-        runId,
-        orderColumn(model),
-        encodeOrder(outcome.orders[model]),
-      ]);
-    }
   } else {
     await manager.update(AnalysisRun, { id: runId }, { status: 'failed', stage: 'Failed', error: outcome.error, finishedAt });
   }
