@@ -226,9 +226,10 @@ export function summary(report: Report): string {
   if (report.segments.length > 0) {
     lines.push('');
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
+    const labelWidth = Math.max(30, ...report.segments.map((row) => `${row.column} = ${row.value}`.length + 2));
     for (const row of report.segments) {
       const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
-      lines.push(`  ${pad(`${row.column} = ${row.value}`, 30)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 28)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
+      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
   if (report.dataQuality.warnings.length > 0) {

@@ -37,6 +37,7 @@ describe('uploading a holdout', () => {
       'application_month',
       'product',
       'channel',
+      'product_channel',
       'loan_amount',
       'bad_12m',
       'champion_points',
@@ -45,7 +46,7 @@ describe('uploading a holdout', () => {
     expect(holdout.columns.find((column) => column.name === 'channel')).toMatchObject({ kind: 'categorical', distinct: 3 });
     expect(holdout.preview).toHaveLength(20);
     // The first data line of the file, as text.
-    expect(holdout.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', '3900', '0', '622', '643']);
+    expect(holdout.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', 'credit-card/branch', '3900', '0', '622', '643']);
     expect(holdout.guess).toMatchObject({
       outcome: 'bad_12m',
       badValue: '1',
@@ -165,7 +166,7 @@ describe('validating a mapping', () => {
       [151, 'champion_points'],
     ]);
     for (const error of report.errors) expect(error.message).toMatch(new RegExp(`^row ${error.row}`));
-    expect(report.errors[2].message).toBe('row 102 has 6 fields, the header has 8');
+    expect(report.errors[2].message).toBe('row 102 has 7 fields, the header has 9');
   });
 
   it('summarises a good mapping: rows, goods, bads, bad rate', async () => {
