@@ -1,4 +1,5 @@
 import type { Server } from 'node:http';
+import { comparisonStateLabels } from '@shared/comparisons';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
@@ -96,7 +97,7 @@ async function main(): Promise<void> {
   if (!config.isProduction) {
     const demo = await presentDemoPeople(dataSource);
     if (seeded?.seeded) {
-      const comparisons = seeded.comparisons.map((comparison) => `"${comparison.name}" (${comparison.state})`);
+      const comparisons = seeded.comparisons.map((comparison) => `${comparisonStateLabels[comparison.state].padEnd(10)} ${comparison.name}`);
       lines.push('', `The database was empty: added ${seeded.people.length} demo people${comparisons.length > 0 ? ` and ${comparisons.length} comparisons:` : '.'}`);
       for (const comparison of comparisons) lines.push(`  ${comparison}`);
     }
