@@ -15,9 +15,10 @@ import { CHUNK_BYTES, storeHoldoutFile } from './storage';
 
 /**
  * Holdouts: an upload is scanned by the engine's reader on a worker thread (columns, row count,
- * preview, a mapping guess, SHA-256), then stored — the holdout row, the file's bytes in chunks and the audit event
- * in one transaction, so a rejected or failed upload leaves nothing behind. A mapping is applied
- * later by reading the stored bytes again (validate, and set-up of a comparison), also on a worker.
+ * preview, a mapping guess, SHA-256), then stored — the holdout row, the file's bytes in chunks
+ * and the audit event in one transaction, so a rejected or failed upload leaves nothing behind. A
+ * mapping is applied later by reading the stored bytes again (validation, and the set-up of a
+ * comparison), also on a worker.
  */
 
 export interface UploadedFile {

@@ -17,7 +17,7 @@ export interface SourceInfo {
   sha256: string;
 }
 
-const CHUNK = 1 << 20;
+const CHUNK = 1 << 18;
 
 /**
  * Streams the source as UTF-8 text chunks (BOM removed), hashing the bytes on the way.
