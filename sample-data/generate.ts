@@ -164,7 +164,7 @@ function pdCsv(accounts: Account[]): string {
  */
 function brokenCsv(accounts: Account[]): string {
   const rows = holdoutCsv(accounts.slice(0, 200)).split('\n');
-  rows[12] = rows[12].replace(/,(\d+)$/, ',n/a'); // challenger_points is text
+  rows[12] = rows[12].replace(/,(\d+)$/, ',#VALUE!'); // challenger_points is text (a spreadsheet error)
   rows[57] = rows[57].replace(/,[01],(\d+),(\d+)$/, ',2,$1,$2'); // bad_12m outside 0/1
   rows[101] = rows[101].split(',').slice(0, 7).join(','); // ragged: scores missing
   rows[150] = rows[150].replace(/,(\d+),(\d+)$/, ',,$2'); // champion_points empty

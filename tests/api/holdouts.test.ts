@@ -147,7 +147,7 @@ describe('refused uploads leave nothing behind', () => {
 
 describe('validating a mapping', () => {
   it('lists the problems of the broken demo file, each with its line and column', async () => {
-    // sample-data/README.md: a score of "n/a" (line 13), an outcome of 2 (line 58), a short row
+    // sample-data/README.md: text in a score, "#VALUE!" (line 13), an outcome of 2 (line 58), a short row
     // (line 102), an empty score (line 151). The upload takes the file (the scan counts a short
     // row and leaves it to this report); the mapping finds all four.
     const upload = await uploadFile(modeler, readFileSync(join(sampleDir, 'tallowmere-holdout-broken.csv')), 'broken.csv');
@@ -159,7 +159,6 @@ describe('validating a mapping', () => {
     expect(report.ok).toBe(false);
     expect(report.summary).toBeNull();
     expect(report.errors.map((error) => [error.row, error.column])).toEqual([
-      // "n/a" in the challenger's score: the reader takes n/a as a missing value (reader/values.ts).
       [13, 'challenger_points'],
       [58, 'bad_12m'],
       [102, null],
