@@ -222,7 +222,14 @@ export function summary(report: Report): string {
   const test = swap.test;
   lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${test.z.toFixed(3)}`}, p = ${test.p === null ? `— (${test.reason})` : pValue(test.p)}`);
   const atRate = report.strategyCurve.atApprovalRate;
-  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${int(atRate.badsAvoided)} fewer bads` + (atRate.approvalsGainedAtEqualBadRate === null ? '' : `; at the champion's bad rate it approves ${int(atRate.approvalsGainedAtEqualBadRate)} more accounts`));
+  const avoided = atRate.badsAvoided;
+  const badsWords = avoided === 0 ? 'as many bads as the champion' : `${int(Math.abs(avoided))} ${avoided > 0 ? 'fewer' : 'more'} bads`;
+  const gained = atRate.approvalsGainedAtEqualBadRate;
+  const gainedWords =
+    gained === null
+      ? ''
+      : `; at the champion's bad rate it approves ${gained === 0 ? 'as many' : `${int(Math.abs(gained))} ${gained > 0 ? 'more' : 'fewer'}`} accounts`;
+  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${badsWords}${gainedWords}`);
   if (report.segments.length > 0) {
     lines.push('');
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
