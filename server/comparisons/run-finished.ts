@@ -2,8 +2,8 @@ import type { ComparisonHeadline } from '@shared/comparisons';
 import type { Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { AnalysisRun, Comparison, User } from '../db/entities/index';
-import { encodeOrder, orderColumn } from '../holdouts/columns';
 import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
 import { analysisFinishedMail } from './mail';
@@ -11,7 +11,7 @@ import { transition } from './state';
 
 /**
  * The one place where a finished analysis run is handled, on the main thread, inside one
- * transaction: the run's result (report, headline, sort orders) or its error, the comparison's
+ * transaction: the run's result (report, headline) or its error, the comparison's
  * state change (draft → analysed when the newest run of a draft comparison is done; a failed run
  * leaves it draft), the audit event, and the e-mail to the comparison's creator.
  *
@@ -26,7 +26,6 @@ export type RunOutcome =
       engineVersion: string;
       headline: ComparisonHeadline;
       verdict: Verdict;
-      orders: { champion: Uint32Array; challenger: Uint32Array };
     }
   | { status: 'failed'; error: string };
 
@@ -37,7 +36,7 @@ export interface FinishContext {
 
 export async function recordFinishedRun(manager: EntityManager, runId: number, outcome: RunOutcome, context: FinishContext = {}): Promise<AnalysisRun> {
   const run = await manager.findOneByOrFail(AnalysisRun, { id: runId });
-  const finishedAt = new Date();
+  const finishedAt = now();
   if (outcome.status === 'done') {
     await manager.update(
       AnalysisRun,
@@ -53,13 +52,6 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
         finishedAt,
       },
     );
-    for (const model of ['champion', 'challenger'] as const) {
-      await manager.query('INSERT OR REPLACE INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [
-        runId,
-        orderColumn(model),
-        encodeOrder(outcome.orders[model]),
-      ]);
-    }
   } else {
     await manager.update(AnalysisRun, { id: runId }, { status: 'failed', stage: 'Failed', error: outcome.error, finishedAt });
   }

@@ -6,7 +6,8 @@ import type { Holdout } from '../db/entities/index';
  * An uploaded file's bytes in SQLite, in fixed-size chunks (holdout_chunks), written in the
  * same transaction as the holdout row: the file is stored whole or not at all, and a later
  * mapping reads it back with the engine's reader (a `{ bytes }` source). 4 MB chunks keep each
- * row well under SQLite's limits and a 200 MB file at 50 rows.
+ * row well under SQLite's limits and a 200 MB file at 50 rows; the event loop gets a turn between
+ * chunks, so other requests are answered while a large file is stored.
  */
 export const CHUNK_BYTES = 4 * 1024 * 1024;
 
@@ -29,6 +30,8 @@ export async function storeHoldoutFile(manager: EntityManager, holdoutId: number
       chunks += 1;
       bytes += filled;
       if (filled < CHUNK_BYTES) break;
+      // Let requests in between chunks: SQLite's calls are synchronous, and a 200 MB file is 50 of them.
+      await new Promise<void>((resolve) => setImmediate(resolve));
     }
   } finally {
     closeSync(fd);

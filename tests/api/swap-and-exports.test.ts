@@ -79,6 +79,9 @@ describe('swap sets on demand', () => {
 
   it('are the same prepared on a worker after a restart, on this thread, or handed over by the analysis', async () => {
     const run = await t.dataSource.getRepository(AnalysisRun).findOneByOrFail({ comparisonId });
+    // The sort orders are stored with the run, so a preparation after a restart does not sort.
+    const stored = (await t.dataSource.query(`SELECT "name" FROM "run_columns" WHERE "runId" = ? ORDER BY "name"`, [run.id])) as { name: string }[];
+    expect(stored.map((row) => row.name)).toEqual(['bad', 'challenger', 'champion', 'exposure', 'ids', 'order.challenger', 'order.champion', 'segment.0', 'segment.1']);
     const onWorker = await new PreparedCache(1e6, prepareOnWorker(t.config.databasePath)).get(t.dataSource, run);
     const here = await new PreparedCache(1e6, prepareHere).get(t.dataSource, run);
     for (const request of [{ basis: 'approval-rate', approvalRate: 0.55 } as const, { basis: 'cutoffs', cutoffs: { champion: 590, challenger: 620 } } as const]) {
