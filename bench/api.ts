@@ -31,7 +31,7 @@ if (!existsSync(entry)) throw new Error('build the server first: npm run build:s
 const dir = mkdtempSync(join(tmpdir(), 'scorecourt-api-bench-'));
 const port = 3900 + Math.floor(Math.random() * 90);
 const server = spawn(process.execPath, [entry], {
-  env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATABASE_PATH: join(dir, 'db.sqlite'), SERVE_CLIENT: 'false', LOG_LEVEL: 'warn', BCRYPT_COST: '4', NODE_ENV: 'development' },
+  env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', DATABASE_PATH: join(dir, 'db.sqlite'), SERVE_CLIENT: 'false', LOG_LEVEL: 'warn', BCRYPT_COST: '4', NODE_ENV: 'development', DEMO_SCENARIO: 'false' },
   stdio: ['ignore', 'pipe', 'inherit'],
 });
 await new Promise<void>((resolve) => server.stdout!.on('data', (data: Buffer) => String(data).includes('running at') && resolve()));

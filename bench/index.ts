@@ -72,16 +72,24 @@ const maxRssMb = () => process.resourceUsage().maxRSS / 1024;
 interface StageResult {
   stage: string;
   runsMs: number[];
+  /** CPU time of the process (all its threads) per run: less sensitive than wall time to other
+   * programs sharing the machine. */
+  cpuMs?: number[];
   peakRssMb: number;
   note?: string;
 }
 
+let lastCpu: number[] = [];
 async function timeRuns(runs: number, work: () => unknown | Promise<unknown>): Promise<number[]> {
   const times: number[] = [];
+  lastCpu = [];
   for (let r = 0; r < runs; r++) {
+    const cpu = process.cpuUsage();
     const start = performance.now();
     await work();
     times.push(performance.now() - start);
+    const used = process.cpuUsage(cpu);
+    lastCpu.push((used.user + used.system) / 1000);
   }
   return times;
 }
@@ -103,11 +111,11 @@ async function runStage(name: string): Promise<void> {
   const results: StageResult[] = [];
   if (kind === 'read') {
     const runs = await timeRuns(3, () => load(scores));
-    results.push({ stage: `read the CSV (${scores}; id, segment, exposure mapped)`, runsMs: runs, peakRssMb: maxRssMb() });
+    results.push({ stage: `read the CSV (${scores}; id, segment, exposure mapped)`, runsMs: runs, cpuMs: lastCpu, peakRssMb: maxRssMb() });
   } else if (kind === 'core') {
     const holdout = await load(scores);
     const runs = await timeRuns(7, () => core(holdout));
-    results.push({ stage: `AUC + DeLong + KS, both models (${scores})`, runsMs: runs, peakRssMb: maxRssMb() });
+    results.push({ stage: `AUC + DeLong + KS, both models (${scores})`, runsMs: runs, cpuMs: lastCpu, peakRssMb: maxRssMb() });
   } else if (kind === 'bootstrap') {
     const holdout = await load(scores);
     const { a, b } = core(holdout);
@@ -120,6 +128,7 @@ async function runStage(name: string): Promise<void> {
     results.push({
       stage: `2000 bootstrap replicates (${scores}), ${availableParallelism()} threads`,
       runsMs: runs,
+      cpuMs: lastCpu,
       peakRssMb: maxRssMb(),
       note: `${cells.toLocaleString('en-US')} cells`,
     });
@@ -130,16 +139,34 @@ async function runStage(name: string): Promise<void> {
       results.push({ stage: `${timing.stage} (${scores})`, runsMs: timing.runsMs, peakRssMb: maxRssMb() });
     }
   } else if (kind === 'full') {
+    const cpu = process.cpuUsage();
     const start = performance.now();
     const loaded = await loadHoldout({ path: fileFor(scores, FULL_ROWS) }, mappingFor(scores));
     const read = performance.now() - start;
-    await buildReport({ ...loaded, mapping: mappingFor(scores), settings: { bootstrap: 2000 }, read: loaded.read });
+    const stages: string[] = [];
+    let stageName = '';
+    let stageStart = performance.now();
+    await buildReport({
+      ...loaded,
+      mapping: mappingFor(scores),
+      settings: { bootstrap: 2000 },
+      read: loaded.read,
+      onProgress: ({ stage }) => {
+        const name = stage.startsWith('Bootstrap') ? 'bootstrap' : stage;
+        if (name === stageName) return;
+        if (stageName) stages.push(`${stageName} ${((performance.now() - stageStart) / 1000).toFixed(1)} s`);
+        stageName = name;
+        stageStart = performance.now();
+      },
+    });
     const total = performance.now() - start;
+    const used = process.cpuUsage(cpu);
     results.push({
       stage: `whole analysis, ${FULL_ROWS.toLocaleString('en-US')} rows (${scores}), 2000 replicates, read included`,
       runsMs: [total],
+      cpuMs: [(used.user + used.system) / 1000],
       peakRssMb: maxRssMb(),
-      note: `reading ${Math.round(read)} ms`,
+      note: `reading ${(read / 1000).toFixed(1)} s; ${stages.join('; ')}`,
     });
   }
   process.stdout.write(JSON.stringify(results));
@@ -157,15 +184,18 @@ function compareCommand(scores: Scores): StageResult {
   const higherIs = scores === 'points' ? 'safer' : 'riskier';
   const args = [cli, fileFor(scores, ROWS), '--bootstrap', '0', '--higher-is', higherIs, '--json'];
   const runsMs: number[] = [];
+  const cpuMs: number[] = [];
   let peak = 0;
   for (let r = 0; r < 3; r++) {
     const start = performance.now();
-    const result = spawnSync('/usr/bin/time', ['-f', '%M', process.execPath, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
+    const result = spawnSync('/usr/bin/time', ['-f', '%M %U %S', process.execPath, ...args], { encoding: 'utf8', maxBuffer: 1 << 28 });
     runsMs.push(performance.now() - start);
     if (result.status !== 0) throw new Error(`compare failed: ${result.stderr}`);
-    peak = Math.max(peak, Number(result.stderr.trim().split('\n').at(-1)) / 1024);
+    const [rss, user, system] = (result.stderr.trim().split('\n').at(-1) ?? '').split(' ').map(Number);
+    peak = Math.max(peak, rss / 1024);
+    cpuMs.push((user + system) * 1000);
   }
-  return { stage: `whole compare command, no bootstrap (${scores}, node dist/server/cli/compare.js)`, runsMs, peakRssMb: peak };
+  return { stage: `whole compare command, no bootstrap (${scores}, node dist/server/cli/compare.js)`, runsMs, cpuMs, peakRssMb: peak };
 }
 
 function proc(scores: Scores): StageResult | null {
@@ -173,18 +203,20 @@ function proc(scores: Scores): StageResult | null {
   const probe = spawnSync('Rscript', ['-e', 'cat(requireNamespace("pROC", quietly = TRUE))'], { encoding: 'utf8' });
   if (probe.status !== 0 || probe.stdout.trim() !== 'TRUE') return null;
   const runsMs: number[] = [];
+  const cpuMs: number[] = [];
   let peak = 0;
   let note = '';
   for (let r = 0; r < 3; r++) {
     const start = performance.now();
-    const result = spawnSync('/usr/bin/time', ['-f', '%M', 'Rscript', script, fileFor(scores, ROWS), scores === 'points' ? 'safer' : 'riskier'], { encoding: 'utf8' });
+    const result = spawnSync('/usr/bin/time', ['-f', '%M %U %S', 'Rscript', script, fileFor(scores, ROWS), scores === 'points' ? 'safer' : 'riskier'], { encoding: 'utf8' });
     runsMs.push(performance.now() - start);
     if (result.status !== 0) return { stage: 'R pROC script', runsMs: [], peakRssMb: 0, note: `failed: ${result.stderr.split('\n')[0]}` };
-    const lines = result.stderr.trim().split('\n');
-    peak = Math.max(peak, Number(lines.at(-1)) / 1024);
+    const [rss, user, system] = (result.stderr.trim().split('\n').at(-1) ?? '').split(' ').map(Number);
+    peak = Math.max(peak, rss / 1024);
+    cpuMs.push((user + system) * 1000);
     note = result.stdout.trim().split('\n').at(-1) ?? '';
   }
-  return { stage: `R pROC whole script (${scores}): fread, 2 roc, roc.test, 2 ks.test`, runsMs, peakRssMb: peak, note };
+  return { stage: `R pROC whole script (${scores}): fread, 2 roc, roc.test, 2 ks.test`, runsMs, cpuMs, peakRssMb: peak, note };
 }
 
 const targets: [RegExp, string][] = [
@@ -198,15 +230,18 @@ const targets: [RegExp, string][] = [
 ];
 
 function print(results: StageResult[]): void {
+  const seconds = (values: number[] | undefined) => (values && values.length ? `${(median(values) / 1000).toFixed(3)} s` : '—');
   const rows = results.map((result) => {
     const target = targets.find(([pattern]) => pattern.test(result.stage))?.[1] ?? '';
-    const runs = result.runsMs.length ? `${(median(result.runsMs) / 1000).toFixed(3)} s` : '—';
-    return [result.stage, runs, `${Math.round(result.peakRssMb)} MB`, target, result.note ?? ''];
+    return [result.stage, seconds(result.runsMs), seconds(result.cpuMs), `${Math.round(result.peakRssMb)} MB`, target, result.note ?? ''];
   });
-  const widths = [0, 1, 2, 3].map((c) => Math.max(...rows.map((row) => row[c].length), ['stage', 'median', 'peak RSS', 'target'][c].length));
-  const line = (cells: string[]) => cells.map((cell, c) => (c < 4 ? cell.padEnd(widths[c]) : cell)).join('  ');
-  console.log(line(['stage', 'median', 'peak RSS', 'target', 'note']));
+  const head = ['stage', 'median', 'CPU', 'peak RSS', 'target', 'note'];
+  const widths = head.map((title, c) => Math.max(...rows.map((row) => row[c].length), title.length));
+  const line = (cells: string[]) => cells.map((cell, c) => (c < head.length - 1 ? cell.padEnd(widths[c]) : cell)).join('  ');
+  console.log(line(head));
   for (const row of rows) console.log(line(row));
+  console.log('\nmedian: wall-clock time, median of the runs; CPU: CPU time of all the process threads (median);');
+  console.log('peak RSS: the largest resident memory of the stage process (it includes reading its file).');
 }
 
 async function main(): Promise<void> {

@@ -5,7 +5,8 @@
  * through branches, its website and brokers. Its champion is the application scorecard in points
  * (higher = safer). The challenger adds cash-flow features and separates better overall, but for
  * brokered cards the cash-flow data arrive unverified from the broker, so there the challenger is
- * worse than the champion: the segment page and the swap sets are meant to reveal it.
+ * worse than the champion: the segment page (through the product_channel column) and the swap
+ * sets are meant to reveal it.
  *
  * How the data are made (a simulation, not a model of any real portfolio):
  * - two hidden borrower traits, bureau strength b and cash-flow strength c, standard normal;
@@ -129,12 +130,21 @@ function simulate(count: number): Account[] {
   return accounts;
 }
 
-const header = ['account_id', 'application_month', 'product', 'channel', 'loan_amount', 'bad_12m'];
+/**
+ * product_channel combines the two columns (e.g. `credit-card/broker`): the segment table compares
+ * the models within each value of one column, so brokered cards show as a row of their own only
+ * through a column that names the combination.
+ */
+const header = ['account_id', 'application_month', 'product', 'channel', 'product_channel', 'loan_amount', 'bad_12m'];
+
+function leadFields(a: Account): (string | number)[] {
+  return [a.id, a.month, a.product, a.channel, `${a.product}/${a.channel}`, a.amount, a.bad];
+}
 
 function holdoutCsv(accounts: Account[]): string {
   const lines = [[...header, 'champion_points', 'challenger_points'].join(',')];
   for (const a of accounts) {
-    lines.push([a.id, a.month, a.product, a.channel, a.amount, a.bad, a.championPoints, a.challengerPoints].join(','));
+    lines.push([...leadFields(a), a.championPoints, a.challengerPoints].join(','));
   }
   return lines.join('\n') + '\n';
 }
@@ -142,7 +152,7 @@ function holdoutCsv(accounts: Account[]): string {
 function pdCsv(accounts: Account[]): string {
   const lines = [[...header, 'champion_points', 'challenger_pd'].join(',')];
   for (const a of accounts) {
-    lines.push([a.id, a.month, a.product, a.channel, a.amount, a.bad, a.championPoints, a.challengerPd.toFixed(6)].join(','));
+    lines.push([...leadFields(a), a.championPoints, a.challengerPd.toFixed(6)].join(','));
   }
   return lines.join('\n') + '\n';
 }
@@ -154,9 +164,9 @@ function pdCsv(accounts: Account[]): string {
  */
 function brokenCsv(accounts: Account[]): string {
   const rows = holdoutCsv(accounts.slice(0, 200)).split('\n');
-  rows[12] = rows[12].replace(/,(\d+)$/, ',n/a'); // challenger_points is text
+  rows[12] = rows[12].replace(/,(\d+)$/, ',#VALUE!'); // challenger_points is text (a spreadsheet error)
   rows[57] = rows[57].replace(/,[01],(\d+),(\d+)$/, ',2,$1,$2'); // bad_12m outside 0/1
-  rows[101] = rows[101].split(',').slice(0, 6).join(','); // ragged: scores missing
+  rows[101] = rows[101].split(',').slice(0, 7).join(','); // ragged: scores missing
   rows[150] = rows[150].replace(/,(\d+),(\d+)$/, ',,$2'); // champion_points empty
   return rows.join('\n');
 }

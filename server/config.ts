@@ -28,6 +28,8 @@ const environmentSchema = z
     LOG_LEVEL: z.enum(['debug', 'info', 'warn', 'error', 'silent']).default('info'),
     /** Express "trust proxy": set when the server sits behind a TLS-terminating proxy. */
     TRUST_PROXY: z.string().min(1).optional(),
+    /** On an empty database outside production: also add the demo's comparisons (false: only the demo people). */
+    DEMO_SCENARIO: booleanFlag.default(true),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== 'production') return;
@@ -60,6 +62,8 @@ export interface Config {
   bcryptCost: number;
   logLevel: LogLevel;
   trustProxy: boolean | number | string;
+  /** Whether the first start (empty database, not production) adds the demo comparisons besides the demo people. */
+  demoScenario: boolean;
 }
 
 export class ConfigError extends Error {
@@ -101,5 +105,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     bcryptCost: e.BCRYPT_COST,
     logLevel: e.LOG_LEVEL,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
+    demoScenario: e.DEMO_SCENARIO,
   };
 }

@@ -1,4 +1,5 @@
 import type { Server } from 'node:http';
+import { comparisonStateLabels } from '@shared/comparisons';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
@@ -9,12 +10,14 @@ import { JobRunner } from './jobs/runner';
 import { createLogger } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
-import { demoPassword, presentDemoPeople, seedDemo } from './seed';
+import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
 
 /**
- * `node dist/server/index.js`: opens the database and migrates it, seeds the demo people (not in
- * production), starts mail (the local sink unless SMTP_URL is set), listens, prints where, and
- * shuts down cleanly on SIGTERM or SIGINT.
+ * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
+ * unless SMTP_URL is set) and the analysis queue, seeds an empty database with the demo (not in
+ * production: the demo people and, unless DEMO_SCENARIO=false, the demo's three comparisons, whose
+ * analyses run before the server listens), listens, prints where, and shuts down cleanly on
+ * SIGTERM or SIGINT.
  */
 
 function readConfig(): Config {
@@ -37,7 +40,6 @@ async function main(): Promise<void> {
   // WAL checkpoints on their own thread, not after a large commit on this one.
   const checkpointer = new WalCheckpointer(dataSource, config.databasePath, log);
   await checkpointer.start();
-  const seeded = config.isProduction ? null : await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
   const sessionSecret = config.sessionSecret ?? (await storedSessionSecret(dataSource));
 
   const mail = await createMailTransport(config, dataSource, log);
@@ -60,6 +62,23 @@ async function main(): Promise<void> {
   const leftovers = clearUploadDir(uploadDir);
   if (leftovers > 0) log.info(`removed ${leftovers} unfinished upload(s) from ${uploadDir}`);
 
+  // The demo, on an empty database only, before anyone can sign in (the scenario replays the
+  // past weeks' timestamps, which no request may see: clock.ts).
+  let seeded: SeedResult | null = null;
+  if (!config.isProduction && (await databaseIsEmpty(dataSource))) {
+    const started = performance.now();
+    if (config.demoScenario) console.log('The database is empty: adding the demo people and the demo comparisons, whose analyses run now (a few seconds)…');
+    try {
+      seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir } : null });
+      if (seeded.comparisons.length > 0) console.log(`The demo is ready (${((performance.now() - started) / 1000).toFixed(1)} s).`);
+    } catch (error) {
+      log.error(
+        `The demo scenario could not be completed; the server starts with what was added. To try again, stop the server and remove ${config.databasePath} (and its -wal and -shm files).`,
+        error,
+      );
+    }
+  }
+
   const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {
     const listening = config.host ? app.listen(config.port, config.host) : app.listen(config.port);
@@ -77,7 +96,11 @@ async function main(): Promise<void> {
   ];
   if (!config.isProduction) {
     const demo = await presentDemoPeople(dataSource);
-    if (seeded?.seeded) lines.push('', `The database was empty: added ${seeded.people.length} demo people.`);
+    if (seeded?.seeded) {
+      const comparisons = seeded.comparisons.map((comparison) => `${comparisonStateLabels[comparison.state].padEnd(10)} ${comparison.name}`);
+      lines.push('', `The database was empty: added ${seeded.people.length} demo people${comparisons.length > 0 ? ` and ${comparisons.length} comparisons:` : '.'}`);
+      for (const comparison of comparisons) lines.push(`  ${comparison}`);
+    }
     if (demo.length > 0) {
       lines.push('', `Demo sign-ins (password "${demoPassword}"):`);
       for (const person of demo) lines.push(`  ${person.email.padEnd(28)} ${person.roles.join(', ')}`);

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
+import { now } from '../clock';
 import { AuditEvent } from '../db/entities/index';
 import { canonicalJson } from './canonical-json';
 
@@ -57,7 +58,7 @@ export async function recordAudit(manager: EntityManager, input: AuditInput): Pr
     targetType: input.target.type,
     targetId: input.target.id === null ? null : String(input.target.id),
     details: canonicalJson(input.details ?? {}),
-    createdAt: new Date(),
+    createdAt: now(),
     prevHash: last?.hash ?? genesisHash,
   });
   event.hash = hashEvent(event);

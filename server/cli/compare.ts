@@ -222,13 +222,21 @@ export function summary(report: Report): string {
   const test = swap.test;
   lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${test.z.toFixed(3)}`}, p = ${test.p === null ? `— (${test.reason})` : pValue(test.p)}`);
   const atRate = report.strategyCurve.atApprovalRate;
-  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${int(atRate.badsAvoided)} fewer bads` + (atRate.approvalsGainedAtEqualBadRate === null ? '' : `; at the champion's bad rate it approves ${int(atRate.approvalsGainedAtEqualBadRate)} more accounts`));
+  const avoided = atRate.badsAvoided;
+  const badsWords = avoided === 0 ? 'as many bads as the champion' : `${int(Math.abs(avoided))} ${avoided > 0 ? 'fewer' : 'more'} bads`;
+  const gained = atRate.approvalsGainedAtEqualBadRate;
+  const gainedWords =
+    gained === null
+      ? ''
+      : `; at the champion's bad rate it approves ${gained === 0 ? 'as many' : `${int(Math.abs(gained))} ${gained > 0 ? 'more' : 'fewer'}`} accounts`;
+  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${badsWords}${gainedWords}`);
   if (report.segments.length > 0) {
     lines.push('');
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
+    const labelWidth = Math.max(30, ...report.segments.map((row) => `${row.column} = ${row.value}`.length + 2));
     for (const row of report.segments) {
       const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
-      lines.push(`  ${pad(`${row.column} = ${row.value}`, 30)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 28)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
+      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
   if (report.dataQuality.warnings.length > 0) {

@@ -2,6 +2,7 @@ import type { ComparisonHeadline } from '@shared/comparisons';
 import type { Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { AnalysisRun, Comparison, User } from '../db/entities/index';
 import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
@@ -35,7 +36,7 @@ export interface FinishContext {
 
 export async function recordFinishedRun(manager: EntityManager, runId: number, outcome: RunOutcome, context: FinishContext = {}): Promise<AnalysisRun> {
   const run = await manager.findOneByOrFail(AnalysisRun, { id: runId });
-  const finishedAt = new Date();
+  const finishedAt = now();
   if (outcome.status === 'done') {
     await manager.update(
       AnalysisRun,

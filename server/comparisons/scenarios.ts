@@ -1,6 +1,7 @@
 import type { Scenario, ScenarioInput } from '@shared/comparisons';
 import { errorCodes } from '@shared/errors';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import type { AppContext } from '../context';
 import { CutoffScenario, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -52,7 +53,7 @@ export async function saveScenario(ctx: AppContext, actor: User, comparisonId: n
         note: input.note,
         swap,
         createdById: actor.id,
-        createdAt: new Date(),
+        createdAt: now(),
       }),
     );
     await recordAudit(manager, {

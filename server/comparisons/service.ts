@@ -9,6 +9,7 @@ import type {
 import { analysisSettingsSchema, type AnalysisSettings, type ColumnMapping } from '@shared/report';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import type { AppContext } from '../context';
 import { AnalysisRun, Comparison, type Holdout, type RunInput, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -114,7 +115,7 @@ async function insertRun(manager: EntityManager, comparisonId: number, prepared:
       attempts: 0,
       error: null,
       engineVersion: null,
-      queuedAt: new Date(),
+      queuedAt: now(),
       startedAt: null,
       finishedAt: null,
       mapping: prepared.mapping,
@@ -153,7 +154,7 @@ export async function createComparison(ctx: AppContext, actor: User, input: Crea
     prepared = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
   }
   const created = await inTransaction(ctx.dataSource, async (manager) => {
-    const now = new Date();
+    const at = now();
     const comparison = await manager.save(
       manager.create(Comparison, {
         name: input.name,
@@ -163,8 +164,8 @@ export async function createComparison(ctx: AppContext, actor: User, input: Crea
         settings,
         state: 'draft',
         createdById: actor.id,
-        createdAt: now,
-        updatedAt: now,
+        createdAt: at,
+        updatedAt: at,
       }),
     );
     const run = prepared ? await insertRun(manager, comparison.id, prepared, actor) : null;
@@ -199,18 +200,18 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
   const prepared: PreparedRun = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
 
   await inTransaction(ctx.dataSource, async (manager) => {
-    const now = new Date();
+    const at = now();
     // Runs of an earlier set-up that have not started yet would only be overtaken: end them.
     const superseded = await manager.find(AnalysisRun, { where: { comparisonId: id, status: 'queued' }, select: { id: true } });
     if (superseded.length > 0) {
       await manager.update(
         AnalysisRun,
         { id: In(superseded.map((run) => run.id)) },
-        { status: 'failed', stage: 'Replaced', error: 'Replaced by a newer set-up before it started.', finishedAt: now },
+        { status: 'failed', stage: 'Replaced', error: 'Replaced by a newer set-up before it started.', finishedAt: at },
       );
     }
     const run = await insertRun(manager, id, prepared, actor);
-    await manager.update(Comparison, { id }, { holdoutId: holdout.id, mapping, settings, updatedAt: now });
+    await manager.update(Comparison, { id }, { holdoutId: holdout.id, mapping, settings, updatedAt: at });
     await transition(manager, id, setupStates, 'draft', {
       actor,
       action: 'comparison.setup',

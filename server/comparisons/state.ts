@@ -1,6 +1,7 @@
 import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { Comparison } from '../db/entities/index';
 import { conflict, notFound } from '../errors';
 
@@ -44,7 +45,7 @@ export async function transition(
   }
   const previous = current.state;
   current.state = to;
-  current.updatedAt = new Date();
+  current.updatedAt = now();
   await manager.update(Comparison, { id }, { state: to, updatedAt: current.updatedAt });
   await recordAudit(manager, {
     actor: event.actor,

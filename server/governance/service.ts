@@ -2,6 +2,7 @@ import type { DecisionInput, Governance, ReviewInput, VoteInput } from '@shared/
 import type { Role } from '@shared/roles';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { transition } from '../comparisons/state';
 import type { AppContext } from '../context';
 import { Decision, Review, User, VerdictRecord, Vote, type Comparison } from '../db/entities/index';
@@ -105,7 +106,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
         outcome: input.outcome,
         findings: input.findings,
         reviewerId: actor.id,
-        createdAt: new Date(),
+        createdAt: now(),
       }),
     );
     await transition(manager, comparison, ['in-review'], input.outcome, {
@@ -156,7 +157,7 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
         vote: input.vote,
         comment: input.comment,
         replacesId: previous?.id ?? null,
-        createdAt: new Date(),
+        createdAt: now(),
       }),
     );
     await recordAudit(manager, {
@@ -205,7 +206,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         conditions: input.conditions ? input.conditions : null,
         effectiveDate: input.effectiveDate ?? null,
         decidedById: actor.id,
-        createdAt: new Date(),
+        createdAt: now(),
       }),
     );
     const tally = Object.fromEntries(voteChoices.map((choice) => [choice, votes.filter((vote) => vote.vote === choice).length]));

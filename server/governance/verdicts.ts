@@ -2,6 +2,7 @@ import type { VerdictRecord as VerdictRecordBody } from '@shared/governance';
 import type { Report, SwapSets, Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
 import { requireCurrentRun } from '../comparisons/service';
 import type { AppContext } from '../context';
@@ -41,7 +42,7 @@ async function storeVerdict(
       criteria: given.criteria,
       summary: given.summary,
       createdById: actor?.id ?? null,
-      createdAt: new Date(),
+      createdAt: now(),
     }),
   );
   await recordAudit(manager, {

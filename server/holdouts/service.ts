@@ -2,6 +2,7 @@ import type { HoldoutInfo, ValidationReport } from '@shared/comparisons';
 import type { ColumnMapping } from '@shared/report';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import type { AppContext } from '../context';
 import { Holdout, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -45,7 +46,7 @@ export async function uploadHoldout(ctx: AppContext, actor: User, file: Uploaded
         chunkSize: CHUNK_BYTES,
         chunkCount,
         uploadedById: actor.id,
-        uploadedAt: new Date(),
+        uploadedAt: now(),
       }),
     );
     const stored = await storeHoldoutFile(manager, holdout.id, file.path);

@@ -1,6 +1,7 @@
 import type { ResourceLimits, Worker } from 'node:worker_threads';
 import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import { currentAdoptionPolicy } from '../comparisons/adoption-policy';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
 import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
@@ -198,7 +199,7 @@ export class JobRunner {
       await manager.update(
         AnalysisRun,
         { id: next.id },
-        { status: 'running', attempts: attempt, startedAt: new Date(), progress: 0, stage: 'Starting', engineVersion },
+        { status: 'running', attempts: attempt, startedAt: now(), progress: 0, stage: 'Starting', engineVersion },
       );
       const policy = await currentAdoptionPolicy(manager);
       return { runId: next.id, attempt, job: { databasePath: this.options.databasePath, runId: next.id, attempt, policy } };

@@ -1,5 +1,6 @@
 import type { Transporter } from 'nodemailer';
 import { In, LessThanOrEqual, type DataSource, type EntityManager } from 'typeorm';
+import { now } from '../clock';
 import { MailMessage } from '../db/entities/index';
 import { inTransaction, withWriteLock } from '../db/transaction';
 import type { Logger } from '../log';
@@ -56,7 +57,7 @@ export class Mailer {
   async queue(manager: EntityManager, mail: OutgoingMail): Promise<MailMessage> {
     const to = (Array.isArray(mail.to) ? mail.to : [mail.to]).map((address) => address.trim()).filter(Boolean);
     if (to.length === 0) throw new Error('an e-mail needs at least one recipient');
-    const now = new Date();
+    const at = now();
     return manager.getRepository(MailMessage).save(
       manager.getRepository(MailMessage).create({
         to,
@@ -65,8 +66,8 @@ export class Mailer {
         status: 'queued',
         attempts: 0,
         lastError: null,
-        nextAttemptAt: now,
-        createdAt: now,
+        nextAttemptAt: at,
+        createdAt: at,
         sentAt: null,
       }),
     );
@@ -138,7 +139,7 @@ export class Mailer {
       await withWriteLock(this.dataSource, () =>
         repository.update(
           { id: message.id },
-          { status: 'sent', attempts, sentAt: new Date(), nextAttemptAt: null, lastError: null, messageId: info.messageId ?? null },
+          { status: 'sent', attempts, sentAt: now(), nextAttemptAt: null, lastError: null, messageId: info.messageId ?? null },
         ),
       );
       this.options.log.info(`mail ${message.id} sent to ${message.to.join(', ')}: ${message.subject}`);

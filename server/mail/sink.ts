@@ -1,6 +1,7 @@
 import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { DataSource } from 'typeorm';
+import { now } from '../clock';
 import { MailMessage } from '../db/entities/index';
 import { withWriteLock } from '../db/transaction';
 import type { Logger } from '../log';
@@ -42,7 +43,7 @@ export async function startSmtpSink(dataSource: DataSource, log: Logger, maxByte
           await withWriteLock(dataSource, () =>
             dataSource
               .getRepository(MailMessage)
-              .update({ id }, { receivedAt: new Date(), envelopeFrom, envelopeTo, receivedText: parsed.text ?? '' }),
+              .update({ id }, { receivedAt: now(), envelopeFrom, envelopeTo, receivedText: parsed.text ?? '' }),
           );
         })
         .then(() => callback())

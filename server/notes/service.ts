@@ -2,6 +2,7 @@ import { errorCodes } from '@shared/errors';
 import type { Note as NoteBody, NoteInput } from '@shared/governance';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
+import { now } from '../clock';
 import type { AppContext } from '../context';
 import { CutoffScenario, Note, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -53,7 +54,7 @@ export async function addNote(ctx: AppContext, actor: User, comparisonId: number
         body: input.body,
         scenarioId: input.scenarioId,
         authorId: actor.id,
-        createdAt: new Date(),
+        createdAt: now(),
       }),
     );
     await recordAudit(manager, {

@@ -168,7 +168,12 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     const kind = filled > 0 && column.numeric === filled ? 'numeric' : distinct <= CATEGORICAL_MAX ? 'categorical' : 'text';
     return { name, kind, distinct, missing: column.missing };
   });
-  const guess = guessMapping(header, columns, stats, sampleRows);
+  // A score column with a stray bad cell (a spreadsheet's #VALUE!) is still proposed as a score,
+  // so the validation step can name the row; "numeric" columns stay strictly numeric.
+  const mostlyNumeric = columns.map(
+    (column, c) => column.kind === 'numeric' || (statRows - stats[c].missing > 0 && stats[c].numeric / (statRows - stats[c].missing) >= 0.99),
+  );
+  const guess = guessMapping(header, columns, stats, sampleRows, mostlyNumeric);
   return {
     fileName: info.fileName,
     sha256: info.sha256,
@@ -182,7 +187,13 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
   };
 }
 
-function guessMapping(header: string[], columns: ScannedColumn[], stats: ColumnStats[], sampleRows: number): MappingGuess {
+function guessMapping(
+  header: string[],
+  columns: ScannedColumn[],
+  stats: ColumnStats[],
+  sampleRows: number,
+  mostlyNumeric: boolean[],
+): MappingGuess {
   const used = new Set<number>();
   const pick = (index: number | undefined): string | null => {
     if (index === undefined || index < 0) return null;
@@ -227,7 +238,7 @@ function guessMapping(header: string[], columns: ScannedColumn[], stats: ColumnS
   const id = pick(idAt);
 
   // Scores: numeric columns with many values, by name where possible.
-  const numeric = indices.filter((c) => !used.has(c) && columns[c].kind === 'numeric' && columns[c].distinct > 2);
+  const numeric = indices.filter((c) => !used.has(c) && mostlyNumeric[c] && columns[c].distinct > 2);
   const scoreLike = numeric.filter((c) => !EXPOSURE_NAMES.test(header[c]) || SCORE_NAMES.test(header[c]));
   let championAt = scoreLike.find((c) => CHAMPION_NAMES.test(header[c]));
   let challengerAt = scoreLike.find((c) => c !== championAt && CHALLENGER_NAMES.test(header[c]));

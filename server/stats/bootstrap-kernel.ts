@@ -231,13 +231,19 @@ export function nextUint32(state: Int32Array): number {
   return result;
 }
 
-/** A uniform integer in [0, bound), exactly: a 53-bit draw, the last partial range rejected. */
-function uniformIndex(state: Int32Array, bound: number): number {
-  const limit = TWO_POW_53 - (TWO_POW_53 % bound);
+/**
+ * A uniform integer in [0, bound), exactly: a 53-bit draw, the last partial range rejected.
+ * `limit` = 2^53 − (2^53 mod bound), computed once per stratum.
+ */
+function uniformIndex(state: Int32Array, bound: number, limit: number): number {
   for (;;) {
     const high = nextUint32(state) >>> 11;
     const value = high * TWO_POW_32 + nextUint32(state);
-    if (value < limit) return value % bound;
+    if (value < limit) {
+      // value mod bound without a floating-point remainder: the quotient can only round up.
+      const remainder = value - Math.floor(value / bound) * bound;
+      return remainder < 0 ? remainder + bound : remainder;
+    }
   }
 }
 
@@ -405,8 +411,9 @@ function adjustStratum(
   countsChallenger: Uint16Array,
   state: Int32Array,
 ): void {
+  const limit = TWO_POW_53 - (TWO_POW_53 % target);
   while (total > target) {
-    const cell = urn[uniformIndex(state, target)];
+    const cell = urn[uniformIndex(state, target, limit)];
     if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[cell] / size[cell]) {
       counts[cell]--;
       countsChallenger[positionChallenger[cell]]--;
@@ -414,7 +421,7 @@ function adjustStratum(
     }
   }
   while (total < target) {
-    const cell = urn[uniformIndex(state, target)];
+    const cell = urn[uniformIndex(state, target, limit)];
     // Counts are 16-bit: a cell would need over 65,000 of the added draws (far beyond anything
     // with a probability above 1e-300); refuse rather than wrap around.
     if (counts[cell] === 0xffff) throw new RangeError('bootstrap: a cell count passed 65535');

@@ -37,6 +37,7 @@ describe('uploading a holdout', () => {
       'application_month',
       'product',
       'channel',
+      'product_channel',
       'loan_amount',
       'bad_12m',
       'champion_points',
@@ -45,7 +46,7 @@ describe('uploading a holdout', () => {
     expect(holdout.columns.find((column) => column.name === 'channel')).toMatchObject({ kind: 'categorical', distinct: 3 });
     expect(holdout.preview).toHaveLength(20);
     // The first data line of the file, as text.
-    expect(holdout.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', '3900', '0', '622', '643']);
+    expect(holdout.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', 'credit-card/branch', '3900', '0', '622', '643']);
     expect(holdout.guess).toMatchObject({
       outcome: 'bad_12m',
       badValue: '1',
@@ -146,7 +147,7 @@ describe('refused uploads leave nothing behind', () => {
 
 describe('validating a mapping', () => {
   it('lists the problems of the broken demo file, each with its line and column', async () => {
-    // sample-data/README.md: a score of "n/a" (line 13), an outcome of 2 (line 58), a short row
+    // sample-data/README.md: text in a score, "#VALUE!" (line 13), an outcome of 2 (line 58), a short row
     // (line 102), an empty score (line 151). The upload takes the file (the scan counts a short
     // row and leaves it to this report); the mapping finds all four.
     const upload = await uploadFile(modeler, readFileSync(join(sampleDir, 'tallowmere-holdout-broken.csv')), 'broken.csv');
@@ -158,14 +159,13 @@ describe('validating a mapping', () => {
     expect(report.ok).toBe(false);
     expect(report.summary).toBeNull();
     expect(report.errors.map((error) => [error.row, error.column])).toEqual([
-      // "n/a" in the challenger's score: the reader takes n/a as a missing value (reader/values.ts).
       [13, 'challenger_points'],
       [58, 'bad_12m'],
       [102, null],
       [151, 'champion_points'],
     ]);
     for (const error of report.errors) expect(error.message).toMatch(new RegExp(`^row ${error.row}`));
-    expect(report.errors[2].message).toBe('row 102 has 6 fields, the header has 8');
+    expect(report.errors[2].message).toBe('row 102 has 7 fields, the header has 9');
   });
 
   it('summarises a good mapping: rows, goods, bads, bad rate', async () => {

@@ -7,7 +7,9 @@ import { afterAll, describe, expect, it } from 'vitest';
 /**
  * server/index.ts as `npm start` runs it (here through tsx, so no build is needed): an empty
  * database is migrated and seeded, the URL and demo sign-ins are printed, SIGTERM stops it
- * cleanly, and a restart on the same database keeps the session.
+ * cleanly, and a restart on the same database keeps the session. Only the demo people are added
+ * here (DEMO_SCENARIO=false): tests/api/demo-seed.test.ts runs the demo scenario, and the browser
+ * test of the README's screenshots starts the built server with it.
  */
 
 const directory = mkdtempSync(join(tmpdir(), 'scorecourt-start-'));
@@ -26,7 +28,7 @@ interface Running {
 
 function start(): Promise<Running> {
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    env: { ...process.env, NODE_ENV: 'development', PORT: '0', DATABASE_PATH: join(directory, 'db.sqlite'), BCRYPT_COST: '4', SMTP_URL: '', LOG_LEVEL: 'warn' },
+    env: { ...process.env, NODE_ENV: 'development', PORT: '0', DATABASE_PATH: join(directory, 'db.sqlite'), BCRYPT_COST: '4', SMTP_URL: '', LOG_LEVEL: 'warn', DEMO_SCENARIO: 'false' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   children.push(child);

@@ -83,7 +83,7 @@ describe('the new-comparison wizard', () => {
       expect([...seen].some((value) => value > 0 && value < 100), `progress values seen: ${[...seen].join(', ')}`).toBe(true);
 
       // Step 2: the uploaded file, its SHA-256, and a name from the file name.
-      await page.getByText('2,000 rows · 8 columns').waitFor();
+      await page.getByText('2,000 rows · 9 columns').waitFor();
       await page.getByText(/^[0-9a-f]{64}$/).waitFor();
       await expect.poll(() => page.getByLabel('Name of the comparison').inputValue()).toBe('tallowmere holdout 2025 sample 2k');
       await page.getByLabel('Name of the comparison').fill('Cash-flow challenger, 2k sample (browser test)');
@@ -190,7 +190,7 @@ describe('the comparison pages', () => {
       const pages: { tab: string; check: () => Promise<unknown>; shot: string }[] = [
         { tab: 'Curves', shot: 'curves', check: () => page.getByRole('heading', { name: 'ROC curve' }).waitFor() },
         { tab: 'Swap sets', shot: 'swap-sets-analyst', check: () => page.getByTestId('swap-matrix').waitFor() },
-        { tab: 'Segments', shot: 'segments', check: () => page.getByRole('rowheader', { name: 'personal-loan' }).waitFor() },
+        { tab: 'Segments', shot: 'segments', check: () => page.getByRole('rowheader', { name: 'personal-loan', exact: true }).waitFor() },
         { tab: 'Bands', shot: 'bands', check: () => page.getByRole('table', { name: 'Champion gains table' }).waitFor() },
         { tab: 'Data', shot: 'data', check: () => page.getByTestId('sha256').waitFor() },
         { tab: 'Verdict', shot: 'verdict-again', check: () => page.getByTestId('verdict-summary').waitFor() },
@@ -308,7 +308,7 @@ describe('problems in the file', () => {
       const all = rows.join('\n');
       expect(byLine(13), all).toContain('challenger_points');
       expect(byLine(58), all).toContain('bad_12m');
-      expect(byLine(102), all).toContain('6 fields');
+      expect(byLine(102), all).toContain('7 fields');
       expect(byLine(151), all).toContain('champion_points');
       await tab.screenshot('wizard-check-problems');
       // No way on to the settings while the data do not fit.

@@ -26,7 +26,9 @@ describe('configuration', () => {
       serveClient: true,
       bcryptCost: 12,
       trustProxy: false,
+      demoScenario: true,
     });
+    expect(loadConfig({ DEMO_SCENARIO: 'false' }).demoScenario).toBe(false);
   });
 
   it('derives PUBLIC_URL from PORT and trims a trailing slash from a given one', () => {

@@ -13,8 +13,9 @@ describe('demo sample data', () => {
   });
 
   it('has about 60,000 accounts with a bad rate near 7%', () => {
-    const rows = files['tallowmere-holdout-2025.csv'].trim().split('\n').slice(1);
-    const bads = rows.filter((row) => row.split(',')[5] === '1').length;
+    const [header, ...rows] = files['tallowmere-holdout-2025.csv'].trim().split('\n');
+    const outcome = header.split(',').indexOf('bad_12m');
+    const bads = rows.filter((row) => row.split(',')[outcome] === '1').length;
     expect(rows).toHaveLength(60_000);
     // Scenario brief: "bad rate about 7%"; the generator's intercept is tuned to it.
     expect(bads / rows.length).toBeGreaterThan(0.065);

@@ -46,7 +46,8 @@ export async function startServer(options: { env?: Record<string, string>; timeo
   const port = await freePort();
   const dir = await mkdtemp(path.join(tmpdir(), 'scorecourt-e2e-'));
   const databasePath = path.join(dir, 'scorecourt.sqlite');
-  const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'development', PORT: String(port), DATABASE_PATH: databasePath, ...options.env };
+  // Only the demo people unless a test asks for the demo's comparisons too (DEMO_SCENARIO: 'true').
+  const env: NodeJS.ProcessEnv = { ...process.env, NODE_ENV: 'development', PORT: String(port), DATABASE_PATH: databasePath, DEMO_SCENARIO: 'false', ...options.env };
   delete env.SMTP_URL; // the server's own SMTP sink captures mail into the outbox
   if (options.env?.SMTP_URL) env.SMTP_URL = options.env.SMTP_URL;
 

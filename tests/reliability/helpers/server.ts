@@ -44,7 +44,7 @@ function exited(child: ChildProcess): Promise<{ code: number | null; signal: Nod
   });
 }
 
-/** The environment of a test server: development, quick bcrypt, quiet logs, loopback only. */
+/** The environment of a test server: development, quick bcrypt, quiet logs, loopback only, no demo comparisons. */
 function baseEnv(port: number, databasePath: string, extra: Record<string, string> = {}): NodeJS.ProcessEnv {
   const env: NodeJS.ProcessEnv = {
     PATH: process.env.PATH,
@@ -57,6 +57,8 @@ function baseEnv(port: number, databasePath: string, extra: Record<string, strin
     BCRYPT_COST: '4',
     LOG_LEVEL: 'warn',
     SERVE_CLIENT: 'false',
+    // The demo people only, not the demo's comparisons (as the browser tests' server helper).
+    DEMO_SCENARIO: 'false',
     ...extra,
   };
   for (const [key, value] of Object.entries(env)) if (value === undefined || value === '') delete env[key];

@@ -59,7 +59,7 @@ describe('compare CLI', () => {
     expect(stdout).toBe('');
     // sample-data/README.md: the first mistake is on line 13, in the challenger's score
     expect(stderr).toBe(
-      'compare: ' + broken + ': row 13, column "challenger_points": the score is missing ("n/a"); rows with a missing score can be left out with the drop-missing option\n',
+      'compare: ' + broken + ': row 13, column "challenger_points": "#VALUE!" is not a number\n',
     );
     const wrongColumn = await run([demo]);
     expect(wrongColumn.status).toBe(2);

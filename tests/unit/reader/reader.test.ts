@@ -205,7 +205,7 @@ describe('validation report', () => {
       [102, null],
       [151, 'champion_points'],
     ]);
-    expect(report.errors[0].message).toBe('row 13, column "challenger_points": the score is missing ("n/a"); rows with a missing score can be left out with the drop-missing option');
+    expect(report.errors[0].message).toBe('row 13, column "challenger_points": "#VALUE!" is not a number');
   });
 
   it('summarises a clean file', async () => {

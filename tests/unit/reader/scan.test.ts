@@ -13,12 +13,13 @@ describe('scanning a holdout', () => {
     expect(scan.rowCount).toBe(60_000);
     expect(scan.sha256).toBe(createHash('sha256').update(readFileSync(path)).digest('hex'));
     expect(scan.preview).toHaveLength(PREVIEW_ROWS);
-    expect(scan.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', '3900', '0', '622', '643']);
+    expect(scan.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', 'credit-card/branch', '3900', '0', '622', '643']);
     expect(Object.fromEntries(scan.columns.map((c) => [c.name, c.kind]))).toEqual({
       account_id: 'text',
       application_month: 'categorical',
       product: 'categorical',
       channel: 'categorical',
+      product_channel: 'categorical',
       loan_amount: 'numeric',
       bad_12m: 'numeric',
       champion_points: 'numeric',
@@ -31,7 +32,7 @@ describe('scanning a holdout', () => {
       challenger: 'challenger_points',
       higherIs: { champion: 'safer', challenger: 'safer' },
       id: 'account_id',
-      segments: ['application_month', 'product', 'channel'],
+      segments: ['application_month', 'product', 'channel', 'product_channel'],
       exposure: 'loan_amount',
     });
     expect(scan.guess.orientationHints.champion).toMatch(/^bads have lower scores: AUC 0\.\d{3} taking higher = safer/);
@@ -77,7 +78,7 @@ describe('scanning a file with mistakes', () => {
     // sample-data/README.md: a short row on line 102, an outcome of 2 on line 58
     const scan = await scanHoldout({ path: sample('tallowmere-holdout-broken.csv') });
     expect(scan.rowCount).toBe(200);
-    expect(scan.problems).toEqual([{ row: 102, column: null, message: 'row 102 has 6 fields, the header has 8' }]);
+    expect(scan.problems).toEqual([{ row: 102, column: null, message: 'row 102 has 7 fields, the header has 9' }]);
     expect(scan.guess).toMatchObject({ outcome: 'bad_12m', badValue: '1', champion: 'champion_points', challenger: 'challenger_points' });
     expect(scan.columns.find((c) => c.name === 'champion_points')).toMatchObject({ kind: 'numeric', missing: 1 });
   });

@@ -1,0 +1,233 @@
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { createComparisonInputSchema, scenarioInputSchema, type ComparisonState } from '@shared/comparisons';
+import { decisionInputSchema, noteInputSchema, reviewInputSchema, submitInputSchema, voteInputSchema } from '@shared/governance';
+import type { ColumnMapping, Report } from '@shared/report';
+import { saveScenario } from '../comparisons/scenarios';
+import { createComparison, currentReportJson, getComparisonDetail } from '../comparisons/service';
+import type { AppContext } from '../context';
+import type { User } from '../db/entities/index';
+import { castVote, recordDecision, reviewComparison, submitComparison } from '../governance/service';
+import { uploadHoldout } from '../holdouts/service';
+import { addNote } from '../notes/service';
+import { projectRoot } from '../runtime';
+import * as words from './wording';
+
+/**
+ * The demo scenario of the first start: three comparisons of Tallowmere Credit Cooperative,
+ * made step by step through the same services the API calls (uploads, comparison creation, the
+ * analysis queue, submission, review, scenarios, notes, votes, decision), each step by the demo
+ * person whose role it is and at its moment of the past weeks (the seed replays the clock):
+ *
+ * 1. decided (adopted): the full 60,000-account holdout, points against points, with its whole
+ *    history — submitted, validated with findings that name the brokered-cards weakness, the
+ *    policy role's saved scenarios and swap-set annotations, discussion, two votes, the decision
+ *    with conditions, and the e-mails each step sends;
+ * 2. in review: the same accounts with the challenger as a PD, submitted, waiting for the analyst;
+ * 3. a draft waiting for its mapping: the 2,000-account sample, uploaded and named.
+ *
+ * The analyses really run (the worker threads of the queue) and finish before a comparison moves
+ * on. Same code and data, same numbers: the bootstrap is seeded and the ids follow from the order.
+ */
+
+export const sampleDataDir = join(projectRoot, 'sample-data');
+
+export const demoFiles = {
+  full: 'tallowmere-holdout-2025.csv',
+  pd: 'tallowmere-holdout-2025-pd.csv',
+  sample: 'tallowmere-holdout-2025-sample-2k.csv',
+} as const;
+
+const baseMapping = {
+  outcome: 'bad_12m',
+  badValue: '1',
+  champion: 'champion_points',
+  id: 'account_id',
+  segments: ['product', 'channel', 'product_channel', 'application_month'],
+  exposure: 'loan_amount',
+} as const;
+
+export const demoMappings: { full: ColumnMapping; pd: ColumnMapping } = {
+  full: { ...baseMapping, segments: [...baseMapping.segments], challenger: 'challenger_points', higherIs: { champion: 'safer', challenger: 'safer' } },
+  pd: { ...baseMapping, segments: [...baseMapping.segments], challenger: 'challenger_pd', higherIs: { champion: 'safer', challenger: 'riskier' } },
+};
+
+/** The analysis settings of both analysed comparisons (the defaults, written out). */
+export const demoSettings = { bootstrap: 2000, seed: 1, confidence: 0.95, approvalRate: 0.7 } as const;
+
+export interface DemoPeople {
+  admin: User;
+  modeler: User;
+  analyst: User;
+  policy: User;
+  committee: User;
+  committee2: User;
+}
+
+export interface DemoComparison {
+  id: number;
+  name: string;
+  state: ComparisonState;
+}
+
+/**
+ * The scenario's calendar: each step's moment as days before today and a time of day (UTC).
+ * The first start happens at any hour, so the newest step is on the day before.
+ */
+export const calendar = {
+  people: [42, 8, 30],
+  uploadFull: [30, 9, 12],
+  createFull: [30, 9, 20],
+  submitFull: [29, 15, 5],
+  validateFull: [24, 14, 30],
+  currentScenario: [22, 10, 40],
+  growthScenario: [22, 10, 52],
+  swapInNote: [22, 11, 5],
+  swapOutNote: [22, 11, 14],
+  modelerNote: [21, 9, 50],
+  committeeQuestion: [20, 16, 15],
+  analystAnswer: [20, 17, 2],
+  policyNote: [18, 11, 30],
+  firstVote: [16, 10, 5],
+  secondVote: [16, 14, 45],
+  decision: [15, 15, 30],
+  uploadPd: [6, 9, 30],
+  createPd: [6, 9, 41],
+  submitPd: [5, 11, 15],
+  uploadSample: [1, 16, 38],
+  createSample: [1, 16, 44],
+} as const satisfies Record<string, readonly [number, number, number]>;
+
+export type CalendarStep = keyof typeof calendar;
+
+/** The moment of a calendar step, counted back from `today` (the real date the seed runs). */
+export function momentOf(step: CalendarStep, today: Date): Date {
+  const [daysBefore, hour, minute] = calendar[step];
+  const midnight = Date.UTC(today.getUTCFullYear(), today.getUTCMonth(), today.getUTCDate());
+  return new Date(midnight - daysBefore * 86_400_000 + (hour * 60 + minute) * 60_000);
+}
+
+/** ISO date (YYYY-MM-DD) `days` after a moment. */
+function dateAfter(moment: Date, days: number): string {
+  return new Date(moment.getTime() + days * 86_400_000).toISOString().slice(0, 10);
+}
+
+export interface ScenarioOptions {
+  /** The real date the calendar counts back from. */
+  today: Date;
+  /** Moves the replayed clock to a calendar step's moment (see clock.ts `replay`). */
+  at: (step: CalendarStep) => void;
+  /** How long to wait for one analysis (default 10 minutes). */
+  analysisTimeoutMs?: number;
+}
+
+export async function playScenario(ctx: AppContext, people: DemoPeople, options: ScenarioOptions): Promise<DemoComparison[]> {
+  const { at } = options;
+  for (const name of Object.values(demoFiles)) {
+    if (!existsSync(join(sampleDataDir, name))) throw new Error(`the demo scenario needs sample-data/${name}, which is missing (npm run sample-data writes it)`);
+  }
+  const upload = (person: User, name: string) => uploadHoldout(ctx, person, { path: join(sampleDataDir, name), originalname: name });
+
+  /** Runs the queue until the comparison's analysis is done; the e-mail it sends is delivered too. */
+  const analysed = async (id: number): Promise<Report> => {
+    await ctx.jobs.whenIdle(options.analysisTimeoutMs ?? 10 * 60_000);
+    const detail = await getComparisonDetail(ctx.dataSource, id);
+    if (detail.state !== 'analysed') {
+      const run = detail.runs[0];
+      throw new Error(`the demo analysis of comparison ${id} did not finish: ${run ? `${run.status}${run.error ? ` (${run.error})` : ''}` : 'no run'}`);
+    }
+    await delivered();
+    return JSON.parse((await currentReportJson(ctx.dataSource, id)).json) as Report;
+  };
+  /** Delivers what the last step queued (to the local sink, or SMTP_URL), so each e-mail is sent at its step's moment. */
+  const delivered = () => ctx.mailer.deliverDue();
+
+  // 1. The decided comparison.
+  at('uploadFull');
+  const fullHoldout = await upload(people.modeler, demoFiles.full);
+  at('createFull');
+  const full = await createComparison(
+    ctx,
+    people.modeler,
+    createComparisonInputSchema.parse({ ...words.comparisons.decided, holdoutId: fullHoldout.id, mapping: demoMappings.full, settings: demoSettings }),
+  );
+  const report = await analysed(full.id);
+
+  at('submitFull');
+  await submitComparison(ctx, people.modeler, full.id, submitInputSchema.parse({ message: words.submissionMessage(report) }));
+  await delivered();
+
+  at('validateFull');
+  await reviewComparison(ctx, people.analyst, full.id, reviewInputSchema.parse({ outcome: 'validated', findings: words.analystFindings(report) }));
+  await delivered();
+
+  at('currentScenario');
+  const current = await saveScenario(
+    ctx,
+    people.policy,
+    full.id,
+    scenarioInputSchema.parse({ name: words.scenarioNames.current, approvalRate: 0.7, note: words.scenarioNote('current') }),
+  );
+  at('growthScenario');
+  const growth = await saveScenario(
+    ctx,
+    people.policy,
+    full.id,
+    scenarioInputSchema.parse({ name: words.scenarioNames.growth, approvalRate: 0.75, note: words.scenarioNote('growth') }),
+  );
+  at('swapInNote');
+  await addNote(ctx, people.policy, full.id, noteInputSchema.parse({ anchor: 'swap-in', body: words.swapInAnnotation(current, growth), scenarioId: current.id }));
+  at('swapOutNote');
+  await addNote(ctx, people.policy, full.id, noteInputSchema.parse({ anchor: 'swap-out', body: words.swapOutAnnotation(current), scenarioId: current.id }));
+
+  at('modelerNote');
+  await addNote(ctx, people.modeler, full.id, noteInputSchema.parse({ body: words.discussion.modelerOnBrokers }));
+  at('committeeQuestion');
+  await addNote(ctx, people.committee2, full.id, noteInputSchema.parse({ body: words.discussion.committeeQuestion }));
+  at('analystAnswer');
+  await addNote(ctx, people.analyst, full.id, noteInputSchema.parse({ body: words.analystAnswer(report) }));
+  at('policyNote');
+  await addNote(ctx, people.policy, full.id, noteInputSchema.parse({ body: words.discussion.policyOnCompliance }));
+
+  at('firstVote');
+  await castVote(ctx, people.committee, full.id, voteInputSchema.parse(words.votes.first));
+  at('secondVote');
+  await castVote(ctx, people.committee2, full.id, voteInputSchema.parse(words.votes.second));
+
+  at('decision');
+  const decidedAt = momentOf('decision', options.today);
+  await recordDecision(
+    ctx,
+    people.committee,
+    full.id,
+    decisionInputSchema.parse({ outcome: 'adopt', ...words.decision(report), effectiveDate: dateAfter(decidedAt, 14) }),
+  );
+  await delivered();
+
+  // 2. In review: the PD-scored variant.
+  at('uploadPd');
+  const pdHoldout = await upload(people.modeler, demoFiles.pd);
+  at('createPd');
+  const pd = await createComparison(
+    ctx,
+    people.modeler,
+    createComparisonInputSchema.parse({ ...words.comparisons.inReview, holdoutId: pdHoldout.id, mapping: demoMappings.pd, settings: demoSettings }),
+  );
+  await analysed(pd.id);
+  at('submitPd');
+  await submitComparison(ctx, people.modeler, pd.id, submitInputSchema.parse({ message: words.pdSubmissionMessage() }));
+  await delivered();
+
+  // 3. A draft waiting for its mapping.
+  at('uploadSample');
+  const sampleHoldout = await upload(people.modeler, demoFiles.sample);
+  at('createSample');
+  const draft = await createComparison(ctx, people.modeler, createComparisonInputSchema.parse({ ...words.comparisons.draft, holdoutId: sampleHoldout.id }));
+
+  const made: DemoComparison[] = [];
+  for (const id of [full.id, pd.id, draft.id]) {
+    const detail = await getComparisonDetail(ctx.dataSource, id);
+    made.push({ id, name: detail.name, state: detail.state });
+  }
+  return made;
+}

@@ -1,0 +1,158 @@
+import type { Scenario } from '@shared/comparisons';
+import type { Report, SegmentRow } from '@shared/report';
+
+/**
+ * What the demo people write: the submission message, the analyst's findings, the policy role's
+ * annotations, the discussion, the votes and the decision. Every figure in these texts is taken
+ * from the stored report or the saved scenario it talks about, so the words always agree with
+ * the numbers on the pages (the seed test checks a few of them).
+ */
+
+const count = (value: number) => value.toLocaleString('en-US');
+const gini = (value: number) => (value * 100).toFixed(1);
+const signed = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
+const percent = (value: number | null, digits = 1) => (value === null ? 'n/a' : `${(value * 100).toFixed(digits)}%`);
+
+function pText(p: number): string {
+  return p < 0.001 ? 'p < 0.001' : `p = ${p.toFixed(3)}`;
+}
+
+export function segment(report: Report, column: string, value: string): SegmentRow {
+  const row = report.segments.find((candidate) => candidate.column === column && candidate.value === value);
+  if (!row || row.deltaGini === null || row.championGini === null || row.challengerGini === null) {
+    throw new Error(`the demo report has no usable segment ${column} = ${value}`);
+  }
+  return row;
+}
+
+/** The range of ΔGini over one segment column's values, e.g. "+0.9 to +7.0". */
+function deltaRange(report: Report, column: string): string {
+  const deltas = report.segments.filter((row) => row.column === column && row.deltaGini !== null).map((row) => row.deltaGini!);
+  return `${signed(Math.min(...deltas))} to ${signed(Math.max(...deltas))}`;
+}
+
+/** 95% interval of a segment's ΔGini from its DeLong standard error (normal quantile 1.96). */
+function segmentInterval(row: SegmentRow): string {
+  if (row.giniSe === null) return '';
+  return ` (95% interval ${signed(row.deltaGini! - 1.96 * row.giniSe)} to ${signed(row.deltaGini! + 1.96 * row.giniSe)})`;
+}
+
+export const brokeredCards = { column: 'product_channel', value: 'credit-card/broker' } as const;
+
+export function submissionMessage(report: Report): string {
+  return [
+    `Full 2025 out-of-time holdout, ${count(report.rows)} accounts scored by both models; bootstrap ${count(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed}.`,
+    'Segments: product, channel, product × channel and application month. Please look closely at the broker channel: the cash-flow fields arrive from the brokers, not from our own bank-statement feed.',
+  ].join('\n\n');
+}
+
+export function analystFindings(report: Report): string {
+  const { champion, challenger, difference } = report;
+  const cards = segment(report, brokeredCards.column, brokeredCards.value);
+  const broker = segment(report, 'channel', 'broker');
+  const brokeredLoans = segment(report, 'product_channel', 'personal-loan/broker');
+  const quality = report.dataQuality;
+  return [
+    `Validated on the full 2025 out-of-time holdout: ${count(report.rows)} accounts, ${count(report.bads)} bads (bad rate ${percent(report.badRate, 2)}).`,
+    `Discrimination. Challenger Gini ${gini(challenger.gini)} against ${gini(champion.gini)} for the champion: ΔGini ${signed(difference.gini)} points, 95% interval ${signed(difference.giniCi[0])} to ${signed(difference.giniCi[1])} (DeLong, one-sided ${pText(difference.pOneSided)}). ` +
+      (difference.giniBootstrapCi
+        ? `The paired bootstrap (${count(report.bootstrap.replicates)} replicates) gives ${signed(difference.giniBootstrapCi[0])} to ${signed(difference.giniBootstrapCi[1])}, in line with DeLong. `
+        : '') +
+      `KS ${gini(challenger.ks)} against ${gini(champion.ks)}. The gain is significant and above the 2-point materiality threshold.`,
+    `Stability. The difference is positive in every application month (${deltaRange(report, 'application_month')} points) and in both products (personal loans ${signed(segment(report, 'product', 'personal-loan').deltaGini!)}, cards ${signed(segment(report, 'product', 'credit-card').deltaGini!)}).`,
+    `Weakness: brokered cards. In ${brokeredCards.column} = ${brokeredCards.value} (${count(cards.n)} accounts, ${count(cards.bads)} bads) the challenger is worse than the champion: Gini ${gini(cards.challengerGini!)} against ${gini(cards.championGini!)}, ΔGini ${signed(cards.deltaGini!)}${segmentInterval(cards)}. ` +
+      `The broker channel as a whole shows ${signed(broker.deltaGini!)} only because brokered personal loans still gain ${signed(brokeredLoans.deltaGini!)}. ` +
+      'Brokered card applications carry the broker-supplied cash-flow fields, which we do not verify, and the challenger leans on them. I recommend that the champion keeps deciding brokered card applications until that feed is verified.',
+    `Data. ${count(quality.rowsUsed)} of ${count(quality.rowsRead)} rows used, no missing scores${quality.duplicateIds === 0 ? ', no duplicate account ids' : ''}${quality.warnings.length > 0 ? `; warnings: ${quality.warnings.join('; ')}` : '; no data-quality warnings'}.`,
+  ].join('\n\n');
+}
+
+export const scenarioNames = {
+  current: 'Current approval rate (70%)',
+  growth: 'Growth case (75%)',
+} as const;
+
+export function scenarioNote(kind: keyof typeof scenarioNames): string {
+  return kind === 'current'
+    ? 'The approval rate we run today across personal loans and cards.'
+    : 'The growth case in the 2026 plan: five points more approvals at the same risk appetite.';
+}
+
+export function swapInAnnotation(current: Scenario, growth: Scenario): string {
+  return [
+    `At our 70% approval rate the challenger swaps in ${count(current.swapIn.count)} accounts with a ${percent(current.swapIn.badRate)} bad rate for ${count(current.swapOut.count)} swapped out at ${percent(current.swapOut.badRate)}: a better book at about the same volume.`,
+    `At 75% the swap-in is ${count(growth.swapIn.count)} accounts at ${percent(growth.swapIn.badRate)} against ${count(growth.swapOut.count)} at ${percent(growth.swapOut.badRate)}, so the growth case also favours the challenger.`,
+    'Brokered cards are the exception (see the segments page): we will keep the champion cut-off for them, so their swap-ins are not taken on.',
+  ].join(' ');
+}
+
+export function swapOutAnnotation(current: Scenario): string {
+  return (
+    `The ${count(current.swapOut.count)} accounts the challenger would decline at 70% need adverse-action reasons from the new model before go-live. ` +
+    'The swap-out list is exported for Compliance to review for fair-lending effects alongside the reason codes.'
+  );
+}
+
+export const discussion = {
+  modelerOnBrokers:
+    'On brokered cards: the data team has a fix in progress. From next quarter the broker cash-flow fields will be replaced by our own bank-statement retrieval for card applications, as for direct applications. We can re-run the comparison on the first months of applications after it is live.',
+  committeeQuestion:
+    'If we adopt with the champion kept for brokered cards, what is left of the gain? I would like to see it confirmed before we vote.',
+  policyOnCompliance: 'Compliance has the swap-out list and the reason-code mapping; their review found no concern to hold the decision.',
+} as const;
+
+/** The analyst's answer to the committee's question: how much of the gain the brokered-cards condition leaves. */
+export function analystAnswer(report: Report): string {
+  const cards = segment(report, brokeredCards.column, brokeredCards.value);
+  const others = report.segments.filter((row) => row.column === brokeredCards.column && row.value !== brokeredCards.value && row.deltaGini !== null);
+  const deltas = others.map((row) => row.deltaGini!);
+  return (
+    `Brokered cards are ${percent(cards.n / report.rows, 0)} of the holdout. Every other product × channel cell gains on its own, between ${signed(Math.min(...deltas))} and ${signed(Math.max(...deltas))} Gini points (segments page, product_channel), ` +
+    'so keeping the champion for brokered cards costs little of the uplift.'
+  );
+}
+
+export const votes = {
+  first: {
+    vote: 'adopt',
+    comment: 'Adopt, with the champion kept for brokered cards until the broker feed is verified, and monthly monitoring of the swap-in.',
+  },
+  second: {
+    vote: 'adopt',
+    comment: 'Adopt. The uplift is material and well beyond noise, and the swap-in book at our approval rate is better than what it replaces. Same conditions.',
+  },
+} as const;
+
+export function decision(report: Report): { rationale: string; conditions: string } {
+  return {
+    rationale:
+      `The challenger separates good from bad borrowers better on the 2025 out-of-time holdout (ΔGini ${signed(report.difference.gini)} points, DeLong one-sided ${pText(report.difference.pOneSided)}), ` +
+      'consistently across months and products, and at our 70% approval rate it swaps in a book with a lower bad rate than the one it swaps out. Validation found one weakness, brokered cards, which the conditions address.',
+    conditions: [
+      '1. Brokered credit-card applications (product credit-card, channel broker) keep the champion’s decision until the broker cash-flow feed is replaced by verified bank-statement data and a re-run shows the challenger at least level there.',
+      '2. Monitor the swap-in bad rate monthly against the swap-out’s at the 70% approval cut-off; report to the committee at 3 and 6 months on book.',
+      '3. Adverse-action reason codes from the challenger and the Compliance fair-lending review complete before go-live.',
+      '4. Re-validate after 12 months or on any change to the cash-flow inputs.',
+    ].join('\n'),
+  };
+}
+
+export function pdSubmissionMessage(): string {
+  return 'Same 2025 accounts, with the challenger as the probability of default the scoring service returns (higher = riskier). It should rank exactly as the points version; please confirm the orientation before we wire the PD into the decision engine.';
+}
+
+export const comparisons = {
+  decided: {
+    name: 'Cash-flow challenger CF-3 vs application scorecard AS-19 — 2025 holdout',
+    description:
+      'The challenger adds cash-flow features from bank-statement data to the bureau and application data of the current scorecard. Out-of-time holdout: all applications booked January–December 2025, outcome 90+ days past due or charged off within 12 months.',
+  },
+  inReview: {
+    name: 'CF-3 as probability of default vs AS-19 — 2025 holdout',
+    description: 'The same accounts and outcome, with the challenger delivered as a PD by the scoring service (higher = riskier) instead of points.',
+  },
+  draft: {
+    name: 'Quick look: 2,000-account sample of the 2025 holdout',
+    description: 'An evenly spaced sample, to try an alternative cut-off set-up before the full run. Mapping to follow.',
+  },
+} as const;

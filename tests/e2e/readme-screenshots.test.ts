@@ -1,0 +1,152 @@
+/**
+ * The README's five-minute walkthrough, in a real browser against the compiled server started on
+ * an empty database with the demo scenario (as `npm start` does on first start): each demo person
+ * signs in and opens the pages the walkthrough names; the test checks that each page shows the
+ * demo's story and takes the walkthrough's screenshots.
+ *
+ * The screenshots go to tests/artifacts/screenshots/readme/; with UPDATE_README_SCREENSHOTS=1 they
+ * replace the committed ones in docs/screenshots/ (the pages show dates, so they change from day
+ * to day: update them on purpose, and look at every one before committing it):
+ *
+ *   UPDATE_README_SCREENSHOTS=1 npm run test:e2e -- tests/e2e/readme-screenshots.test.ts
+ */
+import { mkdir } from 'node:fs/promises';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { type Browser, type Locator, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { paths } from '@/config/paths';
+import { ApiSession } from './helpers/api';
+import { type TestPage, launchBrowser, openPage, screenshotDir } from './helpers/browser';
+import { type RunningServer, startServer } from './helpers/server';
+import { type DemoPerson, signInAs } from './helpers/session';
+
+const committedDir = fileURLToPath(new URL('../../docs/screenshots', import.meta.url));
+const outputDir = process.env.UPDATE_README_SCREENSHOTS === '1' ? committedDir : path.join(screenshotDir, 'readme');
+
+let server: RunningServer;
+let browser: Browser;
+const ids = { decided: 0, inReview: 0, draft: 0 };
+
+beforeAll(async () => {
+  // The first start analyses two 60,000-account holdouts before it listens.
+  server = await startServer({ env: { DEMO_SCENARIO: 'true' }, timeoutMs: 180_000 });
+  browser = await launchBrowser();
+  const reader = new ApiSession(server.url);
+  await reader.signIn('analyst@tallowmere.test');
+  const { body } = await reader.request<{ items: { id: number; state: string }[] }>('GET', '/api/comparisons');
+  const byState = (state: string) => body.items.find((item) => item.state === state)?.id ?? 0;
+  ids.decided = byState('decided');
+  ids.inReview = byState('in-review');
+  ids.draft = byState('draft');
+  expect(ids, server.output().slice(-3000)).toEqual({ decided: expect.any(Number), inReview: expect.any(Number), draft: expect.any(Number) });
+  expect(Object.values(ids).every((id) => id > 0)).toBe(true);
+}, 240_000);
+
+afterAll(async () => {
+  await browser?.close();
+  await server?.stop();
+});
+
+async function asPerson(person: DemoPerson, run: (tab: TestPage) => Promise<void>) {
+  const tab = await openPage(browser, server.url, { width: 1280, height: 800 });
+  try {
+    await signInAs(tab.page, person);
+    await run(tab);
+    expect(tab.unexpectedErrors(), `console errors:\n${tab.consoleErrors.join('\n')}\nserver:\n${server.output().slice(-2000)}`).toEqual([]);
+  } finally {
+    await tab.close();
+  }
+}
+
+/** The visible window (1280 × 800), after scrolling `from` near the top when given. */
+async function capture(page: Page, name: string, from?: Locator): Promise<void> {
+  await mkdir(outputDir, { recursive: true });
+  if (from) {
+    await from.evaluate((element) => {
+      element.scrollIntoView({ block: 'start' });
+      window.scrollBy(0, -24);
+    });
+  }
+  // Let charts finish their entrance and fonts settle.
+  await page.waitForTimeout(500);
+  await page.screenshot({ path: path.join(outputDir, `${name}.png`) });
+}
+
+const heading = (page: Page, name: string) => page.getByRole('heading', { name, exact: true }).first();
+
+describe('the README walkthrough on the demo database', () => {
+  it('modeler: the comparisons list, and the draft waiting for its mapping', async () => {
+    await asPerson('modeler', async ({ page }) => {
+      await page.goto(paths.comparisons.list());
+      await page.getByRole('heading', { level: 1, name: 'Comparisons' }).waitFor();
+      const main = page.locator('main');
+      await main.getByText('Cash-flow challenger CF-3 vs application scorecard AS-19 — 2025 holdout').waitFor();
+      const text = await main.innerText();
+      for (const name of ['CF-3 as probability of default vs AS-19 — 2025 holdout', 'Quick look: 2,000-account sample of the 2025 holdout']) expect(text).toContain(name);
+      await capture(page, '1-modeler-comparisons');
+
+      await page.getByRole('link', { name: 'Quick look: 2,000-account sample of the 2025 holdout' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Map the columns' }).waitFor();
+      expect(new URL(page.url()).pathname).toBe(paths.comparisons.setup(ids.draft));
+      expect(await page.getByLabel('Outcome column').inputValue()).toBe('bad_12m');
+      await capture(page, '2-modeler-mapping', heading(page, 'Columns'));
+    });
+  });
+
+  it('analyst: the verdict of the comparison in review, and the segment where the challenger is worse', async () => {
+    await asPerson('analyst', async ({ page }) => {
+      await page.goto(paths.comparisons.detail(ids.inReview));
+      await page.getByRole('heading', { level: 1, name: 'CF-3 as probability of default vs AS-19 — 2025 holdout' }).waitFor();
+      await page.getByText(/supported/i).first().waitFor();
+      await capture(page, '3-analyst-verdict');
+
+      await page.goto(paths.comparisons.segments(ids.decided));
+      const row = page.getByRole('row', { name: /credit-card\/broker/ });
+      await row.waitFor();
+      expect(await row.innerText()).toContain('(worse)');
+      await capture(page, '4-analyst-segments', heading(page, 'Segments'));
+
+      // The review form of the comparison waiting for them.
+      await page.goto(paths.comparisons.review(ids.inReview));
+      await page.getByRole('textbox', { name: 'Findings' }).waitFor();
+      await capture(page, '5-analyst-review', heading(page, 'Where it stands'));
+    });
+  });
+
+  it('policy: the swap sets at the approval rate they run, with their annotations', async () => {
+    await asPerson('policy', async ({ page }) => {
+      await page.goto(`${paths.comparisons.swapSets(ids.decided)}?rate=0.7`);
+      const notes = page.getByTestId('swap-set-notes');
+      await notes.getByText(/At our 70% approval rate the challenger swaps in/).waitFor();
+      const grid = await page.locator('main').innerText();
+      expect(grid).toContain('Swap-in');
+      expect(grid).toContain('Growth case (75%)');
+      await capture(page, '6-policy-swap-sets', heading(page, 'Who each model accepts'));
+      await capture(page, '7-policy-scenarios-and-annotations', heading(page, 'Saved scenarios'));
+    });
+  });
+
+  it('committee: the decided comparison with its review, votes and decision', async () => {
+    await asPerson('committee', async ({ page }) => {
+      await page.goto(paths.comparisons.review(ids.decided));
+      await page.getByRole('heading', { level: 2, name: 'Where it stands' }).waitFor();
+      const decision = page.getByTestId('decision');
+      expect(await decision.innerText()).toMatch(/Adopt the challenger[\s\S]*Henrik Aalto/);
+      expect(await page.getByTestId('chain-status').innerText()).toContain('The audit chain verifies');
+      await capture(page, '8-committee-decision', heading(page, 'Committee votes'));
+    });
+  });
+
+  it('admin: the outbox with the e-mails the workflow sent', async () => {
+    await asPerson('admin', async ({ page }) => {
+      await page.goto(paths.admin.outbox());
+      await page.getByRole('heading', { level: 1, name: 'Outbox' }).waitFor();
+      const text = await page.locator('main').innerText();
+      for (const subject of ['Ready for review: CF-3 as probability of default', 'Decision recorded: Cash-flow challenger CF-3', 'Validated, waiting for the committee: Cash-flow challenger CF-3']) {
+        expect(text).toContain(subject);
+      }
+      await capture(page, '9-admin-outbox');
+    });
+  });
+});
