@@ -100,6 +100,11 @@ export const governanceSchema = z.object({
   decision: decisionSchema.nullable(),
   verdicts: z.array(verdictRecordSchema),
   quorum: z.number().int(),
+  /**
+   * The people who shaped the evidence — created the comparison, uploaded one of its holdouts or
+   * set up one of its analyses. The four-eyes rule bars them from reviewing, voting on or deciding it.
+   */
+  authors: z.array(personRefSchema),
 });
 export type Governance = z.infer<typeof governanceSchema>;
 

@@ -1,7 +1,7 @@
 import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
-import type { DataSource, EntityManager } from 'typeorm';
+import { In, type DataSource, type EntityManager } from 'typeorm';
 import { findComparison } from '../comparisons/service';
-import { AnalysisRun, Review, Vote, type Comparison } from '../db/entities/index';
+import { AnalysisRun, Holdout, Review, User, Vote, type Comparison } from '../db/entities/index';
 import { conflict, forbidden } from '../errors';
 
 /** Look-ups and rules the governance steps share. */
@@ -13,14 +13,36 @@ export function loadComparison(source: Source, id: number): Promise<Comparison> 
   return findComparison(source, id);
 }
 
-/** The person who created the comparison or uploaded its holdout: they cannot review, vote on or decide it. */
-export function isOwnComparison(comparison: Comparison, user: { id: number }): boolean {
-  return comparison.createdById === user.id || comparison.holdout?.uploadedById === user.id;
+/**
+ * The ids of the people who shaped a comparison's evidence: its creator, the uploader of its
+ * holdout and of every holdout one of its runs used, and whoever set up one of its runs. The
+ * four-eyes rule keeps each of them from reviewing, voting on or deciding it.
+ */
+export async function authorsOf(source: Source, comparison: Comparison): Promise<Set<number>> {
+  const authors = new Set<number>([comparison.createdById]);
+  if (comparison.holdout) authors.add(comparison.holdout.uploadedById);
+  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true } });
+  const holdoutIds = new Set<number>([comparison.holdoutId]);
+  for (const run of runs) {
+    authors.add(run.requestedById);
+    holdoutIds.add(run.holdoutId);
+  }
+  const holdouts = await source.getRepository(Holdout).find({ where: { id: In([...holdoutIds]) }, select: { id: true, uploadedById: true } });
+  for (const holdout of holdouts) authors.add(holdout.uploadedById);
+  return authors;
 }
 
-export function forbidOwn(comparison: Comparison, user: { id: number }, step: 'review' | 'vote on' | 'decide'): void {
-  if (isOwnComparison(comparison, user)) {
-    throw forbidden(`You created this comparison or uploaded its holdout, so you cannot ${step} it: someone else must (four-eyes rule).`);
+/** The authors as people, in id order (for the review page). */
+export async function authorRefs(source: Source, authors: ReadonlySet<number>): Promise<{ id: number; name: string }[]> {
+  const people = await source.getRepository(User).find({ where: { id: In([...authors]) }, select: { id: true, name: true }, order: { id: 'ASC' } });
+  return people.map((person) => ({ id: person.id, name: person.name }));
+}
+
+export function forbidOwn(authors: ReadonlySet<number>, user: { id: number }, step: 'review' | 'vote on' | 'decide'): void {
+  if (authors.has(user.id)) {
+    throw forbidden(
+      `You created this comparison, uploaded its holdout or set up one of its analyses, so you cannot ${step} it: someone else must (four-eyes rule).`,
+    );
   }
 }
 

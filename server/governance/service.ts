@@ -13,7 +13,7 @@ import { currentPolicy } from '../policy/service';
 import { comparisonLink } from './links';
 import { decidedMail, returnedMail, submittedMail, validatedMail } from './mail';
 import { presentDecision, presentReview, presentVerdictRecord, presentVote, voteChoices } from './present';
-import { countingVotes, currentRound, forbidOwn, isOwnComparison, latestReview, loadComparison, newestRun, requireState } from './records';
+import { authorRefs, authorsOf, countingVotes, currentRound, forbidOwn, latestReview, loadComparison, newestRun, requireState } from './records';
 
 /**
  * The review workflow (DESIGN.md "Workflow and roles"): submit (modeler), review (analyst),
@@ -69,7 +69,8 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
       details: { runId: run.id, message: input.message },
     });
     const link = comparisonLink(ctx.config.publicUrl, id, 'review');
-    const analysts = (await activeWithRole(manager, 'analyst')).filter((person) => !isOwnComparison(comparison, person));
+    const authors = await authorsOf(manager, comparison);
+    const analysts = (await activeWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
     await queueAll(
       ctx,
       manager,
@@ -94,7 +95,8 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
 export async function reviewComparison(ctx: AppContext, actor: User, id: number, input: ReviewInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
-    forbidOwn(comparison, actor, 'review');
+    const authors = await authorsOf(manager, comparison);
+    forbidOwn(authors, actor, 'review');
     requireState(comparison, ['in-review']);
     const run = await newestRun(manager, id);
     // Set-up is refused while in review, so the newest run is the done run that was submitted.
@@ -117,7 +119,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
     if (input.outcome === 'validated') {
       const { quorum } = await currentPolicy(manager);
       const link = comparisonLink(ctx.config.publicUrl, id, 'review');
-      const committee = (await activeWithRole(manager, 'committee')).filter((person) => !isOwnComparison(comparison, person));
+      const committee = (await activeWithRole(manager, 'committee')).filter((person) => !authors.has(person.id));
       await queueAll(
         ctx,
         manager,
@@ -144,7 +146,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
 export async function castVote(ctx: AppContext, actor: User, id: number, input: VoteInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
-    forbidOwn(comparison, actor, 'vote on');
+    forbidOwn(await authorsOf(manager, comparison), actor, 'vote on');
     requireState(comparison, ['validated']);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
@@ -180,7 +182,7 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
 export async function recordDecision(ctx: AppContext, actor: User, id: number, input: DecisionInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await loadComparison(manager, id);
-    forbidOwn(comparison, actor, 'decide');
+    forbidOwn(await authorsOf(manager, comparison), actor, 'decide');
     requireState(comparison, ['validated']);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
@@ -261,6 +263,7 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
     .getRepository(VerdictRecord)
     .find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { createdBy: true } });
   const policy = await currentPolicy(source);
+  const authors = await authorRefs(source, await authorsOf(source, comparison));
   return {
     state: comparison.state,
     createdBy: { id: comparison.createdBy.id, name: comparison.createdBy.name },
@@ -269,5 +272,6 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
     decision: decision ? presentDecision(decision) : null,
     verdicts: verdicts.map(presentVerdictRecord),
     quorum: policy.quorum,
+    authors,
   };
 }

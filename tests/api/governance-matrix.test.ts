@@ -161,6 +161,29 @@ describe('workflow: the 403/409 matrix', () => {
     expect(await stateOf(id)).toBe('in-review');
   });
 
+  it('the person who set up one of its analyses cannot review, vote on or decide it, and the review page names them', async () => {
+    // A modeler who also serves on the committee and as an analyst re-runs a colleague's comparison.
+    const { user: rerunner, client: rerunnerClient } = await personWith(t, 'rerunner@tallowmere.test', ['modeler', 'analyst', 'committee']);
+    const upload = await uploadFile(clients.get('modeler')!, sample2k(), 'colleague.csv');
+    const created = await clients.get('modeler')!.post('/api/comparisons', { name: 'Re-run by a colleague', holdoutId: (upload.body as { id: number }).id });
+    expect(created.status).toBe(201);
+    const id = (created.body as { id: number }).id;
+    await ok(rerunnerClient.send('put', `/api/comparisons/${id}/setup`, { mapping: sampleMapping, settings: { bootstrap: 0 } }));
+    await waitForRuns(t);
+    await ok(clients.get('modeler')!.post(`/api/comparisons/${id}/submit`, {}));
+    const review = await rerunnerClient.post(`/api/comparisons/${id}/review`, steps.validate.body);
+    expect(review.status).toBe(403);
+    expect((review.body as { error: { message: string } }).error.message).toMatch(/set up one of its analyses.*four-eyes/);
+    await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, steps.validate.body));
+    for (const step of ['vote', 'decide'] as const) {
+      const response = await rerunnerClient.post(`/api/comparisons/${id}/${steps[step].path}`, steps[step].body);
+      expect(response.status, step).toBe(403);
+    }
+    expect(await stateOf(id)).toBe('validated');
+    const governance = (await rerunnerClient.get(`/api/comparisons/${id}/governance`)).body as { authors: { id: number }[] };
+    expect(governance.authors.map((author) => author.id)).toContain(rerunner.id);
+  });
+
   it('answers 404 for a comparison that does not exist, before any state rule', async () => {
     const response = await clients.get('analyst')!.post('/api/comparisons/999999/review', steps.validate.body);
     expect(response.status).toBe(404);

@@ -8,7 +8,7 @@ import { quorumText, tally, viewerActions } from '@/features/governance/lib/work
  * tests/api/governance-matrix.test.ts): the step's role, its starting state, and the four-eyes
  * rule for review, votes and the decision.
  */
-const base = { createdById: 1, latestRunStatus: 'done' as const, hasReport: true };
+const base = { authorIds: [1], latestRunStatus: 'done' as const, hasReport: true };
 const person = (id: number, roles: Role[]) => ({ id, roles });
 
 describe('viewerActions', () => {

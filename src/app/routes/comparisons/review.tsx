@@ -58,7 +58,7 @@ export function Component() {
   const g = governance.data;
   const actions = viewerActions({
     state: g.state,
-    createdById: g.createdBy.id,
+    authorIds: g.authors.map((author) => author.id),
     user,
     latestRunStatus: comparison.runs[0]?.status ?? null,
     hasReport: comparison.currentRunId !== null,

@@ -3,8 +3,8 @@ import { type Governance, type VoteChoice, voteChoiceSchema } from '@shared/gove
 import { type Role } from '@shared/roles';
 
 /**
- * What the person looking at the review page may do now, from the comparison's state, who created
- * it and the person's roles — the same rules the server applies (server/governance/service.ts),
+ * What the person looking at the review page may do now, from the comparison's state, who shaped
+ * its evidence and the person's roles — the same rules the server applies (server/governance/service.ts),
  * so the page offers only what will be accepted and says why the rest is not theirs to do. The
  * server decides; this only shapes the page. Pure, so it is tested on its own.
  */
@@ -22,7 +22,8 @@ export interface ViewerActions {
 
 export interface WorkflowInput {
   state: ComparisonState;
-  createdById: number;
+  /** Who shaped the evidence (Governance.authors): barred from reviewing, voting and deciding. */
+  authorIds: readonly number[];
   user: { id: number; roles: readonly Role[] };
   /** The newest run's status, null without runs. */
   latestRunStatus: 'queued' | 'running' | 'done' | 'failed' | null;
@@ -33,12 +34,13 @@ const allowed: Permission = { kind: 'allowed' };
 const hidden: Permission = { kind: 'hidden' };
 const refused = (reason: string): Permission => ({ kind: 'refused', reason });
 
-const ownReason = 'You created this comparison, so someone else must do this (four-eyes rule).';
+const ownReason =
+  'You created this comparison, uploaded its holdout or set up one of its analyses, so someone else must do this (four-eyes rule).';
 
 export function viewerActions(input: WorkflowInput): ViewerActions {
   const { state, user } = input;
   const has = (role: Role) => user.roles.includes(role);
-  const own = input.createdById === user.id;
+  const own = input.authorIds.includes(user.id);
 
   let submit: Permission = hidden;
   if (has('modeler')) {
