@@ -209,6 +209,11 @@ export const comparisonDetailSchema = comparisonSummarySchema.extend({
   runs: z.array(analysisRunSchema),
   /** The run whose report the comparison pages show: the newest done run, else null. */
   currentRunId: z.number().int().nullable(),
+  /**
+   * The ids of the people who shaped the evidence (created it, uploaded one of its holdouts, set up
+   * one of its analyses), in id order: the four-eyes rule bars them from reviewing, voting and deciding.
+   */
+  authorIds: z.array(z.number().int()),
 });
 export type ComparisonDetail = z.infer<typeof comparisonDetailSchema>;
 

@@ -35,7 +35,7 @@ export function presentSummary(comparison: Comparison, latestRun: AnalysisRun | 
 }
 
 /** `runs` newest first. */
-export function presentDetail(comparison: Comparison, runs: AnalysisRun[]): ComparisonDetail {
+export function presentDetail(comparison: Comparison, runs: AnalysisRun[], authors: ReadonlySet<number>): ComparisonDetail {
   const current = runs.find((run) => run.status === 'done') ?? null;
   const summary = presentSummary(comparison, runs[0] ?? null, current);
   return {
@@ -53,5 +53,6 @@ export function presentDetail(comparison: Comparison, runs: AnalysisRun[]): Comp
     },
     runs: runs.map(presentRun),
     currentRunId: current?.id ?? null,
+    authorIds: [...authors].sort((a, b) => a - b),
   };
 }

@@ -16,6 +16,7 @@ import { inTransaction } from '../db/transaction';
 import { conflict, notFound } from '../errors';
 import type { EncodedColumn } from '../holdouts/columns';
 import { findHoldout, mapHoldout } from '../holdouts/service';
+import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
 import { transition } from './state';
 
@@ -230,7 +231,7 @@ export async function getComparisonDetail(source: DataSource | EntityManager, id
     order: { id: 'DESC' },
     select: { id: true, comparisonId: true, status: true, progress: true, stage: true, attempts: true, error: true, engineVersion: true, queuedAt: true, startedAt: true, finishedAt: true, headline: true },
   });
-  return presentDetail(comparison, runs);
+  return presentDetail(comparison, runs, await authorsOf(source, comparison));
 }
 
 const sortSql: Record<ListComparisonsQuery['sort'], string> = {

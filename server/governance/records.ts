@@ -1,7 +1,8 @@
 import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { findComparison } from '../comparisons/service';
-import { AnalysisRun, Holdout, Review, User, Vote, type Comparison } from '../db/entities/index';
+export { authorsOf } from '../comparisons/authors';
+import { AnalysisRun, Review, User, Vote, type Comparison } from '../db/entities/index';
 import { conflict, forbidden } from '../errors';
 
 /** Look-ups and rules the governance steps share. */
@@ -11,25 +12,6 @@ type Source = DataSource | EntityManager;
 /** The comparison with its creator and holdout (for the four-eyes rule), or 404. */
 export function loadComparison(source: Source, id: number): Promise<Comparison> {
   return findComparison(source, id);
-}
-
-/**
- * The ids of the people who shaped a comparison's evidence: its creator, the uploader of its
- * holdout and of every holdout one of its runs used, and whoever set up one of its runs. The
- * four-eyes rule keeps each of them from reviewing, voting on or deciding it.
- */
-export async function authorsOf(source: Source, comparison: Comparison): Promise<Set<number>> {
-  const authors = new Set<number>([comparison.createdById]);
-  if (comparison.holdout) authors.add(comparison.holdout.uploadedById);
-  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true } });
-  const holdoutIds = new Set<number>([comparison.holdoutId]);
-  for (const run of runs) {
-    authors.add(run.requestedById);
-    holdoutIds.add(run.holdoutId);
-  }
-  const holdouts = await source.getRepository(Holdout).find({ where: { id: In([...holdoutIds]) }, select: { id: true, uploadedById: true } });
-  for (const holdout of holdouts) authors.add(holdout.uploadedById);
-  return authors;
 }
 
 /** The authors as people, in id order (for the review page). */

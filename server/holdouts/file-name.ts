@@ -1,7 +1,8 @@
 /**
  * The client's file name, made safe to show and to put in a report: only the last path segment
  * (either slash), no control or bidirectional-override characters, no leading dots, at most 200
- * characters; `holdout.csv` when nothing is left. It is never used as a path: stored files and
+ * characters (a longer name loses characters before its extension, so `….csv` stays `.csv`);
+ * `holdout.csv` when nothing is left. It is never used as a path: stored files and
  * holdouts are named by the database's ids.
  */
 const MAX_LENGTH = 200;
@@ -16,5 +17,9 @@ export function sanitiseFileName(original: string | undefined | null): string {
     .replace(/^[.\s]+/, '')
     .trim();
   if (cleaned.length === 0) return 'holdout.csv';
-  return [...cleaned].slice(0, MAX_LENGTH).join('');
+  const characters = [...cleaned];
+  if (characters.length <= MAX_LENGTH) return cleaned;
+  const extension = /\.[^.\s]{1,10}$/u.exec(cleaned)?.[0] ?? '';
+  const extensionLength = [...extension].length;
+  return characters.slice(0, MAX_LENGTH - extensionLength).join('').trimEnd() + extension;
 }

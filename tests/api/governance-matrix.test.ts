@@ -182,6 +182,10 @@ describe('workflow: the 403/409 matrix', () => {
     expect(await stateOf(id)).toBe('validated');
     const governance = (await rerunnerClient.get(`/api/comparisons/${id}/governance`)).body as { authors: { id: number }[] };
     expect(governance.authors.map((author) => author.id)).toContain(rerunner.id);
+    // The comparison itself names them too, so every page's next-step hint can apply the rule.
+    const detail = (await rerunnerClient.get(`/api/comparisons/${id}`)).body as { authorIds: number[]; createdBy: { id: number } };
+    expect(detail.authorIds).toEqual(governance.authors.map((author) => author.id));
+    expect(detail.authorIds).toEqual(expect.arrayContaining([rerunner.id, detail.createdBy.id]));
   });
 
   it('answers 404 for a comparison that does not exist, before any state rule', async () => {

@@ -8,12 +8,15 @@ import { type NextStepInput, nextStep, nextSteps } from '@/features/comparisons/
 // decided; returned goes back to the modeler.
 
 const creatorId = 1;
+/** Uploaded the holdout or set up an analysis: barred by four-eyes like the creator. */
+const uploaderId = 3;
 function input(state: ComparisonState, roles: Role[], extra: Partial<NextStepInput> = {}): NextStepInput {
   return {
     state,
     latestRun: state === 'draft' ? null : { status: 'done' },
     hasReport: state !== 'draft',
     createdById: creatorId,
+    authorIds: [creatorId, uploaderId],
     user: { id: 2, roles },
     ...extra,
   };
@@ -52,6 +55,19 @@ describe('next step by role and state', () => {
     expect(own.kind).toBe('waiting');
     expect(own.action).toBeUndefined();
     expect(own.text).toContain('You created this comparison');
+    const uploaded = nextStep(input('validated', ['committee'], { user: { id: uploaderId, roles: ['committee'] } }));
+    expect(uploaded).toMatchObject({ kind: 'waiting', title: 'Other committee members decide this one' });
+    expect(uploaded.text).toContain('uploaded one of its holdouts');
+  });
+
+  it('tells an analyst who shaped the evidence that another analyst reviews it', () => {
+    for (const id of [creatorId, uploaderId]) {
+      const step = nextStep(input('in-review', ['analyst'], { user: { id, roles: ['analyst'] } }));
+      expect(step).toMatchObject({ kind: 'waiting', title: 'Another analyst reviews this one' });
+      expect(step.action).toBeUndefined();
+    }
+    // A modeler who is also an analyst, on someone else's comparison, reviews it.
+    expect(nextStep(input('in-review', ['modeler', 'analyst']))).toMatchObject({ kind: 'action', action: { target: 'review' } });
   });
 
   it('sends a returned comparison back to the modeler', () => {

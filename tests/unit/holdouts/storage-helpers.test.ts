@@ -18,6 +18,10 @@ describe('sanitiseFileName', () => {
   it('falls back to holdout.csv and caps the length at 200 characters', () => {
     for (const name of [undefined, null, '', '..', '/', ' \u0001 ']) expect(sanitiseFileName(name)).toBe('holdout.csv');
     expect(sanitiseFileName(`${'x'.repeat(300)}.csv`)).toHaveLength(200);
+    expect(sanitiseFileName(`${'x'.repeat(300)}.csv`)).toBe(`${'x'.repeat(196)}.csv`);
+    expect(sanitiseFileName(`${'ü'.repeat(250)}.tsv.gz`)).toBe(`${'ü'.repeat(197)}.gz`);
+    expect(sanitiseFileName('y'.repeat(250))).toBe('y'.repeat(200));
+    expect(sanitiseFileName('z'.repeat(100))).toBe('z'.repeat(100));
   });
 });
 

@@ -61,7 +61,7 @@ export function Component() {
   const latest = detail.runs[0] ?? null;
   const active = isRunActive(detail);
   const hasReport = !!report.data;
-  const steps = nextSteps({ state: detail.state, latestRun: latest, hasReport: detail.currentRunId !== null, createdById: detail.createdBy.id, user });
+  const steps = nextSteps({ state: detail.state, latestRun: latest, hasReport: detail.currentRunId !== null, createdById: detail.createdBy.id, authorIds: detail.authorIds, user });
   const actionFor = (target: NonNullable<typeof steps.primary.action>) => {
     const url = stepTargetUrl(target.target, id);
     return url ? (

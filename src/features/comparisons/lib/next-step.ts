@@ -24,13 +24,23 @@ export interface NextStepInput {
   /** A finished run's report exists (an older run may be done while a newer one failed or runs). */
   hasReport: boolean;
   createdById: number;
+  /** Everyone the four-eyes rule bars from reviewing, voting and deciding (ComparisonDetail.authorIds). */
+  authorIds: readonly number[];
   user: { id: number; roles: readonly Role[] };
+}
+
+/** Why the four-eyes rule bars this person, in their words; null when it does not. */
+function authorship(input: NextStepInput): string | null {
+  if (input.user.id === input.createdById) return 'You created this comparison';
+  if (input.authorIds.includes(input.user.id)) return 'You uploaded one of its holdouts or set up one of its analyses';
+  return null;
 }
 
 const roleOrder: Role[] = ['modeler', 'analyst', 'policy', 'committee', 'admin'];
 
 function forRole(role: Role, input: NextStepInput): NextStep | null {
-  const { state, latestRun, hasReport, createdById, user } = input;
+  const { state, latestRun, hasReport } = input;
+  const own = authorship(input);
   const failed = latestRun?.status === 'failed';
 
   if (failed && role === 'modeler') {
@@ -75,6 +85,13 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       return null;
     case 'in-review':
       if (role === 'analyst') {
+        if (own) {
+          return {
+            kind: 'waiting',
+            title: 'Another analyst reviews this one',
+            text: `${own}, so you cannot review it: another analyst validates or returns it (four-eyes rule).`,
+          };
+        }
         return {
           kind: 'action',
           title: 'Review the evidence and validate or return it',
@@ -93,11 +110,11 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       return null;
     case 'validated':
       if (role === 'committee') {
-        if (createdById === user.id) {
+        if (own) {
           return {
             kind: 'waiting',
             title: 'Other committee members decide this one',
-            text: 'You created this comparison, so you cannot vote on it or record its decision.',
+            text: `${own}, so you cannot vote on it or record its decision (four-eyes rule).`,
           };
         }
         return {
