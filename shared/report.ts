@@ -116,6 +116,32 @@ export const swapTestSchema = z.object({
   reason: z.string().nullable(),
 });
 
+/** A swap cell within one segment value: as SwapCell, without the share of the holdout. */
+export const segmentSwapCellSchema = swapCellSchema.omit({ share: true });
+export type SegmentSwapCell = z.infer<typeof segmentSwapCellSchema>;
+
+export const segmentApprovalSchema = z.object({
+  /** Accounts of the segment value on the safe side of the model's cut-off. */
+  approved: z.number().int(),
+  /** approved / accounts of the segment value. */
+  approvalRate: z.number(),
+  /** Bad rate of the accounts the model approves in the segment value; null when it approves none. */
+  approvedBadRate: z.number().nullable(),
+});
+
+/** The swap sets within one value of a mapped segment column, at the same cut-offs as the whole holdout. */
+export const swapSegmentRowSchema = z.object({
+  column: z.string(),
+  value: z.string(),
+  accounts: z.number().int(),
+  bads: z.number().int(),
+  champion: segmentApprovalSchema,
+  challenger: segmentApprovalSchema,
+  swapIn: segmentSwapCellSchema,
+  swapOut: segmentSwapCellSchema,
+});
+export type SwapSegmentRow = z.infer<typeof swapSegmentRowSchema>;
+
 export const swapSetsSchema = z.object({
   /** How the cut-offs were chosen: given per model, or matched to one approval rate. */
   basis: z.enum(['cutoffs', 'approval-rate']),
@@ -129,6 +155,11 @@ export const swapSetsSchema = z.object({
   swapOut: swapCellSchema,
   bothReject: swapCellSchema,
   test: swapTestSchema,
+  /**
+   * The same decisions within each value of each mapped segment column, in the segments' order
+   * (empty without segments; reports of engine 1.0 have none).
+   */
+  bySegment: z.array(swapSegmentRowSchema).default([]),
 });
 export type SwapSets = z.infer<typeof swapSetsSchema>;
 

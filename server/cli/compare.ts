@@ -230,6 +230,17 @@ export function summary(report: Report): string {
       ? ''
       : `; at the champion's bad rate it approves ${gained === 0 ? 'as many' : `${int(Math.abs(gained))} ${gained > 0 ? 'more' : 'fewer'}`} accounts`;
   lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${badsWords}${gainedWords}`);
+  if (swap.bySegment.length > 0) {
+    lines.push('');
+    lines.push('Swap sets by segment, at the same cut-offs (approval rate and bad rate of the approved, champion → challenger)');
+    const labelWidth = Math.max(30, ...swap.bySegment.map((row) => `${row.column} = ${row.value}`.length + 2));
+    for (const row of swap.bySegment) {
+      const approvals = `approves ${pct(row.champion.approvalRate)} → ${pct(row.challenger.approvalRate)}`;
+      const badRates = `bad rate ${pct(row.champion.approvedBadRate, 2)} → ${pct(row.challenger.approvedBadRate, 2)}`;
+      const swaps = `swap-in ${int(row.swapIn.count)} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(row.swapOut.count)} (${pct(row.swapOut.badRate, 2)})`;
+      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(approvals, 24)}${pad(badRates, 26)}${swaps}`);
+    }
+  }
   if (report.segments.length > 0) {
     lines.push('');
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);

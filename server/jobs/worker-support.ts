@@ -83,6 +83,7 @@ export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout
     ...data,
     bad: own(data.bad),
     exposure: data.exposure ? own(data.exposure) : null,
+    segments: data.segments.map((segment) => ({ ...segment, codes: own(segment.codes) })),
     champion: model(data.champion),
     challenger: model(data.challenger),
   };

@@ -1,5 +1,5 @@
 import type { HigherIs } from '@shared/report';
-import type { Holdout, ModelName } from './holdout';
+import type { Holdout, ModelName, SegmentColumn } from './holdout';
 import { argsortAscending, safety } from './order';
 
 /**
@@ -47,6 +47,8 @@ export interface PreparedHoldout {
   /** 1 = bad, 0 = good, per account. */
   bad: Uint8Array;
   exposure: Float64Array | null;
+  /** The mapped segment columns, as in the holdout (for the swap sets within each value). */
+  segments: SegmentColumn[];
   /** Bands requested (settings.bands); a model can have fewer (see the band rule). */
   requestedBands: number;
   champion: PreparedModel;
@@ -70,6 +72,9 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
     throw new Error('policy statistics require every column to have one entry per account');
   }
   if (holdout.exposure && holdout.exposure.length !== n) throw new Error('exposure must have one entry per account');
+  for (const segment of holdout.segments) {
+    if (segment.codes.length !== n) throw new Error(`segment ${segment.column} must have one entry per account`);
+  }
   if (!Number.isInteger(options.bands) || options.bands < 2 || options.bands > 50) {
     throw new Error(`bands must be an integer from 2 to 50, got ${options.bands}`);
   }
@@ -83,6 +88,7 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
     goods: n - bads,
     bad,
     exposure: holdout.exposure,
+    segments: holdout.segments,
     requestedBands: options.bands,
     champion: model('champion'),
     challenger: model('challenger'),

@@ -38,7 +38,7 @@ import { verdict } from './verdict';
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
-export const engineVersion = '1.0.0';
+export const engineVersion = '1.1.0';
 
 export interface AnalysisProgress {
   /** 0 to 1. */

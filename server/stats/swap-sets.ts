@@ -1,4 +1,4 @@
-import type { SwapCell, SwapSets } from '@shared/report';
+import type { SegmentSwapCell, SwapCell, SwapSegmentRow, SwapSets } from '@shared/report';
 import { locateCutoff, type LocatedCutoff } from './cutoffs';
 import type { PreparedHoldout } from './policy-data';
 import { swapTest } from './swap-test';
@@ -11,8 +11,12 @@ import { wilsonInterval } from './wilson';
  * accepts, challenger rejects); both reject. Each with count, share of the holdout, bads, bad
  * rate with its Wilson interval (Wilson 1927, JASA 22:209–212), and the exposure sum when an
  * exposure column is mapped; and the swap-in vs swap-out bad-rate test (swap-test.ts).
+ * Within each value of each mapped segment column (`bySegment`): each model's approvals and the
+ * bad rate of what it approves, and the swap-in and swap-out cells, at the same cut-offs, values
+ * in the order of the report's segment rows.
  * Common practice, no source.
- * Cost: O(log n) to place the cut-offs and one O(n) pass over typed arrays on prepared data.
+ * Cost: O(log n) to place the cut-offs, one O(n) pass over typed arrays on prepared data, and one
+ * more per segment column.
  */
 
 export type SwapRequest =
@@ -44,18 +48,22 @@ export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence
   const counts = new Float64Array(4);
   const bads = new Float64Array(4);
   const amounts = new Float64Array(4);
+  // Each account's cell, kept for the segment passes.
+  const cells = data.segments.length > 0 ? new Uint8Array(n) : null;
   if (exposure) {
     for (let i = 0; i < n; i++) {
       const cell = (a[i] >= cutA ? 1 : 0) | (b[i] >= cutB ? 2 : 0);
       counts[cell]++;
       bads[cell] += bad[i];
       amounts[cell] += exposure[i];
+      if (cells) cells[i] = cell;
     }
   } else {
     for (let i = 0; i < n; i++) {
       const cell = (a[i] >= cutA ? 1 : 0) | (b[i] >= cutB ? 2 : 0);
       counts[cell]++;
       bads[cell] += bad[i];
+      if (cells) cells[i] = cell;
     }
   }
 
@@ -82,5 +90,58 @@ export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence
     swapOut: cell(SWAP_OUT),
     bothReject: cell(BOTH_REJECT),
     test: swapTest(bads[SWAP_IN], counts[SWAP_IN], bads[SWAP_OUT], counts[SWAP_OUT]),
+    bySegment: cells ? swapBySegment(data, cells, confidence) : [],
   };
+}
+
+/** Per segment value: the four cells' counts, bads and amounts from each account's cell. */
+function swapBySegment(data: PreparedHoldout, cells: Uint8Array, confidence: number): SwapSegmentRow[] {
+  const { n, bad, exposure } = data;
+  const rows: SwapSegmentRow[] = [];
+  for (const { column, levels, codes } of data.segments) {
+    // Index level·4 + cell.
+    const counts = new Float64Array(levels.length * 4);
+    const bads = new Float64Array(levels.length * 4);
+    const amounts = exposure ? new Float64Array(levels.length * 4) : null;
+    for (let i = 0; i < n; i++) {
+      const k = codes[i] * 4 + cells[i];
+      counts[k]++;
+      bads[k] += bad[i];
+      if (amounts) amounts[k] += exposure![i];
+    }
+    // Values in the same order as the report's segment rows (segments.ts).
+    const order = [...levels.keys()].sort((x, y) => (levels[x] < levels[y] ? -1 : levels[x] > levels[y] ? 1 : 0));
+    for (const level of order) {
+      const value = levels[level];
+      const at = level * 4;
+      const cell = (index: number): SegmentSwapCell => {
+        const count = counts[at + index];
+        const cellBads = bads[at + index];
+        return {
+          count,
+          bads: cellBads,
+          badRate: count > 0 ? cellBads / count : null,
+          badRateCi: wilsonInterval(cellBads, count, confidence),
+          amount: amounts ? amounts[at + index] : null,
+        };
+      };
+      const accounts = counts[at] + counts[at + 1] + counts[at + 2] + counts[at + 3];
+      const approval = (accepted: number, other: number) => {
+        const approved = counts[at + accepted] + counts[at + other];
+        const approvedBads = bads[at + accepted] + bads[at + other];
+        return { approved, approvalRate: accounts > 0 ? approved / accounts : 0, approvedBadRate: approved > 0 ? approvedBads / approved : null };
+      };
+      rows.push({
+        column,
+        value,
+        accounts,
+        bads: bads[at] + bads[at + 1] + bads[at + 2] + bads[at + 3],
+        champion: approval(BOTH_ACCEPT, SWAP_OUT),
+        challenger: approval(BOTH_ACCEPT, SWAP_IN),
+        swapIn: cell(SWAP_IN),
+        swapOut: cell(SWAP_OUT),
+      });
+    }
+  }
+  return rows;
 }

@@ -44,6 +44,16 @@ describe('swap sets on demand', () => {
     const result = swapResultSchema.parse(response.body);
     expect(result.swap).toEqual(report.swap);
     expect(result.swapMatrix).toEqual(report.swapMatrix);
+    // Within each value of both mapped segment columns, adding up to the whole holdout's cells.
+    const segmentColumns = sampleMapping.segments ?? [];
+    expect(segmentColumns.length).toBeGreaterThan(0);
+    for (const column of segmentColumns) {
+      const rows = result.swap.bySegment.filter((row) => row.column === column);
+      expect(rows.length).toBeGreaterThan(1);
+      expect(rows.reduce((sum, row) => sum + row.accounts, 0)).toBe(2000);
+      expect(rows.reduce((sum, row) => sum + row.swapIn.count, 0)).toBe(result.swap.swapIn.count);
+      expect(rows.reduce((sum, row) => sum + row.swapOut.bads, 0)).toBe(result.swap.swapOut.bads);
+    }
     expect(result.strategyPosition).toEqual({
       ...report.strategyCurve.atApprovalRate,
       championApprovalRate: report.swap.champion.approvalRate,

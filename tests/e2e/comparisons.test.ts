@@ -190,7 +190,12 @@ describe('the comparison pages', () => {
       const pages: { tab: string; check: () => Promise<unknown>; shot: string }[] = [
         { tab: 'Curves', shot: 'curves', check: () => page.getByRole('heading', { name: 'ROC curve' }).waitFor() },
         { tab: 'Swap sets', shot: 'swap-sets-analyst', check: () => page.getByTestId('swap-matrix').waitFor() },
-        { tab: 'Segments', shot: 'segments', check: () => page.getByRole('rowheader', { name: 'personal-loan', exact: true }).waitFor() },
+        {
+          tab: 'Segments',
+          shot: 'segments',
+          // The swap sets page has segment rows too: wait for the Segments tab's own table.
+          check: () => page.getByRole('table', { name: 'Both models within each segment' }).getByRole('rowheader', { name: 'personal-loan', exact: true }).waitFor(),
+        },
         { tab: 'Bands', shot: 'bands', check: () => page.getByRole('table', { name: 'Champion gains table' }).waitFor() },
         { tab: 'Data', shot: 'data', check: () => page.getByTestId('sha256').waitFor() },
         { tab: 'Verdict', shot: 'verdict-again', check: () => page.getByTestId('verdict-summary').waitFor() },

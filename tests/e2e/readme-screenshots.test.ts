@@ -123,6 +123,15 @@ describe('the README walkthrough on the demo database', () => {
       expect(grid).toContain('Swap-in');
       expect(grid).toContain('Growth case (75%)');
       await capture(page, '6-policy-swap-sets', heading(page, 'Who each model accepts'));
+
+      // Within product × channel, brokered cards are the one value where the swap-in is riskier
+      // than the swap-out (the demo's story; `npm run compare` prints the same rows).
+      await page.getByLabel('Segment column').selectOption('product_channel');
+      const bySegment = page.getByRole('table', { name: 'Swap sets within each segment value, champion → challenger' });
+      await expect.poll(() => bySegment.getByRole('row').count()).toBe(7);
+      expect(await bySegment.getByRole('row', { name: /credit-card\/broker/ }).innerText()).toContain('Swap-in riskier than swap-out');
+      expect(await bySegment.getByText('Swap-in riskier than swap-out').count()).toBe(1);
+      await capture(page, '6-policy-swap-by-segment', heading(page, 'Swap sets by segment'));
       await capture(page, '7-policy-scenarios-and-annotations', heading(page, 'Saved scenarios'));
     });
   });

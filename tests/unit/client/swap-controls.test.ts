@@ -68,6 +68,7 @@ const swap: SwapSets = {
   swapOut: cell(5486, 523, 31486350),
   bothReject: cell(12282, 2271, 68713550),
   test: { method: 'two-proportion-z', z: -5.24, p: 1.6e-7, reason: null },
+  bySegment: [],
 };
 
 describe('numbers derived from a swap result', () => {

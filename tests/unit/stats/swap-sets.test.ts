@@ -35,6 +35,37 @@ describe('swapSets', () => {
     expect(result.requestedApprovalRate).toBeNull();
   });
 
+  it('splits each segment value the same way, with each model\'s approvals there', () => {
+    // The hand holdout with accounts 1, 3, 5, 7, 9 in segment "a" and 2, 4, 6, 8, 10 in "b"
+    // (levels listed b first: rows come in value order). Computed by hand from the cells above:
+    // both accept 6, 8, 10; swap-in 2, 4; swap-out 7, 9; both reject 1, 3, 5.
+    const segmented = { ...hand, segments: [{ column: 'group', levels: ['b', 'a'], codes: Uint32Array.from([1, 0, 1, 0, 1, 0, 1, 0, 1, 0]) }] };
+    const result = swapSets(preparePolicyData(segmented, { bands: 2 }), { basis: 'cutoffs', cutoffs: { champion: 60, challenger: 0.4 } }, 0.95);
+    expect(swapSetsSchema.parse(result)).toEqual(result);
+    const [a, b] = result.bySegment;
+    expect(a).toEqual({
+      column: 'group',
+      value: 'a',
+      accounts: 5,
+      bads: 4,
+      champion: { approved: 2, approvalRate: 0.4, approvedBadRate: 0.5 },
+      challenger: { approved: 0, approvalRate: 0, approvedBadRate: null },
+      swapIn: { count: 0, bads: 0, badRate: null, badRateCi: null, amount: 0 },
+      swapOut: { count: 2, bads: 1, badRate: 0.5, badRateCi: wilsonInterval(1, 2, 0.95), amount: 1600 },
+    });
+    expect(b).toEqual({
+      column: 'group',
+      value: 'b',
+      accounts: 5,
+      bads: 1,
+      champion: { approved: 3, approvalRate: 0.6, approvedBadRate: 1 / 3 },
+      challenger: { approved: 5, approvalRate: 1, approvedBadRate: 0.2 },
+      swapIn: { count: 2, bads: 0, badRate: 0, badRateCi: wilsonInterval(0, 2, 0.95), amount: 600 },
+      swapOut: { count: 0, bads: 0, badRate: null, badRateCi: null, amount: 0 },
+    });
+    expect(swapSets(handData, { basis: 'cutoffs', cutoffs: { champion: 60, challenger: 0.4 } }, 0.95).bySegment).toEqual([]);
+  });
+
   it('matches both models to one approval rate', () => {
     const result = swapSets(handData, { basis: 'approval-rate', approvalRate: 0.3 }, 0.95);
     // Computed by hand: k = 3; champion accepts 8, 9, 10 (cut-off 80); challenger accepts the three
@@ -115,6 +146,7 @@ describe('swapSets', () => {
         cutChampion: fc.integer({ min: -1, max: 13 }),
         cutChallenger: fc.integer({ min: -1, max: 13 }),
         rate: fc.double({ min: 0, max: 1, noNaN: true }),
+        group: fc.array(fc.integer({ min: 0, max: 3 }), { minLength: n, maxLength: n }),
       }),
     );
 
@@ -132,6 +164,48 @@ describe('swapSets', () => {
           expected[a ? (b ? 'bothAccept' : 'swapOut') : b ? 'swapIn' : 'bothReject']++;
         }
         return (Object.keys(expected) as (keyof typeof expected)[]).every((cell) => result[cell].count === expected[cell]);
+      }),
+    );
+  });
+
+  it('splits every segment value by a direct count of the acceptance rule, the values adding up to the whole', () => {
+    fc.assert(
+      fc.property(smallHoldout, (h) => {
+        const levels = ['w', 'x', 'y', 'z'];
+        const holdout = {
+          ...makeHoldout({ ...h, higherIs: { champion: h.championHigherIs, challenger: h.challengerHigherIs } }),
+          segments: [{ column: 'group', levels, codes: Uint32Array.from(h.group) }],
+        };
+        const result = swapSets(preparePolicyData(holdout, { bands: 3 }), { basis: 'cutoffs', cutoffs: { champion: h.cutChampion, challenger: h.cutChallenger } }, 0.9);
+        const accepts = (score: number, cut: number, higherIs: HigherIs) => (higherIs === 'safer' ? score >= cut : score <= cut);
+        expect(result.bySegment.map((row) => row.value)).toEqual(levels);
+        for (const [level, row] of result.bySegment.entries()) {
+          const expected = { accounts: 0, bads: 0, championApproved: 0, challengerApproved: 0, swapIn: 0, swapInBads: 0, swapOut: 0, swapOutBads: 0 };
+          for (let i = 0; i < holdout.n; i++) {
+            if (h.group[i] !== level) continue;
+            const a = accepts(h.champion[i], h.cutChampion, h.championHigherIs);
+            const b = accepts(h.challenger[i], h.cutChallenger, h.challengerHigherIs);
+            expected.accounts++;
+            expected.bads += h.bad[i];
+            if (a) expected.championApproved++;
+            if (b) expected.challengerApproved++;
+            if (b && !a) {
+              expected.swapIn++;
+              expected.swapInBads += h.bad[i];
+            }
+            if (a && !b) {
+              expected.swapOut++;
+              expected.swapOutBads += h.bad[i];
+            }
+          }
+          expect([row.accounts, row.bads, row.champion.approved, row.challenger.approved]).toEqual([expected.accounts, expected.bads, expected.championApproved, expected.challengerApproved]);
+          expect([row.swapIn.count, row.swapIn.bads, row.swapOut.count, row.swapOut.bads]).toEqual([expected.swapIn, expected.swapInBads, expected.swapOut, expected.swapOutBads]);
+        }
+        const total = (pick: (row: (typeof result.bySegment)[number]) => number) => result.bySegment.reduce((sum, row) => sum + pick(row), 0);
+        expect(total((row) => row.swapIn.count)).toBe(result.swapIn.count);
+        expect(total((row) => row.swapOut.bads)).toBe(result.swapOut.bads);
+        expect(total((row) => row.champion.approved)).toBe(result.bothAccept.count + result.swapOut.count);
+        expect(total((row) => row.accounts)).toBe(holdout.n);
       }),
     );
   });

@@ -23,6 +23,7 @@ function swap(rate: number, swapIn: [number, number], swapOut: [number, number])
     swapOut: cell(...swapOut),
     bothReject: cell(2000, 500),
     test: { method: 'two-proportion-z', z: -3.1, p: 0.0019, reason: null },
+    bySegment: [],
   };
 }
 

@@ -25,6 +25,7 @@ import {
   ReportMetrics,
   ReportSegments,
   ReportStrategy,
+  ReportSwapSegments,
   ReportSwapTable,
   ReportTests,
 } from '@/features/governance/components/report/report-evidence';
@@ -141,6 +142,7 @@ export function Component() {
       <ReportPart title="Who changes sides: swap sets and segments" id="report-swap">
         <ReportSwapTable swap={report.swap} confidence={report.settings.confidence} hasAmount={hasAmount} title="Swap sets at the report’s cut-offs" />
         <ReportStrategy report={report} />
+        <ReportSwapSegments swap={report.swap} confidence={report.settings.confidence} />
         {scenarios.data && scenarios.data.length > 0 ? (
           <ReportBlock title="Saved cut-off scenarios" note="Chosen by credit policy; swap sets as computed when each was saved.">
             <ReportTable

@@ -20,6 +20,7 @@ import { ScenariosTable } from '@/features/swap-sets/components/scenarios-table'
 import { StrategyCurveChart } from '@/features/swap-sets/components/strategy-curve-chart';
 import { SwapControls } from '@/features/swap-sets/components/swap-controls';
 import { SwapMatrixTable } from '@/features/swap-sets/components/swap-matrix-table';
+import { SwapSegmentsTable } from '@/features/swap-sets/components/swap-segments-table';
 import { SwapTable } from '@/features/swap-sets/components/swap-table';
 import { SwapTest } from '@/features/swap-sets/components/swap-test';
 import { reportSwapQuery, sameSwapQuery, swapQueryFromParams, swapQueryToParams } from '@/features/swap-sets/lib/swap-controls';
@@ -27,8 +28,9 @@ import { useComparisonPage } from '@/app/routes/comparisons/context';
 
 /**
  * Swap sets at the cut-offs or approval rate the person chooses: recomputed by the server
- * (debounced, the last result kept on screen meanwhile), with the 2×2, its test, the swap matrix,
- * the strategy curve, exports and saved scenarios. The settings live in the URL.
+ * (debounced, the last result kept on screen meanwhile), with the 2×2, its test, the same within
+ * each segment value, the swap matrix, the strategy curve, exports and saved scenarios. The
+ * settings live in the URL.
  */
 export function Component() {
   const { comparison, report } = useComparisonPage();
@@ -124,6 +126,14 @@ export function Component() {
                 <SwapTest swap={result.swap} alpha={report.policy.alpha} />
               </div>
             </Section>
+            {report.mapping.segments && report.mapping.segments.length > 0 ? (
+              <Section
+                title="Swap sets by segment"
+                description="The same cut-offs within each value of each segment column: where the challenger approves more or fewer accounts, and how risky they are."
+              >
+                <SwapSegmentsTable rows={result.swap.bySegment} confidence={confidence} />
+              </Section>
+            ) : null}
             <div className="grid gap-6 2xl:grid-cols-2">
               <StrategyCurveChart curve={report.strategyCurve} swap={result.swap} position={result.strategyPosition} />
               <Section title="Swap matrix" description="How the two models band the same accounts: champion band by challenger band, band 1 the riskiest.">

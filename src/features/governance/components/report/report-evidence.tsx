@@ -169,6 +169,38 @@ export function ReportSwapTable({ swap, confidence, hasAmount, title }: { swap: 
   );
 }
 
+const rateWithInterval = (cell: { badRate: number | null; badRateCi: [number, number] | null }) =>
+  cell.badRateCi ? `${formatPercent(cell.badRate)} (${formatInterval(cell.badRateCi, (value) => formatPercent(value))})` : formatPercent(cell.badRate);
+
+/** The report's swap sets within each segment value (engine 1.1 and later). */
+export function ReportSwapSegments({ swap, confidence }: { swap: SwapSets; confidence: number }) {
+  if (swap.bySegment.length === 0) return null;
+  const level = formatPercent(confidence, 0);
+  return (
+    <ReportBlock
+      title="Swap sets by segment"
+      note={`The same cut-offs within each segment value; champion → challenger. Swap-in and swap-out bad rates with ${level} Wilson intervals.`}
+    >
+      <ReportTable
+        caption="Swap sets by segment"
+        head={['Segment', 'Accounts', 'Approval rate', 'Bad rate of the approved', 'Swap-in', 'Swap-in bad rate', 'Swap-out', 'Swap-out bad rate']}
+        numeric={[1, 2, 3, 4, 5, 6, 7]}
+        nowrap={[0]}
+        rows={swap.bySegment.map((row) => [
+          `${row.column} = ${row.value}`,
+          formatCount(row.accounts),
+          `${formatPercent(row.champion.approvalRate)} → ${formatPercent(row.challenger.approvalRate)}`,
+          `${formatPercent(row.champion.approvedBadRate)} → ${formatPercent(row.challenger.approvedBadRate)}`,
+          formatCount(row.swapIn.count),
+          rateWithInterval(row.swapIn),
+          formatCount(row.swapOut.count),
+          rateWithInterval(row.swapOut),
+        ])}
+      />
+    </ReportBlock>
+  );
+}
+
 export function ReportStrategy({ report }: { report: Report }) {
   const at = report.strategyCurve.atApprovalRate;
   return (

@@ -41,7 +41,7 @@ export function ReportTable({
           <tr key={rowIndex} className="border-b border-line">
             {row.map((cell, index) =>
               index === 0 ? (
-                <th key={index} scope="row" className="px-2 py-1.5 text-left font-medium text-ink">
+                <th key={index} scope="row" className={cn('px-2 py-1.5 text-left font-medium text-ink', nowrap.includes(0) && 'whitespace-nowrap')}>
                   {cell}
                 </th>
               ) : (
