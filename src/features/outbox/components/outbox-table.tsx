@@ -18,6 +18,9 @@ type OutboxTableProps = {
   onOpen: (message: MailMessage) => void;
 };
 
+/** Recipients listed in the table; the message dialog shows them all. */
+const SHOWN_RECIPIENTS = 3;
+
 /** The outbox, newest first, one server page at a time; a subject opens the message. */
 export function OutboxTable({ messages, total, pageIndex, pageSize, onPageChange, onOpen }: OutboxTableProps) {
   const columns = useMemo(
@@ -29,7 +32,20 @@ export function OutboxTable({ messages, total, pageIndex, pageSize, onPageChange
       }),
       column.accessor('to', {
         header: 'To',
-        cell: ({ getValue }) => <span className="break-all">{getValue().join(', ')}</span>,
+        // One address a line, never broken inside; the message itself lists everyone.
+        cell: ({ getValue }) => {
+          const to = getValue();
+          return (
+            <ul className="space-y-0.5">
+              {to.slice(0, SHOWN_RECIPIENTS).map((address) => (
+                <li key={address} className="whitespace-nowrap">
+                  {address}
+                </li>
+              ))}
+              {to.length > SHOWN_RECIPIENTS ? <li className="text-ink-soft">and {formatCount(to.length - SHOWN_RECIPIENTS)} more</li> : null}
+            </ul>
+          );
+        },
       }),
       column.accessor('subject', {
         header: 'Subject',
