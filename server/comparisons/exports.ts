@@ -35,8 +35,10 @@ export interface SwapExportQuery {
 
 /**
  * One line per swap-in or swap-out account: which set, its position in the holdout as used
- * (1 = first row read), its id when mapped, both scores as given, the outcome (bad or good) and
- * its amount when exposure is mapped. Without cut-offs or a rate: the report's own basis.
+ * (1 = first row read), its id when mapped, both scores as given, the outcome (bad or good), its
+ * amount when exposure is mapped, and its value of each mapped segment column (headed by the
+ * column's name; `segment_` before it when that name is one of the fixed ones). Without cut-offs
+ * or a rate: the report's own basis.
  */
 export async function exportSwap(ctx: AppContext, comparisonId: number, query: SwapExportQuery, res: Response): Promise<void> {
   const comparison = await findComparison(ctx.dataSource, comparisonId);
@@ -60,6 +62,7 @@ export async function exportSwap(ctx: AppContext, comparisonId: number, query: S
   const { exposure } = data;
   const championRaw = data.champion.raw;
   const challengerRaw = data.challenger.raw;
+  const segments = data.segments;
 
   function* rows(): Generator<Cell[]> {
     for (let i = 0; i < data.n; i++) {
@@ -74,10 +77,12 @@ export async function exportSwap(ctx: AppContext, comparisonId: number, query: S
         challengerRaw[i],
         data.bad[i] === 1 ? 'bad' : 'good',
         exposure ? exposure[i] : null,
+        ...segments.map((segment) => segment.levels[segment.codes[i]]),
       ];
     }
   }
-  const header = ['set', 'account', 'id', 'champion_score', 'challenger_score', 'outcome', 'amount'];
+  const fixed = ['set', 'account', 'id', 'champion_score', 'challenger_score', 'outcome', 'amount'];
+  const header = [...fixed, ...segments.map((segment) => (fixed.includes(segment.column) ? `segment_${segment.column}` : segment.column))];
   await sendCsv(res, downloadName(comparison, 'swap.csv'), header, rows());
 }
 

@@ -194,12 +194,19 @@ describe('exports', () => {
     const response = await policy.get(`/api/comparisons/${comparisonId}/export/swap.csv?approvalRate=0.7`);
     expect(response.status).toBe(200);
     const rows = parseCsv(response.text);
-    expect(rows[0]).toEqual(['set', 'account', 'id', 'champion_score', 'challenger_score', 'outcome', 'amount']);
+    expect(rows[0]).toEqual(['set', 'account', 'id', 'champion_score', 'challenger_score', 'outcome', 'amount', 'product', 'channel']);
     const body = rows.slice(1);
     const swapIn = body.filter((row) => row[0] === 'swap-in');
     const swapOut = body.filter((row) => row[0] === 'swap-out');
     expect(swapIn).toHaveLength(report.swap.swapIn.count);
     expect(swapOut).toHaveLength(report.swap.swapOut.count);
+    // Each account's segment values: counted per value, they are the report's swap sets by segment.
+    for (const [index, column] of [[7, 'product'], [8, 'channel']] as const) {
+      for (const row of report.swap.bySegment.filter((segmentRow) => segmentRow.column === column)) {
+        expect(swapIn.filter((line) => line[index] === row.value), `${column} = ${row.value}`).toHaveLength(row.swapIn.count);
+        expect(swapOut.filter((line) => line[index] === row.value), `${column} = ${row.value}`).toHaveLength(row.swapOut.count);
+      }
+    }
     expect(swapIn.filter((row) => row[5] === 'bad')).toHaveLength(report.swap.swapIn.bads);
     expect(swapOut.reduce((sum, row) => sum + Number(row[6]), 0)).toBeCloseTo(report.swap.swapOut.amount!, 6);
     // Swap-in: the champion declines (below its cut-off), the challenger accepts (at or above its own).
