@@ -82,7 +82,7 @@ export function swapInAnnotation(current: Scenario, growth: Scenario): string {
   return [
     `At our 70% approval rate the challenger swaps in ${count(current.swapIn.count)} accounts with a ${percent(current.swapIn.badRate)} bad rate for ${count(current.swapOut.count)} swapped out at ${percent(current.swapOut.badRate)}: a better book at about the same volume.`,
     `At 75% the swap-in is ${count(growth.swapIn.count)} accounts at ${percent(growth.swapIn.badRate)} against ${count(growth.swapOut.count)} at ${percent(growth.swapOut.badRate)}, so the growth case also favours the challenger.`,
-    'Brokered cards are the exception (see the segments page): we will keep the champion cut-off for them, so their swap-ins are not taken on.',
+    'Brokered cards are the exception: in the swap sets by segment their swap-in is riskier than their swap-out, and the segments page shows the challenger weaker there. We will keep the champion cut-off for them, so their swap-ins are not taken on.',
   ].join(' ');
 }
 
