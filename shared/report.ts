@@ -142,6 +142,11 @@ export const swapSegmentRowSchema = z.object({
 });
 export type SwapSegmentRow = z.infer<typeof swapSegmentRowSchema>;
 
+/** The swap-in's bad rate above the swap-out's (both defined): the challenger trades in riskier accounts there. */
+export function swapInRiskier(row: Pick<SwapSegmentRow, 'swapIn' | 'swapOut'>): boolean {
+  return row.swapIn.badRate !== null && row.swapOut.badRate !== null && row.swapIn.badRate > row.swapOut.badRate;
+}
+
 export const swapSetsSchema = z.object({
   /** How the cut-offs were chosen: given per model, or matched to one approval rate. */
   basis: z.enum(['cutoffs', 'approval-rate']),

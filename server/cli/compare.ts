@@ -1,5 +1,5 @@
 import { parseArgs } from 'node:util';
-import type { AnalysisSettings, ColumnMapping, HigherIs, Report } from '@shared/report';
+import { swapInRiskier, type AnalysisSettings, type ColumnMapping, type HigherIs, type Report } from '@shared/report';
 import { HoldoutInputError } from '@server/reader/errors';
 import { loadHoldout } from '@server/reader/load';
 import { buildReport } from '@server/stats/report';
@@ -238,7 +238,7 @@ export function summary(report: Report): string {
       const approvals = `approves ${pct(row.champion.approvalRate)} → ${pct(row.challenger.approvalRate)}`;
       const badRates = `bad rate ${pct(row.champion.approvedBadRate, 2)} → ${pct(row.challenger.approvedBadRate, 2)}`;
       const swaps = `swap-in ${int(row.swapIn.count)} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(row.swapOut.count)} (${pct(row.swapOut.badRate, 2)})`;
-      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(approvals, 24)}${pad(badRates, 26)}${swaps}`);
+      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(approvals, 24)}${pad(badRates, 26)}${swaps}${swapInRiskier(row) ? '  (swap-in riskier)' : ''}`);
     }
   }
   if (report.segments.length > 0) {

@@ -116,6 +116,12 @@ describe('the README walkthrough on the demo database', () => {
 
   it('policy: the swap sets at the approval rate they run, with their annotations', async () => {
     await asPerson('policy', async ({ page }) => {
+      // The verdict page names the segment values whose swap-in is riskier: brokers, and within
+      // them brokered cards (npm run compare on the demo holdout flags exactly these two).
+      await page.goto(paths.comparisons.detail(ids.decided));
+      const glance = await page.getByTestId('swap-segments-glance').innerText();
+      expect(glance).toContain('in 2 of 23 values: channel = broker, product_channel = credit-card/broker.');
+
       await page.goto(`${paths.comparisons.swapSets(ids.decided)}?rate=0.7`);
       const notes = page.getByTestId('swap-set-notes');
       await notes.getByText(/At our 70% approval rate the challenger swaps in/).waitFor();

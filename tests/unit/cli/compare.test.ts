@@ -3,7 +3,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { type ColumnMapping, reportSchema } from '@shared/report';
+import { type ColumnMapping, type Report, reportSchema } from '@shared/report';
 import { parseCommand, runCompare, usage } from '@server/cli/compare';
 import { loadHoldout } from '@server/reader/load';
 import { buildReport } from '@server/stats/report';
@@ -51,6 +51,24 @@ describe('compare CLI', () => {
     expect(stdout).toContain('bootstrap skipped');
     expect(stdout).toMatch(/Verdict under adoption policy v1: (SUPPORTED|NOT-PROVEN|CHAMPION-BETTER)/);
     expect(stdout).toContain('Statistical significance is not business approval');
+    expect(stdout).not.toContain('Swap sets by segment');
+  });
+
+  it('prints the swap sets within each segment value, marking those whose swap-in is riskier', async () => {
+    const { status, stdout } = await run([demo, ...demoFlags, '--bootstrap', '0', '--segment', 'channel', '--json']);
+    expect(status).toBe(0);
+    const report = JSON.parse(stdout) as Report;
+    const text = (await run([demo, ...demoFlags, '--bootstrap', '0', '--segment', 'channel'])).stdout;
+    const lines = text.split('\n');
+    const at = lines.findIndex((line) => line.startsWith('Swap sets by segment'));
+    expect(at).toBeGreaterThan(0);
+    expect(report.swap.bySegment.map((row) => row.value)).toEqual(['branch', 'broker', 'web']);
+    for (const [k, row] of report.swap.bySegment.entries()) {
+      const line = lines[at + 1 + k];
+      expect(line).toContain(`channel = ${row.value}`);
+      expect(line).toContain(`swap-in ${row.swapIn.count.toLocaleString('en-US')} `);
+      expect(line.endsWith('(swap-in riskier)')).toBe(row.swapIn.badRate! > row.swapOut.badRate!);
+    }
   });
 
   it('exits 2 with one line naming the row and column on bad input', async () => {

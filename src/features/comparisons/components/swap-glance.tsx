@@ -1,10 +1,19 @@
-import { type Report } from '@shared/report';
+import { type Report, swapInRiskier } from '@shared/report';
 import { formatCount, formatPercent, formatScore } from '@/lib/format';
 import { Stat, StatGroup } from '@/components/stat';
 
-/** The report's swap sets in four numbers, for the verdict page; the Swap sets tab has the rest. */
+/** Segment values named in the sentence; the Swap sets tab lists them all. */
+const NAMED = 4;
+
+/**
+ * The report's swap sets in four numbers, for the verdict page, and the segment values where the
+ * swap-in is riskier than the swap-out; the Swap sets tab has the rest.
+ */
 export function SwapGlance({ report }: { report: Report }) {
   const { swap, strategyCurve } = report;
+  const riskier = swap.bySegment.filter(swapInRiskier);
+  const named = riskier.slice(0, NAMED).map((row) => `${row.column} = ${row.value}`);
+  if (riskier.length > NAMED) named.push(`${formatCount(riskier.length - NAMED)} more`);
   const at = swap.basis === 'approval-rate' && swap.requestedApprovalRate !== null ? `a ${formatPercent(swap.requestedApprovalRate, 0)} approval rate` : 'the chosen cut-offs';
   return (
     <div className="space-y-3">
@@ -25,6 +34,13 @@ export function SwapGlance({ report }: { report: Report }) {
           footnote="keeping the champion's portfolio bad rate"
         />
       </StatGroup>
+      {swap.bySegment.length > 0 ? (
+        <p className="text-sm text-ink-soft" data-testid="swap-segments-glance">
+          {riskier.length === 0
+            ? `Within every one of the ${formatCount(swap.bySegment.length)} segment values, the swap-in's bad rate is at or below the swap-out's.`
+            : `Within segments, the swap-in's bad rate is above the swap-out's in ${formatCount(riskier.length)} of ${formatCount(swap.bySegment.length)} values: ${named.join(', ')}. Small groups move a lot with a few accounts; the swap sets by segment give their intervals.`}
+        </p>
+      ) : null}
     </div>
   );
 }

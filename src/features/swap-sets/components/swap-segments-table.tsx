@@ -1,6 +1,6 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import { useState } from 'react';
-import { type SegmentSwapCell, type SwapSegmentRow } from '@shared/report';
+import { type SegmentSwapCell, type SwapSegmentRow, swapInRiskier } from '@shared/report';
 import { formatCount, formatInterval, formatPercent, formatSignedNumber } from '@/lib/format';
 import { DataTable } from '@/components/data-table';
 import { EmptyState } from '@/components/empty-state';
@@ -29,11 +29,6 @@ function SwapCellView({ cell }: { cell: SegmentSwapCell }) {
       {cell.badRateCi ? <span className="text-xs text-ink-soft">{formatInterval(cell.badRateCi, (value) => formatPercent(value))}</span> : null}
     </span>
   );
-}
-
-/** The swap-in's bad rate above the swap-out's (both defined): the challenger trades in riskier accounts here. */
-export function swapInRiskier(row: SwapSegmentRow): boolean {
-  return row.swapIn.badRate !== null && row.swapOut.badRate !== null && row.swapIn.badRate > row.swapOut.badRate;
 }
 
 /**
