@@ -14,8 +14,8 @@ function workerEntries(dir) {
 
 const entryPoints = [
   'server/index.ts',
-  // Built once they exist (the CLI and the benchmark come with the engine work).
-  ...['server/cli/compare.ts', 'bench/index.ts'].filter((file) => existsSync(file)),
+  'server/cli/compare.ts',
+  'bench/index.ts',
   ...workerEntries('server/jobs'),
   ...workerEntries('server/stats'),
 ];

@@ -153,11 +153,6 @@ export function routeTable(app: Express): readonly RouteDefinition[] {
   return app.locals.routes as RouteDefinition[];
 }
 
-/** The app's analysis queue. */
-export function appJobs(app: Express): JobRunner {
-  return app.locals.jobs as JobRunner;
-}
-
 /** Stops the app's timers (the session pruner) and a queue it made itself; the caller closes the server and database. */
 export function closeApp(app: Express): void {
   (app.locals.close as () => void)();

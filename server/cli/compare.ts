@@ -230,24 +230,29 @@ export function summary(report: Report): string {
       ? ''
       : `; at the champion's bad rate it approves ${gained === 0 ? 'as many' : `${int(Math.abs(gained))} ${gained > 0 ? 'more' : 'fewer'}`} accounts`;
   lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${badsWords}${gainedWords}`);
+  const segmentLabel = (row: { column: string; value: string }) => `${row.column} = ${row.value}`;
+  const labelWidth = (rows: { column: string; value: string }[]) => Math.max(30, ...rows.map((row) => segmentLabel(row).length + 2));
   if (swap.bySegment.length > 0) {
     lines.push('');
-    lines.push('Swap sets by segment, at the same cut-offs (approval rate and bad rate of the approved, champion → challenger)');
-    const labelWidth = Math.max(30, ...swap.bySegment.map((row) => `${row.column} = ${row.value}`.length + 2));
+    lines.push(
+      `Swap sets by segment at cut-offs champion ${swap.champion.cutoff}, challenger ${swap.challenger.cutoff} (approval rate and bad rate of the approved book, champion → challenger)`,
+    );
+    const width = labelWidth(swap.bySegment);
     for (const row of swap.bySegment) {
       const approvals = `approves ${pct(row.champion.approvalRate)} → ${pct(row.challenger.approvalRate)}`;
       const badRates = `bad rate ${pct(row.champion.approvedBadRate, 2)} → ${pct(row.challenger.approvedBadRate, 2)}`;
       const swaps = `swap-in ${int(row.swapIn.count)} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(row.swapOut.count)} (${pct(row.swapOut.badRate, 2)})`;
-      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(approvals, 24)}${pad(badRates, 26)}${swaps}${swapInRiskier(row) ? '  (swap-in riskier)' : ''}`);
+      lines.push(`  ${pad(segmentLabel(row), width)}${pad(approvals, 26)}${pad(badRates, 28)}${swaps}${swapInRiskier(row) ? '  (swap-in riskier)' : ''}`);
     }
+    lines.push("  (swap-in riskier): its bad rate is above the swap-out's. Point estimates: a small value moves a lot with a few accounts (intervals in --json)");
   }
   if (report.segments.length > 0) {
     lines.push('');
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
-    const labelWidth = Math.max(30, ...report.segments.map((row) => `${row.column} = ${row.value}`.length + 2));
+    const width = labelWidth(report.segments);
     for (const row of report.segments) {
       const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
-      lines.push(`  ${pad(`${row.column} = ${row.value}`, labelWidth)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
+      lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
   if (report.dataQuality.warnings.length > 0) {

@@ -6,16 +6,27 @@ import { AnalysisRun, Holdout, type Comparison } from '../db/entities/index';
  * holdout and of every holdout one of its runs used, and whoever set up one of its runs. The
  * four-eyes rule keeps each of them from reviewing, voting on or deciding it.
  */
-export async function authorsOf(source: DataSource | EntityManager, comparison: Comparison): Promise<Set<number>> {
+export async function authorsOf(
+  source: DataSource | EntityManager,
+  comparison: Comparison,
+  /** The comparison's runs when the caller has read them already (with requestedById and holdoutId). */
+  knownRuns?: readonly Pick<AnalysisRun, 'requestedById' | 'holdoutId'>[],
+): Promise<Set<number>> {
   const authors = new Set<number>([comparison.createdById]);
-  if (comparison.holdout) authors.add(comparison.holdout.uploadedById);
-  const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true } });
+  const runs = knownRuns ?? (await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true } }));
   const holdoutIds = new Set<number>([comparison.holdoutId]);
   for (const run of runs) {
     authors.add(run.requestedById);
     holdoutIds.add(run.holdoutId);
   }
-  const holdouts = await source.getRepository(Holdout).find({ where: { id: In([...holdoutIds]) }, select: { id: true, uploadedById: true } });
-  for (const holdout of holdouts) authors.add(holdout.uploadedById);
+  // The comparison's own holdout is usually loaded with it: only the others are read.
+  if (comparison.holdout) {
+    authors.add(comparison.holdout.uploadedById);
+    holdoutIds.delete(comparison.holdout.id);
+  }
+  if (holdoutIds.size > 0) {
+    const holdouts = await source.getRepository(Holdout).find({ where: { id: In([...holdoutIds]) }, select: { id: true, uploadedById: true } });
+    for (const holdout of holdouts) authors.add(holdout.uploadedById);
+  }
   return authors;
 }

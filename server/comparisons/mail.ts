@@ -1,10 +1,9 @@
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { OutgoingMail } from '../mail/mailer';
+import { giniLine, signature } from '../mail/templates';
 
 /** Wording of the comparisons' own e-mails: plain text, short, saying what to do next. */
 
-const signature = '— Scorecourt\n\nThis message was sent automatically. Replies are not read.';
-const points = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
 
 export function analysisFinishedMail(input: {
   to: string;
@@ -19,8 +18,7 @@ export function analysisFinishedMail(input: {
       ? [
           `The analysis of "${input.comparison}" is done.`,
           '',
-          `Gini: champion ${(outcome.headline.championGini * 100).toFixed(1)}, challenger ${(outcome.headline.challengerGini * 100).toFixed(1)} ` +
-            `(difference ${points(outcome.headline.deltaGini)} points, one-sided p = ${outcome.headline.pOneSided.toPrecision(2)}).`,
+          `${giniLine(outcome.headline)}.`,
           '',
           'Read the results, and submit the comparison for review when you are ready:',
         ]

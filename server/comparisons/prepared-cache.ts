@@ -1,11 +1,11 @@
 import type { AnalysisSettings, SwapMatrix } from '@shared/report';
 import type { DataSource, EntityManager } from 'typeorm';
 import type { AnalysisRun, RunInput } from '../db/entities/index';
-import { decodeHoldout, decodeIds, decodeOrders } from '../holdouts/columns';
+import { decodeIds } from '../holdouts/columns';
 import type { PrepareJob, PrepareMessage } from '../jobs/prepare-worker';
 import { startWorker } from '../runtime';
-import { preparePolicyData, type PreparedHoldout } from '../stats/policy-data';
-import { swapMatrix } from '../stats/swap-matrix';
+import type { PreparedHoldout } from '../stats/policy-data';
+import { prepareStored } from './prepare-stored';
 
 /**
  * A done run's data prepared for swap sets on demand and swap exports (`preparePolicyData`:
@@ -115,11 +115,7 @@ export const prepareHere: PrepareRun = async (source, run) => {
     name: string;
     data: Buffer;
   }[];
-  const stored = new Map<string, Uint8Array>(rows.map((row) => [row.name, row.data]));
-  const holdout = decodeHoldout({ ...run.input, hasIds: false }, run.mapping, stored);
-  const orders = decodeOrders(run.input.n, stored);
-  const data = preparePolicyData(holdout, { bands: run.settings.bands, orders: orders ?? undefined });
-  return { data, matrix: swapMatrix(data) };
+  return prepareStored(run.input, run.mapping, run.settings, new Map<string, Uint8Array>(rows.map((row) => [row.name, row.data])));
 };
 
 /** Prepares a run on a worker thread that reads the database file itself. */

@@ -9,12 +9,11 @@ import { z } from 'zod';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
+import { idParams } from '../http/validate';
 import { exportBands, exportReport, exportSwap } from './exports';
 import { listScenarios, saveScenario } from './scenarios';
 import { createComparison, currentReportJson, getComparisonDetail, listComparisons, setupComparison } from './service';
 import { swapOnDemand } from './swap';
-
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 /** A query parameter holding a finite number, or absent. */
 const optionalNumber = z.string().trim().min(1).transform(Number).pipe(z.number()).optional();

@@ -3,10 +3,12 @@ import type { Verdict } from '@shared/report';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
-import { AnalysisRun, Comparison, User } from '../db/entities/index';
+import { AnalysisRun, Comparison } from '../db/entities/index';
+import { comparisonLink } from '../governance/links';
 import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
 import { analysisFinishedMail } from './mail';
+import { creatorOf } from './people';
 import { transition } from './state';
 
 /**
@@ -86,15 +88,14 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
   if (outcome.status === 'done') await recordRunVerdict(manager, run, outcome.verdict);
 
   if (context.mailer && newest?.id === runId) {
-    const creator = await manager.findOneBy(User, { id: comparison.createdById });
-    if (creator?.active) {
+    for (const creator of await creatorOf(manager, comparison)) {
       await context.mailer.queue(
         manager,
         analysisFinishedMail({
           to: creator.email,
           name: creator.name,
           comparison: comparison.name,
-          link: `${context.publicUrl ?? ''}/comparisons/${comparison.id}`,
+          link: comparisonLink(context.publicUrl ?? '', comparison.id),
           outcome: outcome.status === 'done' ? { status: 'done', headline: outcome.headline } : { status: 'failed', error: outcome.error },
         }),
       );

@@ -18,7 +18,7 @@ import type { EncodedColumn } from '../holdouts/columns';
 import { findHoldout, mapHoldout } from '../holdouts/service';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
-import { transition } from './state';
+import { requireState, transition } from './state';
 
 /**
  * Comparisons: creation and set-up (the mapping is applied to the stored holdout first — bad
@@ -80,11 +80,14 @@ export async function currentRun(source: DataSource | EntityManager, comparisonI
   return query.getOne();
 }
 
-/** The current run, or 409 while no run is done. */
+/**
+ * The current run, or 404 without the comparison and 409 while no run is done. The done run is
+ * looked up first: one implies its comparison exists, so the comparison is read only without one.
+ */
 export async function requireCurrentRun(source: DataSource | EntityManager, comparisonId: number, withReport = false): Promise<AnalysisRun> {
-  await findComparison(source, comparisonId);
   const run = await currentRun(source, comparisonId, withReport);
   if (!run) {
+    await findComparison(source, comparisonId); // throws the 404
     const latest = await source.getRepository(AnalysisRun).findOne({ where: { comparisonId }, order: { id: 'DESC' } });
     const why = !latest
       ? 'it has no analysis yet (set its mapping first)'
@@ -187,12 +190,7 @@ export async function createComparison(ctx: AppContext, actor: User, input: Crea
 export async function setupComparison(ctx: AppContext, actor: User, id: number, input: SetupComparisonInput): Promise<ComparisonDetail> {
   const comparison = await findComparison(ctx.dataSource, id);
   // Checked before the (possibly long) read, and again inside the transaction by transition().
-  if (!setupStates.includes(comparison.state)) {
-    throw conflict(`This comparison is ${comparison.state}; its mapping and settings can change only while it is a draft, analysed or returned.`, {
-      state: comparison.state,
-      allowedFrom: setupStates,
-    });
-  }
+  requireState(comparison, setupStates, 'its mapping and settings can change only while it is a draft, analysed or returned');
   const holdout = input.holdoutId === undefined || input.holdoutId === comparison.holdoutId ? comparison.holdout : await findHoldout(ctx.dataSource, input.holdoutId);
   // shared/comparisons.ts parses `settings` with analysisSettingsSchema.partial(), which still fills
   // in every default: given settings are therefore complete. Without them the current ones stay.
@@ -225,13 +223,29 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
 
 export async function getComparisonDetail(source: DataSource | EntityManager, id: number): Promise<ComparisonDetail> {
   const comparison = await findComparison(source, id);
-  // What the detail shows of each run (presentRun, and the current run's headline).
+  // What the detail shows of each run (presentRun, and the current run's headline), and who set it
+  // up on which holdout (the four-eyes authors).
   const runs = await source.getRepository(AnalysisRun).find({
     where: { comparisonId: id },
     order: { id: 'DESC' },
-    select: { id: true, comparisonId: true, status: true, progress: true, stage: true, attempts: true, error: true, engineVersion: true, queuedAt: true, startedAt: true, finishedAt: true, headline: true },
+    select: {
+      id: true,
+      comparisonId: true,
+      status: true,
+      progress: true,
+      stage: true,
+      attempts: true,
+      error: true,
+      engineVersion: true,
+      queuedAt: true,
+      startedAt: true,
+      finishedAt: true,
+      headline: true,
+      requestedById: true,
+      holdoutId: true,
+    },
   });
-  return presentDetail(comparison, runs, await authorsOf(source, comparison));
+  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs));
 }
 
 const sortSql: Record<ListComparisonsQuery['sort'], string> = {

@@ -25,6 +25,20 @@ export interface TransitionEvent {
   details?: Record<string, unknown>;
 }
 
+/**
+ * The 409 for a comparison in the wrong state, naming its state and (unless `need` says it in the
+ * step's own words) the ones the step needs; nothing when it is in one of `allowed`. For
+ * `transition()` and for steps that need a state but do not change it.
+ */
+export function requireState(comparison: Pick<Comparison, 'state'>, allowed: readonly ComparisonState[], need?: string): void {
+  if (allowed.includes(comparison.state)) return;
+  const wanted = need ?? `this step needs it ${allowed.map((state) => comparisonStateLabels[state].toLowerCase()).join(' or ')}`;
+  throw conflict(`This comparison is ${comparisonStateLabels[comparison.state].toLowerCase()}; ${wanted}.`, {
+    state: comparison.state,
+    allowedFrom: allowed,
+  });
+}
+
 export async function transition(
   manager: EntityManager,
   comparison: Comparison | number,
@@ -36,13 +50,7 @@ export async function transition(
   // Read it again inside the transaction: the caller's copy may be stale.
   const current = await manager.findOneBy(Comparison, { id });
   if (!current) throw notFound(`There is no comparison ${id}.`);
-  if (!from.includes(current.state)) {
-    const wanted = from.map((state) => comparisonStateLabels[state].toLowerCase()).join(' or ');
-    throw conflict(`This comparison is ${comparisonStateLabels[current.state].toLowerCase()}; this step needs it ${wanted}.`, {
-      state: current.state,
-      allowedFrom: from,
-    });
-  }
+  requireState(current, from);
   const previous = current.state;
   current.state = to;
   current.updatedAt = now();

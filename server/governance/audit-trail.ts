@@ -1,9 +1,9 @@
 import type { AuditEvent as AuditEventBody } from '@shared/governance';
 import { Brackets, type DataSource, type EntityManager } from 'typeorm';
 import { auditDetails, verifyAuditChain, type ChainCheck } from '../audit/audit';
+import { findComparison } from '../comparisons/service';
 import { AnalysisRun, AuditEvent, Decision, VerdictRecord } from '../db/entities/index';
 import { iso, personRef } from './people';
-import { loadComparison } from './records';
 
 /**
  * A comparison's audit trail: every event recorded against the comparison (creation, set-ups,
@@ -30,7 +30,7 @@ export function presentAuditEvent(event: AuditEvent): AuditEventBody {
 }
 
 export async function comparisonAuditEvents(source: Source, comparisonId: number): Promise<AuditEvent[]> {
-  const comparison = await loadComparison(source, comparisonId);
+  const comparison = await findComparison(source, comparisonId);
   const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId }, select: { id: true, holdoutId: true } });
   const holdoutIds = [...new Set([comparison.holdoutId, ...runs.map((run) => run.holdoutId)])].map(String);
   const verdictVersions = await source

@@ -7,7 +7,7 @@ import { In } from 'typeorm';
 import { attachment, downloadName } from '../comparisons/csv';
 import { presentRun } from '../comparisons/present';
 import { listScenarios } from '../comparisons/scenarios';
-import { currentRun } from '../comparisons/service';
+import { currentRun, findComparison } from '../comparisons/service';
 import type { AppContext } from '../context';
 import { AnalysisRun, PolicyVersion, User, Vote } from '../db/entities/index';
 import { listNotes } from '../notes/service';
@@ -15,7 +15,6 @@ import { presentPolicyVersion } from '../policy/service';
 import { comparisonAuditTrail } from './audit-trail';
 import { iso, personRef } from './people';
 import { presentVote } from './present';
-import { loadComparison } from './records';
 import { getGovernance } from './service';
 
 /**
@@ -86,7 +85,7 @@ const sha256 = (text: string) => createHash('sha256').update(text).digest('hex')
 
 export async function buildEvidencePack(ctx: AppContext, actor: User, comparisonId: number): Promise<EvidencePack> {
   const source = ctx.dataSource;
-  const comparison = await loadComparison(source, comparisonId);
+  const comparison = await findComparison(source, comparisonId);
   const holdout = comparison.holdout;
   const uploader = await source.getRepository(User).findOneBy({ id: holdout.uploadedById });
   const runs = await source

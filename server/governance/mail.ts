@@ -1,25 +1,16 @@
 import { voteChoiceLabels, type VoteChoice } from '@shared/governance';
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { OutgoingMail } from '../mail/mailer';
+import { giniLine, signature } from '../mail/templates';
 
 /**
  * Wording of the workflow e-mails, one per transition, to the people who act next: plain text,
  * short, saying what happened, what to do and where. Signed like the other Scorecourt messages.
  */
 
-const signature = '— Scorecourt\n\nThis message was sent automatically. Replies are not read.';
-
-function points(value: number): string {
-  return `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
-}
-
 function headlineLine(headline: ComparisonHeadline | null): string[] {
   if (!headline) return [];
-  return [
-    `Gini: champion ${(headline.championGini * 100).toFixed(1)}, challenger ${(headline.challengerGini * 100).toFixed(1)} ` +
-      `(difference ${points(headline.deltaGini)} points, one-sided p = ${headline.pOneSided.toPrecision(2)}) on ${headline.rows.toLocaleString('en-US')} accounts.`,
-    '',
-  ];
+  return [`${giniLine(headline)} on ${headline.rows.toLocaleString('en-US')} accounts.`, ''];
 }
 
 /** Long texts are quoted in full up to a point; the page has the rest. */

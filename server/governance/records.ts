@@ -1,18 +1,10 @@
-import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { findComparison } from '../comparisons/service';
-export { authorsOf } from '../comparisons/authors';
-import { AnalysisRun, Review, User, Vote, type Comparison } from '../db/entities/index';
-import { conflict, forbidden } from '../errors';
+import { AnalysisRun, Review, User, Vote } from '../db/entities/index';
+import { forbidden } from '../errors';
 
 /** Look-ups and rules the governance steps share. */
 
 type Source = DataSource | EntityManager;
-
-/** The comparison with its creator and holdout (for the four-eyes rule), or 404. */
-export function loadComparison(source: Source, id: number): Promise<Comparison> {
-  return findComparison(source, id);
-}
 
 /** The authors as people, in id order (for the review page). */
 export async function authorRefs(source: Source, authors: ReadonlySet<number>): Promise<{ id: number; name: string }[]> {
@@ -26,16 +18,6 @@ export function forbidOwn(authors: ReadonlySet<number>, user: { id: number }, st
       `You created this comparison, uploaded its holdout or set up one of its analyses, so you cannot ${step} it: someone else must (four-eyes rule).`,
     );
   }
-}
-
-/** A 409 in the words `transition()` uses, for steps that need a state but do not change it. */
-export function requireState(comparison: Comparison, allowed: readonly ComparisonState[]): void {
-  if (allowed.includes(comparison.state)) return;
-  const wanted = allowed.map((state) => comparisonStateLabels[state].toLowerCase()).join(' or ');
-  throw conflict(`This comparison is ${comparisonStateLabels[comparison.state].toLowerCase()}; this step needs it ${wanted}.`, {
-    state: comparison.state,
-    allowedFrom: allowed,
-  });
 }
 
 /** The newest run of a comparison, whatever its status. */

@@ -1,14 +1,12 @@
 import { decisionInputSchema, reviewInputSchema, submitInputSchema, voteInputSchema } from '@shared/governance';
-import { z } from 'zod';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
+import { idParams } from '../http/validate';
 import { comparisonAuditTrail } from './audit-trail';
 import { sendEvidencePack } from './evidence';
 import { castVote, getGovernance, recordDecision, reviewComparison, submitComparison } from './service';
 import { reEvaluate } from './verdicts';
-
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 /**
  * The review workflow, verdict records, the audit trail and the evidence pack (shared/governance.ts).

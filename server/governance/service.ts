@@ -1,19 +1,22 @@
 import type { DecisionInput, Governance, ReviewInput, VoteInput } from '@shared/governance';
-import type { Role } from '@shared/roles';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
-import { transition } from '../comparisons/state';
+import { authorsOf } from '../comparisons/authors';
+import { creatorOf } from '../comparisons/people';
+import { findComparison } from '../comparisons/service';
+import { requireState, transition } from '../comparisons/state';
 import type { AppContext } from '../context';
-import { Decision, Review, User, VerdictRecord, Vote, type Comparison } from '../db/entities/index';
+import { Decision, Review, VerdictRecord, Vote, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { conflict } from '../errors';
 import type { OutgoingMail } from '../mail/mailer';
 import { currentPolicy } from '../policy/service';
+import { activeUsersWithRole } from '../users/service';
 import { comparisonLink } from './links';
 import { decidedMail, returnedMail, submittedMail, validatedMail } from './mail';
 import { presentDecision, presentReview, presentVerdictRecord, presentVote, voteChoices } from './present';
-import { authorRefs, authorsOf, countingVotes, currentRound, forbidOwn, latestReview, loadComparison, newestRun, requireState } from './records';
+import { authorRefs, countingVotes, currentRound, forbidOwn, latestReview, newestRun } from './records';
 
 /**
  * The review workflow (DESIGN.md "Workflow and roles"): submit (modeler), review (analyst),
@@ -26,30 +29,20 @@ import { authorRefs, authorsOf, countingVotes, currentRound, forbidOwn, latestRe
  * it (403) —, then the state (409), then the step's own conditions (409).
  */
 
-async function activeWithRole(manager: EntityManager, role: Role): Promise<User[]> {
-  const active = await manager.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
-  return active.filter((user) => user.roles.includes(role));
-}
-
 async function queueAll(ctx: AppContext, manager: EntityManager, mails: OutgoingMail[]): Promise<void> {
   for (const mail of mails) await ctx.mailer.queue(manager, mail);
-}
-
-async function creatorOf(manager: EntityManager, comparison: Comparison): Promise<User[]> {
-  const creator = await manager.getRepository(User).findOneBy({ id: comparison.createdById });
-  return creator?.active ? [creator] : [];
 }
 
 /** analysed → in review, or returned → in review after a new analysis run. */
 export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
-    const comparison = await loadComparison(manager, id);
+    const comparison = await findComparison(manager, id);
     requireState(comparison, ['analysed', 'returned']);
     const run = await newestRun(manager, id);
     if (!run || run.status !== 'done') {
       throw conflict(
         run
-          ? `The newest analysis of this comparison is ${run.status === 'failed' ? 'failed' : run.status}; submit it once an analysis has finished.`
+          ? `The newest analysis of this comparison is ${run.status}; submit it once an analysis has finished.`
           : 'This comparison has no analysis yet.',
         { latestRun: run ? { id: run.id, status: run.status } : null },
       );
@@ -70,7 +63,7 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
     });
     const link = comparisonLink(ctx.config.publicUrl, id, 'review');
     const authors = await authorsOf(manager, comparison);
-    const analysts = (await activeWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
+    const analysts = (await activeUsersWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
     await queueAll(
       ctx,
       manager,
@@ -94,7 +87,7 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
 /** in review → validated or returned, with the analyst's findings on the current run. */
 export async function reviewComparison(ctx: AppContext, actor: User, id: number, input: ReviewInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
-    const comparison = await loadComparison(manager, id);
+    const comparison = await findComparison(manager, id);
     const authors = await authorsOf(manager, comparison);
     forbidOwn(authors, actor, 'review');
     requireState(comparison, ['in-review']);
@@ -119,7 +112,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
     if (input.outcome === 'validated') {
       const { quorum } = await currentPolicy(manager);
       const link = comparisonLink(ctx.config.publicUrl, id, 'review');
-      const committee = (await activeWithRole(manager, 'committee')).filter((person) => !authors.has(person.id));
+      const committee = (await activeUsersWithRole(manager, 'committee')).filter((person) => !authors.has(person.id));
       await queueAll(
         ctx,
         manager,
@@ -145,7 +138,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
 /** A committee member's vote in the current validation round; a second vote replaces their first. */
 export async function castVote(ctx: AppContext, actor: User, id: number, input: VoteInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
-    const comparison = await loadComparison(manager, id);
+    const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'vote on');
     requireState(comparison, ['validated']);
     const round = await currentRound(manager, id);
@@ -181,7 +174,7 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
 /** validated → decided: the committee's decision, once the policy's quorum of votes is reached. */
 export async function recordDecision(ctx: AppContext, actor: User, id: number, input: DecisionInput): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
-    const comparison = await loadComparison(manager, id);
+    const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'decide');
     requireState(comparison, ['validated']);
     const round = await currentRound(manager, id);
@@ -254,7 +247,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
 /** Everything the review & decision page needs. */
 export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: number): Promise<Governance> {
   const source = ctx.dataSource;
-  const comparison = await loadComparison(source, id);
+  const comparison = await findComparison(source, id);
   const reviews = await source.getRepository(Review).find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { reviewer: true } });
   const round = reviews[0]?.outcome === 'validated' ? reviews[0] : null;
   const votes = round ? await countingVotes(source, round.id) : [];

@@ -37,7 +37,7 @@ export type ReaderReply =
   | { ok: false; kind: 'other'; message: string };
 
 /** A stored holdout's file, reassembled from its chunks, through a read-only connection of its own. */
-function storedFile(databasePath: string, holdoutId: number): { bytes: Buffer; fileName: string; sha256: string } {
+export function storedFile(databasePath: string, holdoutId: number): { bytes: Buffer; fileName: string; sha256: string } {
   const db = new Database(databasePath, { readonly: true, fileMustExist: true });
   try {
     db.pragma('busy_timeout = 5000');

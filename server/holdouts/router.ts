@@ -3,14 +3,12 @@ import { validateMappingInputSchema } from '@shared/comparisons';
 import { errorCodes } from '@shared/errors';
 import type { RequestHandler } from 'express';
 import multer from 'multer';
-import { z } from 'zod';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { AppError } from '../errors';
 import { defineRoute, type RouteDefinition } from '../http/routes';
+import { idParams } from '../http/validate';
 import { getHoldout, uploadHoldout, validateMapping } from './service';
-
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
   // Streamed to a random name in the upload folder (never the client's name), at most

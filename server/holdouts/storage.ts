@@ -1,11 +1,10 @@
 import { closeSync, openSync, readSync } from 'node:fs';
-import type { DataSource, EntityManager } from 'typeorm';
-import type { Holdout } from '../db/entities/index';
+import type { EntityManager } from 'typeorm';
 
 /**
  * An uploaded file's bytes in SQLite, in fixed-size chunks (holdout_chunks), written in the
  * same transaction as the holdout row: the file is stored whole or not at all, and a later
- * mapping reads it back with the engine's reader (a `{ bytes }` source). 4 MB chunks keep each
+ * mapping reads it back (holdouts/reading.ts `storedFile`) with the engine's reader (a `{ bytes }` source). 4 MB chunks keep each
  * row well under SQLite's limits and a 200 MB file at 50 rows; the event loop gets a turn between
  * chunks, so other requests are answered while a large file is stored.
  */
@@ -37,20 +36,4 @@ export async function storeHoldoutFile(manager: EntityManager, holdoutId: number
     closeSync(fd);
   }
   return { chunks, bytes };
-}
-
-/** The stored file, reassembled: one buffer of the file's size, filled chunk by chunk. */
-export async function holdoutBytes(source: DataSource | EntityManager, holdout: Pick<Holdout, 'id' | 'bytes' | 'chunkCount'>): Promise<Buffer> {
-  const out = Buffer.allocUnsafe(holdout.bytes);
-  let offset = 0;
-  for (let seq = 0; seq < holdout.chunkCount; seq++) {
-    const rows = (await source.query('SELECT "data" FROM "holdout_chunks" WHERE "holdoutId" = ? AND "seq" = ?', [holdout.id, seq])) as { data: Buffer }[];
-    if (rows.length !== 1) throw new Error(`holdout ${holdout.id}: stored chunk ${seq} is missing`);
-    const chunk = rows[0].data;
-    if (offset + chunk.length > out.length) throw new Error(`holdout ${holdout.id}: stored chunks are longer than the file`);
-    chunk.copy(out, offset);
-    offset += chunk.length;
-  }
-  if (offset !== holdout.bytes) throw new Error(`holdout ${holdout.id}: stored chunks hold ${offset} bytes, the file had ${holdout.bytes}`);
-  return out;
 }

@@ -1,6 +1,6 @@
 import { errorCodes } from '@shared/errors';
 import type { RequestHandler } from 'express';
-import type { z } from 'zod';
+import { z } from 'zod';
 import { AppError } from '../errors';
 
 /**
@@ -35,3 +35,6 @@ export function validate(schemas: { body?: z.ZodType; params?: z.ZodType; query?
     next();
   };
 }
+
+/** `/:id` route parameters: a positive whole number. */
+export const idParams = z.object({ id: z.coerce.number().int().positive() });

@@ -1,15 +1,14 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import type { SwapMatrix } from '@shared/report';
-import { decodeHoldout, decodeOrders } from '../holdouts/columns';
-import { preparePolicyData, type PreparedHoldout } from '../stats/policy-data';
-import { swapMatrix } from '../stats/swap-matrix';
+import { prepareStored } from '../comparisons/prepare-stored';
+import type { PreparedHoldout } from '../stats/policy-data';
 import { lowerPriority, readRun, transferable } from './worker-support';
 
 /**
  * Prepares a done run's stored columns for swap sets on demand, off the request thread (started
  * by comparisons/prepared-cache.ts when its cache does not hold the run, e.g. after a restart):
- * reads the columns and sort orders read-only, runs preparePolicyData with the stored orders
- * (no sort), and transfers the result. About 0.3 s at 1,000,000 accounts.
+ * reads the columns and sort orders read-only, prepares them (comparisons/prepare-stored.ts: the
+ * stored orders, no sort), and transfers the result. About 0.3 s at 1,000,000 accounts.
  */
 
 export interface PrepareJob {
@@ -22,10 +21,7 @@ const job = workerData as PrepareJob;
 lowerPriority(5);
 try {
   const run = readRun(job.databasePath, job.runId, { ids: false });
-  const holdout = decodeHoldout({ ...run.input, hasIds: false }, run.mapping, run.columns);
-  const orders = decodeOrders(run.input.n, run.columns);
-  const data = preparePolicyData(holdout, { bands: run.settings.bands, orders: orders ?? undefined });
-  const matrix = swapMatrix(data);
+  const { data, matrix } = prepareStored(run.input, run.mapping, run.settings, run.columns);
   const { prepared, buffers } = transferable(data);
   parentPort!.postMessage({ prepared, matrix } satisfies PrepareMessage, buffers);
 } catch (error) {

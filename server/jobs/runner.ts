@@ -2,7 +2,6 @@ import type { ResourceLimits, Worker } from 'node:worker_threads';
 import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
-import { currentAdoptionPolicy } from '../comparisons/adoption-policy';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
 import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
 import { AnalysisRun } from '../db/entities/index';
@@ -10,6 +9,7 @@ import { inTransaction, withWriteLock } from '../db/transaction';
 import { encodeOrder, orderColumn } from '../holdouts/columns';
 import type { Logger } from '../log';
 import type { Mailer } from '../mail/mailer';
+import { currentPolicy } from '../policy/service';
 import { startWorker } from '../runtime';
 import type { PreparedHoldout } from '../stats/policy-data';
 import { engineVersion } from '../stats/report';
@@ -201,7 +201,7 @@ export class JobRunner {
         { id: next.id },
         { status: 'running', attempts: attempt, startedAt: now(), progress: 0, stage: 'Starting', engineVersion },
       );
-      const policy = await currentAdoptionPolicy(manager);
+      const policy = await currentPolicy(manager);
       return { runId: next.id, attempt, job: { databasePath: this.options.databasePath, runId: next.id, attempt, policy } };
     });
   }

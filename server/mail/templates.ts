@@ -1,4 +1,6 @@
+import type { ComparisonHeadline } from '@shared/comparisons';
 import { roleLabels, type Role } from '@shared/roles';
+import { pText } from '../stats/verdict';
 import type { OutgoingMail } from './mailer';
 
 /** The wording of Scorecourt's own e-mails: plain text, short, and saying what to do next. */
@@ -7,7 +9,18 @@ function listRoles(roles: readonly Role[]): string {
   return roles.map((role) => roleLabels[role]).join(', ');
 }
 
-const signature = '— Scorecourt\n\nThis message was sent automatically. Replies are not read.';
+/** The last lines of every Scorecourt e-mail. */
+export const signature = '— Scorecourt\n\nThis message was sent automatically. Replies are not read.';
+
+/** "Gini: champion 50.6, challenger 55.0 (difference +4.4 points, one-sided p = 4.1 × 10⁻¹⁶)": a run's headline in one line. */
+export function giniLine(headline: ComparisonHeadline): string {
+  const points = (value: number) => (value * 100).toFixed(1);
+  const signedPoints = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
+  return (
+    `Gini: champion ${points(headline.championGini)}, challenger ${points(headline.challengerGini)} ` +
+    `(difference ${signedPoints(headline.deltaGini)} points, one-sided ${pText(headline.pOneSided)})`
+  );
+}
 
 export function invitationMail(input: {
   to: string;

@@ -1,11 +1,9 @@
 import { noteInputSchema } from '@shared/governance';
-import { z } from 'zod';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
+import { idParams } from '../http/validate';
 import { addNote, listNotes } from './service';
-
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 export function noteRoutes(ctx: AppContext): RouteDefinition[] {
   return [

@@ -3,12 +3,12 @@ import type { Note as NoteBody, NoteInput } from '@shared/governance';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
+import { findComparison } from '../comparisons/service';
 import type { AppContext } from '../context';
 import { CutoffScenario, Note, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { AppError, forbidden } from '../errors';
 import { iso, personRef } from '../governance/people';
-import { loadComparison } from '../governance/records';
 
 /**
  * Notes on a comparison: the discussion thread, open to everyone signed in, and annotations on
@@ -28,14 +28,14 @@ export function presentNote(note: Note): NoteBody {
 }
 
 export async function listNotes(source: DataSource | EntityManager, comparisonId: number): Promise<NoteBody[]> {
-  await loadComparison(source, comparisonId);
+  await findComparison(source, comparisonId);
   const notes = await source.getRepository(Note).find({ where: { comparisonId }, order: { id: 'ASC' }, relations: { author: true } });
   return notes.map(presentNote);
 }
 
 export async function addNote(ctx: AppContext, actor: User, comparisonId: number, input: NoteInput): Promise<NoteBody> {
   const id = await inTransaction(ctx.dataSource, async (manager) => {
-    await loadComparison(manager, comparisonId);
+    await findComparison(manager, comparisonId);
     if (input.anchor !== 'discussion' && !actor.roles.includes('policy')) {
       throw forbidden('Only the credit policy role annotates the swap sets; everyone may write in the discussion.');
     }

@@ -5,7 +5,6 @@ import { recordAudit } from '../audit/audit';
 import type { AppContext } from '../context';
 import { PolicyVersion, type StoredPolicy, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
-import { notFound } from '../errors';
 import { iso, personRef } from '../governance/people';
 
 /**
@@ -45,13 +44,6 @@ export async function currentPolicy(source: DataSource | EntityManager): Promise
 
 export async function currentPolicyVersion(source: DataSource | EntityManager): Promise<PolicyVersionBody> {
   return presentPolicyVersion(await newestRow(source));
-}
-
-/** One stored version, as it was written. */
-export async function policyAtVersion(source: DataSource | EntityManager, version: number): Promise<AdoptionPolicy> {
-  const row = await source.getRepository(PolicyVersion).findOneBy({ version });
-  if (!row) throw notFound(`There is no adoption policy version ${version}.`);
-  return toPolicy(row);
 }
 
 /** Every version, newest first. */

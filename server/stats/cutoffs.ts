@@ -61,7 +61,7 @@ function toSafety(score: number, higherIs: HigherIs): number {
 }
 
 /** First position k with sorted[k] ≥ value (n when there is none). */
-export function lowerBound(sorted: Float64Array, value: number): number {
+function lowerBound(sorted: Float64Array, value: number): number {
   let lo = 0;
   let hi = sorted.length;
   while (lo < hi) {

@@ -27,4 +27,10 @@ export interface SegmentColumn {
 }
 
 export type ModelName = 'champion' | 'challenger';
-export const modelNames: readonly ModelName[] = ['champion', 'challenger'];
+/**
+ * A segment column's level indexes in the order its values are reported: by the values' UTF-16
+ * code units (the same for every report; not locale-dependent).
+ */
+export function levelOrder(levels: readonly string[]): number[] {
+  return [...levels.keys()].sort((x, y) => (levels[x] < levels[y] ? -1 : levels[x] > levels[y] ? 1 : 0));
+}

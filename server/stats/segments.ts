@@ -1,6 +1,6 @@
 import type { SegmentRow } from '@shared/report';
 import { pairedDelong } from './delong';
-import type { Holdout } from './holdout';
+import { levelOrder, type Holdout } from './holdout';
 import { holm } from './holm';
 import { blocksFromSorted, type ScoreBlocks } from './order';
 
@@ -73,8 +73,7 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
     const champion = blocksByLevel(options.champion, levelAndLocal, offsets, levels);
     const challenger = blocksByLevel(options.challenger, levelAndLocal, offsets, levels);
 
-    const order = [...column.levels.keys()].sort((x, y) => (column.levels[x] < column.levels[y] ? -1 : column.levels[x] > column.levels[y] ? 1 : 0));
-    for (const level of order) {
+    for (const level of levelOrder(column.levels)) {
       const n = size[level];
       const { nBad: bads, nGood: goods } = champion[level];
       const row: SegmentRow = {

@@ -1,5 +1,6 @@
 import type { SegmentSwapCell, SwapCell, SwapSegmentRow, SwapSets } from '@shared/report';
 import { locateCutoff, type LocatedCutoff } from './cutoffs';
+import { levelOrder } from './holdout';
 import type { PreparedHoldout } from './policy-data';
 import { swapTest } from './swap-test';
 import { wilsonInterval } from './wilson';
@@ -67,18 +68,10 @@ export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence
     }
   }
 
-  const cell = (index: number): SwapCell => {
-    const count = counts[index];
-    const cellBads = bads[index];
-    return {
-      count,
-      share: count / n,
-      bads: cellBads,
-      badRate: count > 0 ? cellBads / count : null,
-      badRateCi: wilsonInterval(cellBads, count, confidence),
-      amount: exposure ? amounts[index] : null,
-    };
-  };
+  const cell = (index: number): SwapCell => ({
+    ...cellOf(counts[index], bads[index], exposure ? amounts[index] : null, confidence),
+    share: counts[index] / n,
+  });
 
   return {
     basis: request.basis,
@@ -92,6 +85,11 @@ export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence
     test: swapTest(bads[SWAP_IN], counts[SWAP_IN], bads[SWAP_OUT], counts[SWAP_OUT]),
     bySegment: cells ? swapBySegment(data, cells, confidence) : [],
   };
+}
+
+/** A cell's count, bads, bad rate with its Wilson interval, and amount. */
+function cellOf(count: number, bads: number, amount: number | null, confidence: number): SegmentSwapCell {
+  return { count, bads, badRate: count > 0 ? bads / count : null, badRateCi: wilsonInterval(bads, count, confidence), amount };
 }
 
 /** Per segment value: the four cells' counts, bads and amounts from each account's cell. */
@@ -110,21 +108,10 @@ function swapBySegment(data: PreparedHoldout, cells: Uint8Array, confidence: num
       if (amounts) amounts[k] += exposure![i];
     }
     // Values in the same order as the report's segment rows (segments.ts).
-    const order = [...levels.keys()].sort((x, y) => (levels[x] < levels[y] ? -1 : levels[x] > levels[y] ? 1 : 0));
-    for (const level of order) {
+    for (const level of levelOrder(levels)) {
       const value = levels[level];
       const at = level * 4;
-      const cell = (index: number): SegmentSwapCell => {
-        const count = counts[at + index];
-        const cellBads = bads[at + index];
-        return {
-          count,
-          bads: cellBads,
-          badRate: count > 0 ? cellBads / count : null,
-          badRateCi: wilsonInterval(cellBads, count, confidence),
-          amount: amounts ? amounts[at + index] : null,
-        };
-      };
+      const cell = (index: number) => cellOf(counts[at + index], bads[at + index], amounts ? amounts[at + index] : null, confidence);
       const accounts = counts[at] + counts[at + 1] + counts[at + 2] + counts[at + 3];
       const approval = (accepted: number, other: number) => {
         const approved = counts[at + accepted] + counts[at + other];

@@ -205,8 +205,11 @@ const SUPERSCRIPT: Record<string, string> = {
   '9': '⁹',
 };
 
-/** "p = 0.012", "p = 3.0 × 10⁻⁴" below 0.001, "p < 1 × 10⁻³⁰⁰" when it underflowed. */
-function pText(p: number): string {
+/**
+ * "p = 0.012", "p = 3.0 × 10⁻⁴" below 0.001, "p < 1 × 10⁻³⁰⁰" when it underflowed: the p-values in
+ * the verdict's words and in the workflow e-mails.
+ */
+export function pText(p: number): string {
   if (p <= 0) return 'p < 1 × 10⁻³⁰⁰';
   if (p < 0.001) {
     const [mantissa, exponent] = p.toExponential(1).split('e');

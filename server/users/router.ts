@@ -1,12 +1,10 @@
 import { inviteInputSchema, updateUserInputSchema } from '@shared/users';
-import { z } from 'zod';
 import type { AppContext } from '../context';
 import { currentUser } from '../auth/guards';
 import { defineRoute, type RouteDefinition } from '../http/routes';
+import { idParams } from '../http/validate';
 import { presentUser } from './present';
 import { inviteUser, listUsers, updateUser } from './service';
-
-const idParams = z.object({ id: z.coerce.number().int().positive() });
 
 export function userRoutes(ctx: AppContext): RouteDefinition[] {
   return [

@@ -1,6 +1,6 @@
 import type { Role } from '@shared/roles';
 import type { InviteInput, UpdateUserInput } from '@shared/users';
-import type { DataSource } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { issueToken, retireTokens, tokenLink } from '../auth/tokens';
 import type { AppContext } from '../context';
@@ -17,8 +17,8 @@ export function listUsers(dataSource: DataSource): Promise<User[]> {
 }
 
 /** Active people holding `role` (for e-mailing the people who act next). */
-export async function activeUsersWithRole(dataSource: DataSource, role: Role): Promise<User[]> {
-  const active = await dataSource.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
+export async function activeUsersWithRole(source: DataSource | EntityManager, role: Role): Promise<User[]> {
+  const active = await source.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
   return active.filter((user) => user.roles.includes(role));
 }
 

@@ -77,7 +77,10 @@ export function DataTable<T>({
 }: DataTableProps<T>) {
   const manual = isManual(pagination);
   const [sorting, setSorting] = useState<SortingState>(initialSorting);
-  const [clientPage, setClientPage] = useState({ pageIndex: 0, pageSize: pagination?.pageSize ?? 25 });
+  const [storedPage, setClientPage] = useState({ pageIndex: 0, pageSize: pagination?.pageSize ?? 25 });
+  // Fewer rows than before (a filter) can leave the page past the last one: show the last then.
+  const lastPage = Math.max(0, Math.ceil(data.length / storedPage.pageSize) - 1);
+  const clientPage = storedPage.pageIndex > lastPage ? { ...storedPage, pageIndex: lastPage } : storedPage;
   const sortingOn = enableSorting ?? !manual;
 
   // eslint-disable-next-line react-hooks/incompatible-library -- TanStack Table returns new functions each render; nothing here is memoised on them.

@@ -3,7 +3,7 @@ import { readdirSync } from 'node:fs';
 import { holdoutSchema, validationReportSchema } from '@shared/comparisons';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent } from '@server/db/entities/index';
-import { holdoutBytes } from '@server/holdouts/storage';
+import { storedFile } from '@server/holdouts/reading';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { rowCounts, sample2k, sampleDir, sampleMapping, uploadFile } from './helpers/holdouts';
@@ -59,8 +59,8 @@ describe('uploading a holdout', () => {
     expect(holdout.uploadedBy.name).toBeTruthy();
 
     // The stored chunks are the file, byte for byte.
-    const stored = await holdoutBytes(t.dataSource, { id: holdout.id, bytes: holdout.bytes, chunkCount: 1 });
-    expect(stored.equals(bytes)).toBe(true);
+    const stored = storedFile(t.config.databasePath, holdout.id);
+    expect(stored.bytes.equals(bytes)).toBe(true);
     const event = await t.dataSource.getRepository(AuditEvent).findOneByOrFail({ action: 'holdout.uploaded', targetId: String(holdout.id) });
     expect(JSON.parse(event.details)).toMatchObject({ sha256: holdout.sha256, rowCount: 2000, bytes: bytes.length });
     expect(uploadsLeft()).toEqual([]);

@@ -4,6 +4,7 @@ import { AuditEvent, MailMessage, OneTimeToken, Session, User } from '@server/db
 import { hashToken } from '@server/auth/tokens';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { TestClient, signedInAs } from './helpers/client';
+import { lastOutboxId } from './helpers/governance';
 
 let t: TestApp;
 let admin: TestClient;
@@ -121,7 +122,7 @@ describe('password reset', () => {
 
   it('sends a one-hour link that sets a new password and ends the old sessions', async () => {
     const elsewhere = await signedInAs(t.app, 'policy');
-    const last = (await t.dataSource.getRepository(MailMessage).find({ order: { id: 'DESC' }, take: 1 }))[0]?.id ?? 0;
+    const last = await lastOutboxId(t);
     const request = await new TestClient(t.app).post('/api/auth/password-reset', { email: 'policy@tallowmere.test' });
     expect(request.status).toBe(202);
     const mail = await t.deliveredMail({ to: 'policy@tallowmere.test', afterId: last });
@@ -145,10 +146,10 @@ describe('password reset', () => {
   });
 
   it('retires an older reset link when a newer one is sent', async () => {
-    const last = (await t.dataSource.getRepository(MailMessage).find({ order: { id: 'DESC' }, take: 1 }))[0].id;
+    const last = await lastOutboxId(t);
     await new TestClient(t.app).post('/api/auth/password-reset', { email: 'analyst@tallowmere.test' });
     const first = tokenFrom((await t.deliveredMail({ to: 'analyst@tallowmere.test', afterId: last })).receivedText!);
-    const middle = (await t.dataSource.getRepository(MailMessage).find({ order: { id: 'DESC' }, take: 1 }))[0].id;
+    const middle = await lastOutboxId(t);
     await new TestClient(t.app).post('/api/auth/password-reset', { email: 'analyst@tallowmere.test' });
     const second = tokenFrom((await t.deliveredMail({ to: 'analyst@tallowmere.test', afterId: middle })).receivedText!);
     await new TestClient(t.app).get(`/api/auth/tokens/${first}`).expect(410);
@@ -198,7 +199,7 @@ describe('people (admin)', () => {
     const firstToken = tokenFrom((await t.deliveredMail({ to: 'pending@tallowmere.test' })).receivedText!);
     await admin.patch(`/api/users/${user.id}`, { active: false });
     await new TestClient(t.app).get(`/api/auth/tokens/${firstToken}`).expect(410);
-    const last = (await t.dataSource.getRepository(MailMessage).find({ order: { id: 'DESC' }, take: 1 }))[0].id;
+    const last = await lastOutboxId(t);
     await admin.patch(`/api/users/${user.id}`, { active: true });
     const secondToken = tokenFrom((await t.deliveredMail({ to: 'pending@tallowmere.test', afterId: last })).receivedText!);
     expect(secondToken).not.toBe(firstToken);

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { projectRoot } from '@server/runtime';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
-import { sampleDir, uploadFile } from './helpers/holdouts';
+import { sampleDir, sampleMapping, uploadFile } from './helpers/holdouts';
 import { readFileSync } from 'node:fs';
 
 /**
@@ -56,20 +56,8 @@ describe('the report through the API equals the CLI', () => {
         ...['--segment', 'product', '--segment', 'channel', '--exposure', 'loan_amount', '--id', 'account_id'],
         ...['--bootstrap', '300', '--seed', '11', '--approval-rate', '0.65'],
       ]),
-      apiReport(
-        file,
-        {
-          outcome: 'bad_12m',
-          badValue: '1',
-          champion: 'champion_points',
-          challenger: 'challenger_points',
-          higherIs: { champion: 'safer', challenger: 'safer' },
-          id: 'account_id',
-          segments: ['product', 'channel'],
-          exposure: 'loan_amount',
-        },
-        { bootstrap: 300, seed: 11, approvalRate: 0.65 },
-      ),
+      // sampleMapping is the mapping of the CLI flags above (bad_12m = 1 is bad, both higher = safer).
+      apiReport(file, sampleMapping, { bootstrap: 300, seed: 11, approvalRate: 0.65 }),
     ]);
     reportSchema.parse(fromApi);
     expect(fromApi).toEqual(fromCli);

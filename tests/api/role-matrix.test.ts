@@ -134,18 +134,17 @@ describe('role matrix', () => {
   it('answers each guarded route as its access rule says, for anonymous and every role', async () => {
     const guarded = routeTable(t.app).filter((route) => route.access !== 'public');
     const failures: string[] = [];
-    let cells = 0;
+    // A floor, so an empty or shrunken route table cannot pass the matrix vacuously.
+    expect(guarded.length).toBeGreaterThan(20);
     for (const route of guarded) {
       for (const actor of actors) {
         const want = expected(route, actor);
         const status = await call(clients.get(actor)!, route);
-        cells += 1;
         const ok = want === 'allowed' ? status !== 401 && status !== 403 : status === want;
         if (!ok) failures.push(`${route.method.toUpperCase()} ${route.path} [${describeAccess(route.access)}] as ${actor}: got ${status}, want ${want}`);
       }
     }
     expect(failures).toEqual([]);
-    expect(cells).toBe(guarded.length * actors.length);
   });
 
   it('lets anyone reach the public routes without signing in', async () => {

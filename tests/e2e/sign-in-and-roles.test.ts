@@ -4,9 +4,9 @@ import { type Role, roleLabels } from '@shared/roles';
 import { paths } from '@/config/paths';
 import { type TestPage, launchBrowser, openPage } from './helpers/browser';
 import { type RunningServer, startServer } from './helpers/server';
+import { fillSignIn } from './helpers/session';
 
 // The demo people of issue 2 (seeded on an empty database outside production), each with one role.
-const DEMO_PASSWORD = 'scorecourt-demo';
 const demoPeople: { email: string; role: Role; nav: string[] }[] = [
   { email: 'admin@tallowmere.test', role: 'admin', nav: ['Home', 'Comparisons', 'Adoption policy', 'People', 'Outbox'] },
   { email: 'modeler@tallowmere.test', role: 'modeler', nav: ['Home', 'Comparisons', 'New comparison', 'Adoption policy'] },
@@ -29,13 +29,6 @@ afterAll(async () => {
   await server?.stop();
 });
 
-async function signIn(tab: TestPage, email: string, password = DEMO_PASSWORD) {
-  const { page } = tab;
-  await page.getByLabel('E-mail address').fill(email);
-  await page.getByLabel('Password', { exact: true }).fill(password);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-}
-
 async function mainNav(tab: TestPage): Promise<string[]> {
   const links = tab.page.getByRole('navigation', { name: 'Main' }).getByRole('link');
   return (await links.allTextContents()).map((text) => text.trim());
@@ -48,7 +41,7 @@ describe('sign-in and navigation by role', () => {
       try {
         await tab.page.goto(paths.auth.signIn());
         await expect.poll(() => tab.page.title()).toBe('Sign in · Scorecourt');
-        await signIn(tab, person.email);
+        await fillSignIn(tab.page, person.email);
 
         await tab.page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
         expect(new URL(tab.page.url()).pathname).toBe(paths.home());
@@ -85,7 +78,7 @@ describe('guards', () => {
       expect(url.searchParams.get('next')).toBe(paths.admin.people());
       await tab.screenshot('sign-in');
 
-      await signIn(tab, 'admin@tallowmere.test');
+      await fillSignIn(tab.page, 'admin@tallowmere.test');
       await tab.page.getByRole('heading', { level: 1, name: 'People' }).waitFor();
       expect(new URL(tab.page.url()).pathname).toBe(paths.admin.people());
       // Every demo person is listed with their role.
@@ -101,7 +94,7 @@ describe('guards', () => {
     const tab = await openPage(browser, server.url);
     try {
       await tab.page.goto(paths.auth.signIn());
-      await signIn(tab, 'modeler@tallowmere.test');
+      await fillSignIn(tab.page, 'modeler@tallowmere.test');
       await tab.page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
 
       await tab.page.goto(paths.admin.outbox());
@@ -122,7 +115,7 @@ describe('guards', () => {
     const tab = await openPage(browser, server.url);
     try {
       await tab.page.goto(paths.auth.signIn());
-      await signIn(tab, 'analyst@tallowmere.test');
+      await fillSignIn(tab.page, 'analyst@tallowmere.test');
       await tab.page.getByRole('heading', { level: 1, name: /^Welcome, / }).waitFor();
       await tab.page.goto('/no-such-page');
       await tab.page.getByRole('heading', { level: 1, name: 'Page not found' }).waitFor();
@@ -140,7 +133,7 @@ describe('people and the outbox', () => {
     const email = `e2e-${Date.now()}@tallowmere.test`;
     try {
       await admin.page.goto(paths.admin.people());
-      await signIn(admin, 'admin@tallowmere.test');
+      await fillSignIn(admin.page, 'admin@tallowmere.test');
       await admin.page.getByRole('heading', { level: 1, name: 'People' }).waitFor();
 
       await admin.page.getByRole('button', { name: 'Invite a person' }).click();
@@ -233,7 +226,7 @@ describe('password reset', () => {
 
       // The link, read from the outbox by an admin (the SMTP sink stands in for the person's inbox).
       await admin.page.goto(paths.admin.outbox());
-      await signIn(admin, 'admin@tallowmere.test');
+      await fillSignIn(admin.page, 'admin@tallowmere.test');
       await admin.page.getByRole('heading', { level: 1, name: 'Outbox' }).waitFor();
       const row = admin.page.getByRole('row').filter({ hasText: email }).first();
       await row.waitFor();
@@ -264,7 +257,7 @@ describe('sign-in failures', () => {
     const tab = await openPage(browser, server.url);
     try {
       await tab.page.goto(paths.auth.signIn());
-      await signIn(tab, 'policy@tallowmere.test', 'not-the-password');
+      await fillSignIn(tab.page, 'policy@tallowmere.test', 'not-the-password');
       await tab.page.getByRole('alert').filter({ hasText: 'Sign-in failed' }).waitFor();
       expect(new URL(tab.page.url()).pathname).toBe(paths.auth.signIn.pattern);
       await tab.screenshot('sign-in-wrong-password');
@@ -280,7 +273,7 @@ describe('sign-in failures', () => {
       await tab.page.goto(paths.auth.signIn());
       const email = 'nobody@tallowmere.test';
       for (let attempt = 0; attempt < 12; attempt += 1) {
-        await signIn(tab, email, `wrong-${attempt}`);
+        await fillSignIn(tab.page, email, `wrong-${attempt}`);
         const alert = tab.page.getByRole('alert');
         await alert.waitFor();
         if ((await alert.innerText()).includes('Sign-in is paused')) break;

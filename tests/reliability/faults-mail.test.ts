@@ -93,7 +93,7 @@ describe('SMTP unreachable', () => {
     const decided = await committee.post(`/api/comparisons/${id}/decision`, { outcome: 'adopt', rationale: 'Better ranking, acceptable swap sets.' });
     expect(decided.status, JSON.stringify(decided.body)).toBe(200);
     expect((await modeler.get(`/api/comparisons/${id}`)).body.state).toBe('decided');
-    // An invitation and a password reset too: people are told later, not never.
+    // An invitation too: people are told later, not never.
     expect((await admin.post('/api/users/invitations', { email: 'later@tallowmere.test', name: 'Later Person', roles: ['policy'] })).status).toBe(201);
 
     // Every message is kept, queued, with its error, and tried more than once while SMTP is down.

@@ -13,7 +13,7 @@ import { buildTestApp, type TestApp } from '../api/helpers/app';
 import { TestClient, signedInAs } from '../api/helpers/client';
 import { personWith } from '../api/helpers/governance';
 import { sample2k, sampleMapping, uploadFile } from '../api/helpers/holdouts';
-import { tables } from './helpers/db';
+import { tables, uploadLeftovers } from './helpers/db';
 import { record } from './helpers/figures';
 import { messageProblems } from './helpers/outcomes';
 
@@ -65,15 +65,6 @@ async function counts(): Promise<Record<string, number>> {
     found[table] = n;
   }
   return found;
-}
-
-function uploadFiles(): string[] {
-  const dir = join(t.directory, 'uploads');
-  try {
-    return readdirSync(dir);
-  } catch {
-    return [];
-  }
 }
 
 beforeAll(async () => {
@@ -128,7 +119,7 @@ describe('CSRF on every mutating route of the registry', () => {
     }
     expect(failures).toEqual([]);
     expect(await counts()).toEqual(before);
-    expect(uploadFiles()).toEqual([]);
+    expect(uploadLeftovers(join(t.directory, 'uploads'))).toEqual([]);
     record('security: CSRF', { mutatingRoutes: mutating.length, callsRefused: mutating.length * 5 });
   });
 });
@@ -579,7 +570,7 @@ describe('upload file names', () => {
     const after = tree(t.directory);
     expect(after.filter((file) => !before.includes(file))).toEqual([]);
     expect(after.every((file) => /^test\.sqlite(-wal|-shm)?$/.test(file))).toBe(true);
-    expect(uploadFiles()).toEqual([]);
+    expect(uploadLeftovers(join(t.directory, 'uploads'))).toEqual([]);
     expect(refusedAsMalformed).toBeLessThanOrEqual(1);
     record('security: upload file names', { names: names.length, refusedAsMalformed, shown: shown.map((name) => (name.length > 40 ? `${name.slice(0, 20)}…(${name.length})` : name)) });
   });

@@ -32,7 +32,7 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
-export function testConfig(overrides: Partial<Config> = {}, directory = mkdtempSync(join(tmpdir(), 'scorecourt-test-'))): Config {
+function testConfig(overrides: Partial<Config> = {}, directory = mkdtempSync(join(tmpdir(), 'scorecourt-test-'))): Config {
   return {
     ...loadConfig({ NODE_ENV: 'test', PORT: '0', BCRYPT_COST: '4', LOG_LEVEL: 'silent', PUBLIC_URL: 'http://scorecourt.test' }),
     databasePath: join(directory, 'test.sqlite'),

@@ -9,7 +9,7 @@ import type { TestClient } from './client';
 
 export const sampleDir = join(import.meta.dirname, '..', '..', '..', 'sample-data');
 /** The demo's 2,000-row sample (sample-data/README.md): points, higher = safer, bad_12m = 1 is bad. */
-export const sample2kPath = join(sampleDir, 'tallowmere-holdout-2025-sample-2k.csv');
+const sample2kPath = join(sampleDir, 'tallowmere-holdout-2025-sample-2k.csv');
 export const sample2k = () => readFileSync(sample2kPath);
 
 export const sampleMapping: ColumnMapping = {

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { ColumnMapping } from '@shared/report';
 import fc from 'fast-check';
+import { sampleDir, sampleMapping } from '../../api/helpers/holdouts';
 
 /**
  * Holdout files for the bad-input suites: valid ones cut from the demo's 2,000-row sample
@@ -10,21 +10,11 @@ import fc from 'fast-check';
  * ends, BOMs in odd places, random byte changes — plus plain random bytes.
  */
 
-export const sampleDir = join(import.meta.dirname, '..', '..', '..', 'sample-data');
-const sampleLines = readFileSync(join(sampleDir, 'tallowmere-holdout-2025-sample-2k.csv'), 'utf8').trimEnd().split('\n');
-export const sampleHeader = sampleLines[0];
+/** The sample folder and the sample's mapping (points, higher = safer, bad_12m = 1 is bad), as in the API tests. */
+export { sampleDir, sampleMapping };
 
-/** The sample's mapping: points, higher = safer, bad_12m = 1 is bad. */
-export const sampleMapping: ColumnMapping = {
-  outcome: 'bad_12m',
-  badValue: '1',
-  champion: 'champion_points',
-  challenger: 'challenger_points',
-  higherIs: { champion: 'safer', challenger: 'safer' },
-  id: 'account_id',
-  segments: ['product', 'channel'],
-  exposure: 'loan_amount',
-};
+const sampleLines = readFileSync(join(sampleDir, 'tallowmere-holdout-2025-sample-2k.csv'), 'utf8').trimEnd().split('\n');
+const sampleHeader = sampleLines[0];
 
 /** The header and `rows` data rows of the sample from `start` on (LF line ends, final newline). */
 export function validHoldout(rows: number, start = 0): string {
@@ -33,7 +23,7 @@ export function validHoldout(rows: number, start = 0): string {
 }
 
 /** A valid holdout as text: 120 to 400 rows of the sample (7% bads, so both classes are there). */
-export const validHoldoutArb = fc.record({ rows: fc.integer({ min: 120, max: 400 }), start: fc.nat({ max: 1500 }) }).map(({ rows, start }) => validHoldout(rows, start));
+const validHoldoutArb = fc.record({ rows: fc.integer({ min: 120, max: 400 }), start: fc.nat({ max: 1500 }) }).map(({ rows, start }) => validHoldout(rows, start));
 
 /** One change to a file. Text-level changes come first; encodings are applied last (see applyMutations). */
 export type Mutation =
@@ -68,7 +58,7 @@ const lineEnd = fc.constantFrom('\n' as const, '\r\n' as const, '\r' as const);
 const fraction = fc.double({ min: 0, max: 1, noNaN: true });
 const scaled = (f: number, length: number) => Math.min(length, Math.max(0, Math.floor(f * length)));
 
-export const mutationArb: fc.Arbitrary<Mutation> = fc.oneof(
+const mutationArb: fc.Arbitrary<Mutation> = fc.oneof(
   fc.record({ kind: fc.constant('cut-bytes' as const), at: fc.nat({ max: 1_000_000 }) }),
   fc.record({ kind: fc.constant('drop-lines' as const), at: fc.nat({ max: 1_000 }), count: fc.integer({ min: 1, max: 500 }) }),
   fc.record({ kind: fc.constant('duplicate-line' as const), at: fc.nat({ max: 1_000 }) }),
@@ -177,7 +167,7 @@ function encode(text: string, to: Extract<Mutation, { kind: 'encoding' }>['to'])
 }
 
 /** Applies the mutations: text-level ones in order, then the last encoding (if any), then byte-level ones. */
-export function applyMutations(text: string, mutations: Mutation[]): Buffer {
+function applyMutations(text: string, mutations: Mutation[]): Buffer {
   let current = text;
   for (const m of mutations) current = mutateText(current, m);
   const encoding = mutations.filter((m): m is Extract<Mutation, { kind: 'encoding' }> => m.kind === 'encoding').pop();
@@ -195,7 +185,7 @@ export function applyMutations(text: string, mutations: Mutation[]): Buffer {
 }
 
 /** A mutated holdout: a valid one with one to four changes. */
-export const mutatedHoldoutArb = fc
+const mutatedHoldoutArb = fc
   .tuple(validHoldoutArb, fc.array(mutationArb, { minLength: 1, maxLength: 4 }))
   .map(([text, mutations]) => ({ bytes: applyMutations(text, mutations), mutations }));
 

@@ -4,7 +4,7 @@ import { loadHoldout } from '@server/reader/load';
 import type { Holdout } from '@server/stats/holdout';
 
 /** The committed reference holdouts and the values R's pROC and scipy printed for them. */
-export const referenceDir = new URL('../../reference/holdouts/', import.meta.url);
+const referenceDir = new URL('../../reference/holdouts/', import.meta.url);
 
 export interface ReferenceCase {
   file: string;

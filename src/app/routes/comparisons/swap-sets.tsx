@@ -126,10 +126,10 @@ export function Component() {
                 <SwapTest swap={result.swap} alpha={report.policy.alpha} />
               </div>
             </Section>
-            {report.mapping.segments && report.mapping.segments.length > 0 ? (
+            {result.swap.bySegment.length > 0 ? (
               <Section
                 title="Swap sets by segment"
-                description="The same cut-offs within each value of each segment column: where the challenger approves more or fewer accounts, and how risky they are."
+                description="The same cut-offs within each value of each segment column, champion → challenger: where the challenger approves more or fewer accounts, and how risky they are."
               >
                 <SwapSegmentsTable rows={result.swap.bySegment} confidence={confidence} />
               </Section>

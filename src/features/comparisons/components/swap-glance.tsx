@@ -11,7 +11,11 @@ const NAMED = 4;
  */
 export function SwapGlance({ report }: { report: Report }) {
   const { swap, strategyCurve } = report;
-  const riskier = swap.bySegment.filter(swapInRiskier);
+  // Only values with both a swap-in and a swap-out can be compared.
+  const comparable = swap.bySegment.filter((row) => row.swapIn.count > 0 && row.swapOut.count > 0);
+  const riskier = comparable.filter(swapInRiskier);
+  const others = swap.bySegment.length - comparable.length;
+  const uncompared = others > 0 ? ` (${formatCount(others)} more have no swap-in or no swap-out)` : '';
   const named = riskier.slice(0, NAMED).map((row) => `${row.column} = ${row.value}`);
   if (riskier.length > NAMED) named.push(`${formatCount(riskier.length - NAMED)} more`);
   const at = swap.basis === 'approval-rate' && swap.requestedApprovalRate !== null ? `a ${formatPercent(swap.requestedApprovalRate, 0)} approval rate` : 'the chosen cut-offs';
@@ -37,8 +41,8 @@ export function SwapGlance({ report }: { report: Report }) {
       {swap.bySegment.length > 0 ? (
         <p className="text-sm text-ink-soft" data-testid="swap-segments-glance">
           {riskier.length === 0
-            ? `Within every one of the ${formatCount(swap.bySegment.length)} segment values, the swap-in's bad rate is at or below the swap-out's.`
-            : `Within segments, the swap-in's bad rate is above the swap-out's in ${formatCount(riskier.length)} of ${formatCount(swap.bySegment.length)} values: ${named.join(', ')}. Small groups move a lot with a few accounts; the swap sets by segment give their intervals.`}
+            ? `Within every one of the ${formatCount(comparable.length)} segment values${uncompared}, the swap-in's bad rate is at or below the swap-out's.`
+            : `Within segments, the swap-in's bad rate is above the swap-out's in ${formatCount(riskier.length)} of ${formatCount(comparable.length)} values${uncompared}: ${named.join(', ')}. Small groups move a lot with a few accounts; the Swap sets tab gives their intervals.`}
         </p>
       ) : null}
     </div>

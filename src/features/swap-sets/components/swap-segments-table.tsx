@@ -9,11 +9,16 @@ import { StatusBadge } from '@/components/status-badge';
 
 const column = createColumnHelper<SwapSegmentRow>();
 
-/** Champion's figure → challenger's, on one line. */
+/** Champion's figure → challenger's, on one line; read out as "champion …, challenger …". */
 function Change({ champion, challenger }: { champion: string; challenger: string }) {
   return (
     <span className="whitespace-nowrap">
-      {champion} <span className="text-ink-faint">→</span> <span className="font-medium text-ink">{challenger}</span>
+      <span className="sr-only">champion </span>
+      {champion}{' '}
+      <span className="text-ink-faint" aria-hidden="true">
+        →
+      </span>
+      <span className="sr-only">, challenger</span> <span className="font-medium text-ink">{challenger}</span>
     </span>
   );
 }
@@ -26,7 +31,7 @@ function SwapCellView({ cell }: { cell: SegmentSwapCell }) {
         <span className="font-medium text-ink">{formatCount(cell.count)}</span>
         {cell.count > 0 ? <span className="text-ink-soft"> at {formatPercent(cell.badRate)}</span> : null}
       </span>
-      {cell.badRateCi ? <span className="text-xs text-ink-soft">{formatInterval(cell.badRateCi, (value) => formatPercent(value))}</span> : null}
+      {cell.badRateCi ? <span className="text-xs text-ink-soft">{formatInterval(cell.badRateCi, formatPercent)}</span> : null}
     </span>
   );
 }
@@ -59,12 +64,17 @@ export function SwapSegmentsTable({ rows, confidence }: { rows: SwapSegmentRow[]
       meta: { numeric: true },
       cell: ({ getValue }) => formatSignedNumber(getValue(), 0),
     }),
-    column.accessor((row) => (row.challenger.approvedBadRate ?? 0) - (row.champion.approvedBadRate ?? 0), {
+    column.accessor(
+      (row) =>
+        row.challenger.approvedBadRate === null || row.champion.approvedBadRate === null ? undefined : row.challenger.approvedBadRate - row.champion.approvedBadRate,
+      {
       id: 'approved-bad-rate',
-      header: 'Bad rate of the approved',
+      header: 'Bad rate of the approved book',
       meta: { numeric: true },
+      sortUndefined: 'last',
       cell: ({ row }) => <Change champion={formatPercent(row.original.champion.approvedBadRate)} challenger={formatPercent(row.original.challenger.approvedBadRate)} />,
-    }),
+      },
+    ),
     column.accessor((row) => row.swapIn.count, {
       id: 'swap-in',
       header: 'Swap-in',
@@ -80,8 +90,8 @@ export function SwapSegmentsTable({ rows, confidence }: { rows: SwapSegmentRow[]
     column.accessor((row) => swapInRiskier(row), {
       id: 'flag',
       header: 'Flags',
-      cell: ({ row }) =>
-        swapInRiskier(row.original) ? (
+      cell: ({ getValue }) =>
+        getValue() ? (
           <StatusBadge tone="caution">Swap-in riskier than swap-out</StatusBadge>
         ) : (
           <span className="text-ink-faint">none</span>

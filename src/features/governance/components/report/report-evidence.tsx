@@ -1,5 +1,5 @@
 import { type ComparisonDetail } from '@shared/comparisons';
-import { type Report, type SwapSets } from '@shared/report';
+import { type Report, type SwapSets, swapInRiskier } from '@shared/report';
 import {
   formatAuc,
   formatAucDelta,
@@ -170,7 +170,7 @@ export function ReportSwapTable({ swap, confidence, hasAmount, title }: { swap: 
 }
 
 const rateWithInterval = (cell: { badRate: number | null; badRateCi: [number, number] | null }) =>
-  cell.badRateCi ? `${formatPercent(cell.badRate)} (${formatInterval(cell.badRateCi, (value) => formatPercent(value))})` : formatPercent(cell.badRate);
+  cell.badRateCi ? `${formatPercent(cell.badRate)} (${formatInterval(cell.badRateCi, formatPercent)})` : formatPercent(cell.badRate);
 
 /** The report's swap sets within each segment value (engine 1.1 and later). */
 export function ReportSwapSegments({ swap, confidence }: { swap: SwapSets; confidence: number }) {
@@ -183,18 +183,20 @@ export function ReportSwapSegments({ swap, confidence }: { swap: SwapSets; confi
     >
       <ReportTable
         caption="Swap sets by segment"
-        head={['Segment', 'Accounts', 'Approval rate', 'Bad rate of the approved', 'Swap-in', 'Swap-in bad rate', 'Swap-out', 'Swap-out bad rate']}
-        numeric={[1, 2, 3, 4, 5, 6, 7]}
+        head={['Segment', 'Accounts', 'Approval rate', 'Net approvals', 'Bad rate of the approved book', 'Swap-in', 'Swap-in bad rate', 'Swap-out', 'Swap-out bad rate', 'Note']}
+        numeric={[1, 2, 3, 4, 5, 6, 7, 8]}
         nowrap={[0]}
         rows={swap.bySegment.map((row) => [
           `${row.column} = ${row.value}`,
           formatCount(row.accounts),
           `${formatPercent(row.champion.approvalRate)} → ${formatPercent(row.challenger.approvalRate)}`,
+          formatSignedNumber(row.challenger.approved - row.champion.approved, 0),
           `${formatPercent(row.champion.approvedBadRate)} → ${formatPercent(row.challenger.approvedBadRate)}`,
           formatCount(row.swapIn.count),
           rateWithInterval(row.swapIn),
           formatCount(row.swapOut.count),
           rateWithInterval(row.swapOut),
+          swapInRiskier(row) ? 'Swap-in riskier than swap-out' : '',
         ])}
       />
     </ReportBlock>
