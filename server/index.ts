@@ -7,7 +7,7 @@ import { WalCheckpointer } from './db/checkpointer';
 import { storedSessionSecret } from './db/settings';
 import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
 import { JobRunner } from './jobs/runner';
-import { createLogger } from './log';
+import { createLogger, guardStandardStreams } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
@@ -33,6 +33,7 @@ function readConfig(): Config {
 }
 
 async function main(): Promise<void> {
+  guardStandardStreams();
   const config = readConfig();
   const log = createLogger(config.logLevel);
 

@@ -3,7 +3,7 @@ import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
-import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
+import { recordFinishedRun, recordUnstoredRun, type RunOutcome } from '../comparisons/run-finished';
 import { AnalysisRun } from '../db/entities/index';
 import { inTransaction, withWriteLock } from '../db/transaction';
 import { encodeOrder, orderColumn } from '../holdouts/columns';
@@ -300,7 +300,11 @@ export class JobRunner {
       }
       // Workers end by themselves once their message is posted; make sure.
       if (active) void active.worker.terminate();
-    })().catch((error: unknown) => this.options.log.error(`analysis run ${runId}: could not store its result`, error));
+    })().catch(async (error: unknown) => {
+      this.options.log.error(`analysis run ${runId}: could not store its result`, error);
+      // Marked failed with the reason (comparisons/run-finished.ts), not left "running".
+      if (await recordUnstoredRun(this.options.dataSource, runId, error, this.finishContext())) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
+    });
     this.settling.add(work);
     void work.finally(() => {
       this.settling.delete(work);
