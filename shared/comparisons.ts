@@ -16,7 +16,7 @@ import {
  */
 
 // --- states -------------------------------------------------------------------------------
-/** DESIGN.md "Workflow and roles". */
+/** docs/design.md "Workflow and roles". */
 export const comparisonStates = ['draft', 'analysed', 'in-review', 'validated', 'returned', 'decided'] as const;
 export const comparisonStateSchema = z.enum(comparisonStates);
 export type ComparisonState = z.infer<typeof comparisonStateSchema>;

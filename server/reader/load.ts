@@ -5,6 +5,7 @@ import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
+import { formatCount } from '@shared/format';
 
 /**
  * Loads a holdout file with a column mapping into the engine's column form (typed arrays), in
@@ -320,7 +321,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const n = champion.length;
   if (sink.errors.length === 0) {
     if (rowsRead === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
-    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${dropped.toLocaleString('en-US')} rows left out)`);
+    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${formatCount(dropped)} rows left out)`);
     if (bads === 0 || bads === n) {
       const only = bads === 0 ? `the good value ${quoteCell(goodValue ?? '')}` : `the bad value ${quoteCell(badValue)}`;
       const hint = bads === 0 ? `; no row has the bad value ${quoteCell(badValue)} (is the bad value right?)` : '';
@@ -389,7 +390,7 @@ export async function validateHoldout(
     const { read } = loaded;
     const warnings: string[] = [];
     if (read.rowsDroppedMissingScore > 0) {
-      warnings.push(`${read.rowsDroppedMissingScore.toLocaleString('en-US')} rows with a missing score left out`);
+      warnings.push(`${formatCount(read.rowsDroppedMissingScore)} rows with a missing score left out`);
     }
     return {
       ok: true,
