@@ -1,6 +1,7 @@
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
+import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
  * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
@@ -78,7 +79,10 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   }
 
   const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
-  if (policy.swapRule.enabled) criteria.push(swapCriterion(swap, policy.swapRule.approvalRate));
+  if (policy.swapRule.enabled) {
+    // Swap sets of a holdout with weights or rows without an outcome: judged under the reject inference.
+    criteria.push(swap && swap.swapIn.accounts !== undefined ? swapCriterionWithUnknowns(swap, policy, report.settings) : swapCriterion(swap, policy.swapRule.approvalRate));
+  }
 
   criteria.push({
     id: 'minimum-bads',
@@ -156,8 +160,12 @@ function swapSummary(swap: SwapSets, rate: number): string {
   const at = `at a ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;
   if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
-  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(swapIn.count)} with a ${rateText(swapIn.badRate)} bad rate`;
-  const outText = swapOut.count === 0 ? 'none' : `${count(swapOut.count)} with a ${rateText(swapOut.badRate)} bad rate`;
+  // Weighted holdouts: applicants (rounded), the bad rate of those with an outcome.
+  const inAccounts = Math.round(swapIn.accounts ?? swapIn.count);
+  const outAccounts = Math.round(swapOut.accounts ?? swapOut.count);
+  const known = swapIn.accounts === undefined ? '' : ' known';
+  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(inAccounts)} with a ${rateText(swapIn.badRate)}${known} bad rate`;
+  const outText = swapOut.count === 0 ? 'none' : `${count(outAccounts)} with a ${rateText(swapOut.badRate)}${known} bad rate`;
   return `${at} it swaps in ${inText} for ${outText}`;
 }
 
