@@ -96,7 +96,7 @@ describe('sampling weights', () => {
 });
 
 describe('inferred probability of bad', () => {
-  const extra = { keepUnknown: true, unknownValues: ['R', 'reject', '-1'], inferredBad: 'pb' } as const;
+  const extra: Partial<ColumnMapping> = { keepUnknown: true, unknownValues: ['R', 'reject', '-1'], inferredBad: 'pb' };
   it('reads it on unknown rows', async () => {
     const { holdout } = await load(file, extra);
     expect([...holdout.inferredBad!].map((v) => (Number.isNaN(v) ? null : v))).toEqual([null, null, 0.2, 0.35, 0.5, 0.1, null]);
