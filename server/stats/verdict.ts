@@ -81,7 +81,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
   if (policy.swapRule.enabled) {
     // Swap sets with applicants without an outcome: judged under the reject inference, and named so.
-    const unknowns = swap !== null && (swap.swapIn.unknown ?? 0) + (swap.swapOut.unknown ?? 0) > 0;
+    const unknowns = swap !== null && [swap.bothAccept, swap.swapIn, swap.swapOut, swap.bothReject].some((cell) => (cell.unknown ?? 0) > 0);
     criteria.push(unknowns ? swapCriterionWithUnknowns(swap, policy, report.settings) : swapCriterion(swap, policy.swapRule.approvalRate));
   }
 
