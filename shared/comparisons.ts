@@ -67,8 +67,10 @@ export const holdoutSchema = z.object({
   bytes: z.number().int(),
   rowCount: z.number().int(),
   columns: z.array(holdoutColumnSchema),
-  /** The first 20 data rows, as text, in column order. */
+  /** The first 20 data rows, as text, in column order: cells cut to 200 characters, 64 KB in all; empty for roles other than modeler and analyst. */
   preview: z.array(z.array(z.string())),
+  /** True when the preview was left out for the viewer's role (the column names and kinds stay). */
+  previewWithheld: z.boolean().optional(),
   guess: mappingGuessSchema,
   uploadedBy: personRefSchema,
   uploadedAt: z.string(),
