@@ -5,6 +5,7 @@ import express, { type Express, type RequestHandler } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
+import { auditRoutes } from './audit/router';
 import { csrfProtection } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { authRoutes } from './auth/router';
@@ -61,6 +62,7 @@ function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>)
     ...governanceRoutes(ctx),
     ...noteRoutes(ctx),
     ...policyRoutes(ctx),
+    ...auditRoutes(ctx),
   ];
 }
 
