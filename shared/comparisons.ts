@@ -85,9 +85,25 @@ export const rowErrorSchema = z.object({
 });
 export type RowError = z.infer<typeof rowErrorSchema>;
 
+/** Segment columns a mapping sent to the server may name (each adds tables per value to the report). */
+export const maxSegmentColumns = 10;
+
+/**
+ * A mapping as the API accepts it: segment columns each at most once and at most
+ * maxSegmentColumns, so checking a mapping stays bounded work (reports already stored keep the
+ * looser columnMappingSchema).
+ */
+export const mappingInputSchema = columnMappingSchema.extend({
+  segments: z
+    .array(z.string().min(1))
+    .max(maxSegmentColumns, `at most ${maxSegmentColumns} segment columns`)
+    .refine((names) => new Set(names).size === names.length, { message: 'name each segment column at most once' })
+    .optional(),
+});
+
 /** POST /api/holdouts/:id/validate { mapping, dropMissing? } → the wizard's validation report. */
 export const validateMappingInputSchema = z.object({
-  mapping: columnMappingSchema,
+  mapping: mappingInputSchema,
   dropMissing: z.boolean().default(false),
 });
 export const validationReportSchema = z.object({
@@ -119,7 +135,7 @@ export const createComparisonInputSchema = z.object({
   name: z.string().trim().min(1, 'Give the comparison a name').max(160),
   description: z.string().trim().max(4000).optional(),
   holdoutId: z.number().int(),
-  mapping: columnMappingSchema.optional(),
+  mapping: mappingInputSchema.optional(),
   settings: analysisSettingsSchema.partial().optional(),
 });
 export type CreateComparisonInput = z.infer<typeof createComparisonInputSchema>;
@@ -130,7 +146,7 @@ export type CreateComparisonInput = z.infer<typeof createComparisonInputSchema>;
  */
 export const setupComparisonInputSchema = z.object({
   holdoutId: z.number().int().optional(),
-  mapping: columnMappingSchema,
+  mapping: mappingInputSchema,
   settings: analysisSettingsSchema.partial().optional(),
 });
 export type SetupComparisonInput = z.infer<typeof setupComparisonInputSchema>;

@@ -1,4 +1,4 @@
-import type { MappingGuess } from '@shared/comparisons';
+import { type MappingGuess, maxSegmentColumns } from '@shared/comparisons';
 import type { ColumnMapping, HigherIs } from '@shared/report';
 import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
@@ -256,7 +256,8 @@ function guessMapping(
 
   const segments = indices
     .filter((c) => !used.has(c) && columns[c].kind === 'categorical' && columns[c].distinct >= 2)
-    .map((c) => header[c]);
+    .map((c) => header[c])
+    .slice(0, maxSegmentColumns);
 
   const orientation = (at: number | undefined): { higherIs: HigherIs | null; hint: string | null } => {
     if (at === undefined) return { higherIs: null, hint: null };

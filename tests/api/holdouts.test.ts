@@ -216,6 +216,23 @@ describe('validating a mapping', () => {
     expect(report.errors[2].message).toBe('row 102 has 7 fields, the header has 9');
   });
 
+  it('refuses repeated segment columns, or more than 10, at once (bounded work)', async () => {
+    const upload = await uploadFile(modeler, sample2k(), 'segments.csv');
+    const started = performance.now();
+    const repeated = await modeler.post(`/api/holdouts/${upload.body.id}/validate`, { mapping: { ...sampleMapping, segments: Array.from({ length: 100_000 }, () => 'channel') } });
+    const repeatedMs = performance.now() - started;
+    expect(repeated.status).toBe(400);
+    expect(repeated.body.error.message).toBe('mapping.segments: at most 10 segment columns');
+    const twice = await modeler.post(`/api/holdouts/${upload.body.id}/validate`, { mapping: { ...sampleMapping, segments: ['channel', 'product', 'channel'] } });
+    expect(twice.status).toBe(400);
+    expect(twice.body.error.message).toBe('mapping.segments: name each segment column at most once');
+    const created = await modeler.post('/api/comparisons', { name: 'Repeated segments', holdoutId: upload.body.id, mapping: { ...sampleMapping, segments: ['channel', 'channel'] } });
+    expect(created.status).toBe(400);
+    // Before the bound, 100,000 repeated columns took minutes to check on 2,000 rows.
+    console.log(`[segments] 100,000 repeated segment columns refused in ${Math.round(repeatedMs)} ms`);
+    expect(repeatedMs).toBeLessThan(20_000);
+  });
+
   it('summarises a good mapping: rows, goods, bads, bad rate', async () => {
     const upload = await uploadFile(modeler, sample2k(), 's.csv');
     const response = await modeler.post(`/api/holdouts/${upload.body.id}/validate`, { mapping: sampleMapping });
