@@ -20,6 +20,7 @@ import { governanceRoutes } from './governance/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
+import { writeLimiter } from './http/write-limits';
 import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
 import type { Mailer } from './mail/mailer';
@@ -134,7 +135,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(passport.initialize());
   api.use(passport.session());
   api.use(csrfProtection);
-  mountRoutes(api, routes);
+  mountRoutes(api, routes, { writeLimit: writeLimiter(config.writesPerMinute) });
   api.use(apiNotFound);
   app.use('/api', api);
 
