@@ -119,6 +119,11 @@ export function createApp(deps: AppDeps): Express {
   const routes = apiRoutes(ctx, passport);
 
   const api = express.Router();
+  // API answers carry personal and decision data: never kept by a browser or a proxy.
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '1mb' }));
   api.use(
     session({
