@@ -20,6 +20,7 @@ import { governanceRoutes } from './governance/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
+import { wellFormedReviver } from './http/well-formed';
 import { writeLimiter } from './http/write-limits';
 import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
@@ -124,7 +125,7 @@ export function createApp(deps: AppDeps): Express {
     res.setHeader('Cache-Control', 'no-store');
     next();
   });
-  api.use(express.json({ limit: '1mb' }));
+  api.use(express.json({ limit: '1mb', reviver: wellFormedReviver }));
   api.use(
     session({
       name: 'scorecourt.sid',

@@ -94,4 +94,20 @@ describe('notes', () => {
     }
     expect(paged).toEqual(whole.events.map((event) => event.id));
   });
+
+  it('stores a note with a lone surrogate the same in the note and in its audit record', async () => {
+    const raw = JSON.stringify({ body: 'Lone \ud800 and paired \ud83d\ude00 here' }).replace('\\ud800', '\\ud800');
+    const response = await committee.agent
+      .post(`/api/comparisons/${otherId}/notes`)
+      .set('X-CSRF-Token', committee.csrf ?? (await committee.fetchCsrf()))
+      .set('Content-Type', 'application/json')
+      .send(raw);
+    expect(response.status).toBe(201);
+    const note = noteSchema.parse(response.body);
+    expect(note.body).toBe('Lone \ufffd and paired \ud83d\ude00 here');
+    const [stored] = (await t.dataSource.query('SELECT "body" FROM "notes" WHERE "id" = ?', [note.id])) as { body: string }[];
+    const [event] = (await t.dataSource.query(`SELECT "details" FROM "audit_events" WHERE "action" = 'note.added' ORDER BY "id" DESC LIMIT 1`)) as { details: string }[];
+    expect(stored.body).toBe(note.body);
+    expect((JSON.parse(event.details) as { body: string }).body).toBe(stored.body);
+  });
 });
