@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
 import { comparisonStateLabels } from '@shared/comparisons';
+import { verifyWholeAuditChain } from './audit/chain-state';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
@@ -80,6 +81,15 @@ async function main(): Promise<void> {
       );
     }
   }
+
+  // The whole audit chain once at start-up; later calls verify only the events appended since.
+  void verifyWholeAuditChain(dataSource).then(
+    (check) => {
+      if (check.ok) log.info(`audit chain verified: ${check.events} events`);
+      else log.error(`THE AUDIT CHAIN IS BROKEN at event ${check.brokenAt}: ${check.reason}. Every audit trail reports it until the chain is restored.`);
+    },
+    (error: unknown) => log.error('the audit chain could not be verified at start-up', error),
+  );
 
   const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {

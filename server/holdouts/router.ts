@@ -72,9 +72,9 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'get',
       path: '/holdouts/:id',
       access: 'signed-in',
-      summary: 'A holdout: file name, SHA-256, size, rows, columns, preview, mapping guess',
+      summary: 'A holdout: file name, SHA-256, size, rows, columns, mapping guess; the first rows (cells cut to 200 characters, 64 KB) to modeler and analyst only',
       validate: { params: idParams },
-      handler: async (req) => getHoldout(ctx.dataSource, req.params.id),
+      handler: async (req) => getHoldout(ctx.dataSource, req.params.id, currentUser(req)),
     }),
     defineRoute({
       method: 'post',

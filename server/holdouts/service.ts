@@ -64,7 +64,7 @@ export async function uploadHoldout(ctx: AppContext, actor: User, file: Uploaded
     });
     return holdout.id;
   });
-  return getHoldout(ctx.dataSource, id);
+  return getHoldout(ctx.dataSource, id, actor);
 }
 
 export async function findHoldout(source: DataSource | EntityManager, id: number): Promise<Holdout> {
@@ -73,8 +73,8 @@ export async function findHoldout(source: DataSource | EntityManager, id: number
   return holdout;
 }
 
-export async function getHoldout(source: DataSource | EntityManager, id: number): Promise<HoldoutInfo> {
-  return presentHoldout(await findHoldout(source, id));
+export async function getHoldout(source: DataSource | EntityManager, id: number, viewer: Pick<User, 'roles'>): Promise<HoldoutInfo> {
+  return presentHoldout(await findHoldout(source, id), viewer);
 }
 
 /** The upload wizard's validation report: the first 50 problems, each naming its row and column, or a summary. */
