@@ -15,6 +15,7 @@ function workerEntries(dir) {
 const entryPoints = [
   'server/index.ts',
   'server/cli/compare.ts',
+  'server/cli/create-admin.ts',
   'bench/index.ts',
   ...workerEntries('server/jobs'),
   ...workerEntries('server/stats'),
