@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type z } from 'zod';
 import { auditTrailSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 export type AuditTrail = z.infer<typeof auditTrailSchema>;
 
@@ -11,7 +12,7 @@ export async function getAuditTrail(id: number): Promise<AuditTrail> {
 }
 
 export const auditTrailQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['comparisons', 'detail', id, 'audit'], queryFn: () => getAuditTrail(id) });
+  queryOptions({ queryKey: queryKeys.comparisons.audit(id), queryFn: () => getAuditTrail(id) });
 
 export function useAuditTrail(id: number) {
   return useQuery(auditTrailQueryOptions(id));

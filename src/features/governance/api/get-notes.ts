@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
 import { type Note, noteSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 const notesResponseSchema = z.object({ notes: z.array(noteSchema) });
 
@@ -10,7 +11,7 @@ export async function getNotes(id: number): Promise<Note[]> {
   return (await api.get(`/api/comparisons/${id}/notes`, { schema: notesResponseSchema })).notes;
 }
 
-export const notesQueryOptions = (id: number) => queryOptions({ queryKey: ['comparisons', 'detail', id, 'notes'], queryFn: () => getNotes(id) });
+export const notesQueryOptions = (id: number) => queryOptions({ queryKey: queryKeys.comparisons.notes(id), queryFn: () => getNotes(id) });
 
 export function useNotes(id: number) {
   return useQuery(notesQueryOptions(id));
