@@ -30,6 +30,7 @@ import { noteRoutes } from './notes/router';
 import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
+import { analysisHandlers } from './comparisons/analysis-handlers';
 
 export interface AppDeps {
   config: Config;
@@ -86,7 +87,13 @@ export function createApp(deps: AppDeps): Express {
   const ownJobs = deps.jobs === undefined;
   const jobs =
     deps.jobs ??
-    new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: config.analysisConcurrency, log, mailer, publicUrl: config.publicUrl });
+    new JobRunner({
+      dataSource,
+      databasePath: config.databasePath,
+      concurrency: config.analysisConcurrency,
+      log,
+      handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+    });
   if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
   const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir };
 
