@@ -103,7 +103,7 @@ function legend(canvas: Canvas, x: number, y: number, items: { label: string; ke
     canvas.line(at, y - 3, at + 18, y - 3, style.ink, 1.75, style.dash);
     if (style.marker) canvas.marker(at + 9, y - 3, style.marker, style.ink, 2.5);
     canvas.text(at + 22, y, item.label, { fill: 'muted' });
-    at += 30 + item.label.length * 4.6;
+    at += 36 + item.label.length * 5.4;
   }
 }
 
@@ -295,10 +295,10 @@ export function swapGridChart(report: Report): Chart {
   const cellW = (width - left - 10) / 2;
   const cellH = 62;
   canvas.text(left + cellW, 14, 'Challenger', { anchor: 'middle', bold: true, fill: 'challenger' });
-  canvas.text(left + cellW / 2, 32, `accepts (≥ ${formatScore(swap.challenger.cutoff)})`, { anchor: 'middle', fill: 'muted' });
+  canvas.text(left + cellW / 2, 32, `accepts (cut-off ${formatScore(swap.challenger.cutoff)})`, { anchor: 'middle', fill: 'muted' });
   canvas.text(left + cellW * 1.5, 32, 'declines', { anchor: 'middle', fill: 'muted' });
   canvas.text(8, top + cellH - 4, 'Champion', { bold: true, fill: 'champion' });
-  canvas.text(left - 8, top + cellH / 2 + 3, `accepts (${formatScore(swap.champion.cutoff)})`, { anchor: 'end', fill: 'muted' });
+  canvas.text(left - 8, top + cellH / 2 + 3, `accepts (cut-off ${formatScore(swap.champion.cutoff)})`, { anchor: 'end', fill: 'muted' });
   canvas.text(left - 8, top + cellH * 1.5 + 3, 'declines', { anchor: 'end', fill: 'muted' });
   const cells = [
     { key: 'bothAccept' as const, row: 0, col: 0, label: 'Both accept', fill: 'sunk' as Ink },
