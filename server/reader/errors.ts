@@ -24,7 +24,8 @@ export type HoldoutInputCode =
   | 'bad_outcome'
   | 'single_class'
   | 'missing_value'
-  | 'unsupported_weight';
+  | 'unsupported_weight'
+  | 'no_such_sheet';
 
 export class HoldoutInputError extends Error {
   override name = 'HoldoutInputError';
