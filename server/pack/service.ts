@@ -12,6 +12,7 @@ import { comparisonAuditEvents, presentAuditEvent } from '../governance/audit-tr
 import { getGovernance } from '../governance/service';
 import { listNotes } from '../notes/service';
 import { renderPackPdf } from './pdf';
+import { renderPackOffThread } from './render-thread';
 import type { PackInput } from './sections';
 import { buildWorkbook } from './workbook';
 
@@ -82,7 +83,8 @@ export async function archivedPack(source: Source, comparisonId: number): Promis
 export async function sendPackPdf(ctx: AppContext, actor: User, comparisonId: number, res: Response): Promise<void> {
   const comparison = await findComparison(ctx.dataSource, comparisonId);
   const archived = await archivedPack(ctx.dataSource, comparisonId);
-  const pdf = archived ? archived.pdf : await renderPackPdf(await packInput(ctx.dataSource, comparisonId, { generatedFor: actor.name, archived: false }));
+  // A pack made afresh is laid out on a worker thread; the archived one is sent as stored.
+  const pdf = archived ? archived.pdf : await renderPackOffThread(await packInput(ctx.dataSource, comparisonId, { generatedFor: actor.name, archived: false }));
   res.status(200);
   res.setHeader('Content-Type', 'application/pdf');
   res.setHeader('X-Pack-SHA256', archived ? archived.sha256 : sha256Hex(pdf));

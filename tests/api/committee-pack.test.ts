@@ -71,7 +71,8 @@ describe('the committee pack as PDF', () => {
         text = pages.join(' ');
       }
     }
-  }, 120_000);
+    // Each is laid out afresh on a worker thread: slow under tsx on a loaded machine.
+  }, 400_000);
 
   it('holds the report’s numbers as the pages format them (pdf.js text)', () => {
     const { champion, challenger, difference, swap } = report;
