@@ -8,7 +8,9 @@ import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { lastOutboxId, waitForRuns } from './helpers/governance';
 import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
-import { download, pdfPages, rawSheetXml, readWorkbook, sharedStringsXml, sheetRows } from './helpers/pack';
+import { download, pdfPages, pdfPageSizes, rawSheetXml, readWorkbook, sharedStringsXml, sheetRows } from './helpers/pack';
+import { renderPackPdf } from '@server/pack/pdf';
+import { packInput } from '@server/pack/service';
 
 /**
  * The committee pack through the API: the server's PDF read back with pdf.js (pdfjs-dist) and the
@@ -118,6 +120,29 @@ describe('the committee pack as PDF', () => {
     for (const chart of ['Uplift with its interval', 'ROC curves', 'Kolmogorov', 'Swap sets', 'Strategy curve', 'Segment intervals']) expect(text).toContain(chart);
     expect(pages.at(-1)).toContain(`page ${pages.length} of ${pages.length}`);
   });
+});
+
+describe('the PDF layout of wide tables', () => {
+  it('puts a table too wide for a portrait page on landscape pages, and splits one too wide for those by columns', async () => {
+    // The swap matrix with 40 bands: 42 columns, wider than a landscape A4 page.
+    const bands = 40;
+    const wide = structuredClone(report);
+    wide.swapMatrix = {
+      bands,
+      championBands: Array.from({ length: bands }, (_, i) => ({ band: i + 1, scoreMin: 400 + i * 10, scoreMax: 409 + i * 10 })),
+      challengerBands: Array.from({ length: bands }, (_, i) => ({ band: i + 1, scoreMin: 400 + i * 10, scoreMax: 409 + i * 10 })),
+      cells: Array.from({ length: bands }, (_, i) => Array.from({ length: bands }, (_, j) => ({ count: 1000 + i * bands + j, bads: 10, badRate: 0.01 }))),
+    };
+    const input = await packInput(t.dataSource, id, { generatedFor: null, archived: false });
+    const pdf = await renderPackPdf({ ...input, report: wide });
+    const document = await pdfPages(pdf);
+    const text = document.join(' ');
+    expect(text).toMatch(/Accounts by champion band \(rows\) and challenger band \(columns\) \(columns, part 1 of [2-9]\)/);
+    // Every count of the last challenger band, in the last part, is there.
+    for (let i = 0; i < bands; i++) expect(text).toContain(formatCount(1000 + i * bands + bands - 1));
+    const sizes = await pdfPageSizes(pdf);
+    expect(sizes.some(([w, h]) => w > h)).toBe(true);
+  }, 120_000);
 });
 
 describe('the committee workbook', () => {

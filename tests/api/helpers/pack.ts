@@ -31,6 +31,18 @@ export async function pdfPages(bytes: Buffer): Promise<string[]> {
   return pages;
 }
 
+/** Each page's width and height in points. */
+export async function pdfPageSizes(bytes: Buffer): Promise<[number, number][]> {
+  const document = await getDocument({ data: new Uint8Array(bytes), isEvalSupported: false }).promise;
+  const sizes: [number, number][] = [];
+  for (let number = 1; number <= document.numPages; number++) {
+    const [, , width, height] = (await document.getPage(number)).view;
+    sizes.push([width, height]);
+  }
+  await document.destroy();
+  return sizes;
+}
+
 export async function readWorkbook(bytes: Buffer): Promise<ExcelJS.Workbook> {
   const workbook = new ExcelJS.Workbook();
   await workbook.xlsx.load(bytes as unknown as ArrayBuffer);
