@@ -53,7 +53,7 @@ const sessionIdleMs = 8 * 60 * 60 * 1000;
 /** Every API route, feature by feature. A new feature adds its `…Routes(ctx)` here. */
 function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>): RouteDefinition[] {
   return [
-    ...healthRoutes(),
+    ...healthRoutes(ctx),
     ...authRoutes(ctx, passport),
     ...userRoutes(ctx),
     ...outboxRoutes(ctx),

@@ -1,13 +1,18 @@
 /**
- * The one way Scorecourt writes numbers. Every page formats through these functions so a Gini,
- * a p-value or a bad rate reads the same wherever it appears.
+ * The one way Scorecourt writes numbers and dates: the pages (src/lib/format.ts re-exports this
+ * file), the command line, the verdict's words, the e-mails and the demo's texts all format
+ * through these functions, so a Gini, a p-value or a bad rate reads the same wherever it appears.
  *
- * Conventions (shared/report.ts):
+ * Conventions (docs/design.md, "How numbers are written"):
  * - Gini, AUC, KS, rates and shares arrive as fractions (0.4213); Gini and KS are shown in points
  *   (42.1), rates and shares as percentages (3.1%).
  * - Differences are signed with a real minus sign (U+2212) and a plus sign; a difference that
  *   rounds to zero has no sign ("0.0").
  * - A value that is missing or undefined for the data (null, undefined, NaN, ±Infinity) is "—".
+ * - p-values: in tables three significant digits ("0.0421"), in sentences two without trailing
+ *   zeros ("p = 0.042"); below 0.001 in scientific notation with a superscript exponent
+ *   ("3.2 × 10⁻⁴"); a p that underflowed to 0 is "< 1 × 10⁻³⁰⁰".
+ * - Dates in API bodies and files: ISO 8601 in UTC (`iso`); on pages "3 Dec 2025".
  */
 
 export const MISSING = '—';
@@ -24,14 +29,17 @@ function realMinus(text: string): string {
   return text.replace(/-/g, MINUS);
 }
 
-/** toFixed that never writes "-0.0": a value that rounds to zero loses its sign. */
-function fixed(value: number, digits: number): string {
+/**
+ * A number with a fixed number of decimals and a real minus sign; never "-0.0": a value that
+ * rounds to zero loses its sign. 2.3456 → "2.346" (3 digits), −0.00004 → "0.000".
+ */
+export function formatFixed(value: number, digits: number): string {
   const text = value.toFixed(digits);
   return Number(text) === 0 ? text.replace('-', '') : realMinus(text);
 }
 
 function signed(value: number, digits: number): string {
-  const text = fixed(value, digits);
+  const text = formatFixed(value, digits);
   if (Number(text.replace(MINUS, '-')) === 0) return text;
   return value > 0 ? `+${text}` : text;
 }
@@ -50,7 +58,7 @@ function groupedFormat(digits: number): Intl.NumberFormat {
 
 /** Gini (a fraction) in points with one decimal: 0.4213 → "42.1". */
 export function formatGini(gini: Maybe): string {
-  return isNumber(gini) ? fixed(gini * 100, 1) : MISSING;
+  return isNumber(gini) ? formatFixed(gini * 100, 1) : MISSING;
 }
 
 /** A Gini difference in points, signed: 0.041 → "+4.1", −0.003 → "−0.3". */
@@ -60,7 +68,7 @@ export function formatGiniDelta(delta: Maybe): string {
 
 /** AUC with three decimals: 0.71063 → "0.711". */
 export function formatAuc(auc: Maybe): string {
-  return isNumber(auc) ? fixed(auc, 3) : MISSING;
+  return isNumber(auc) ? formatFixed(auc, 3) : MISSING;
 }
 
 /** An AUC difference, signed, three decimals: 0.0205 → "+0.021". */
@@ -70,7 +78,7 @@ export function formatAucDelta(delta: Maybe): string {
 
 /** KS (a fraction) in points with one decimal: 0.3312 → "33.1". */
 export function formatKs(ks: Maybe): string {
-  return isNumber(ks) ? fixed(ks * 100, 1) : MISSING;
+  return isNumber(ks) ? formatFixed(ks * 100, 1) : MISSING;
 }
 
 /** A KS difference in points, signed: 0.012 → "+1.2". */
@@ -93,34 +101,59 @@ const P_SCIENTIFIC_BELOW = 0.001;
 /** Smaller than any p a double can carry with meaning; an exact 0 is reported as "below" it. */
 const P_FLOOR_EXPONENT = -300;
 
+/** How a p-value is written: significant digits at or above 0.001, and whether trailing zeros go. */
+export interface PValueStyle {
+  /** Significant digits at or above 0.001 (default 3: "0.0421", "0.500"). */
+  significant?: number;
+  /** Drop trailing zeros: 0.5 → "0.5" rather than "0.50" (default false). */
+  trimZeros?: boolean;
+}
+
 /**
  * A p-value: at or above 0.001 to three significant digits ("0.0421", "0.500"); below 0.001 in
  * scientific notation with two significant digits and a superscript exponent ("3.2 × 10⁻⁴",
  * "1.0 × 10⁻³⁰⁰"); exactly 1 → "1"; exactly 0 (a tail below double precision) → "< 1 × 10⁻³⁰⁰".
  * Values outside [0, 1] are not p-values and show as "—".
  */
-export function formatPValue(p: Maybe): string {
+export function formatPValue(p: Maybe, style: PValueStyle = {}): string {
   if (!isNumber(p) || p < 0 || p > 1) return MISSING;
   if (p === 1) return '1';
   if (p === 0) return `< 1 × 10${superscript(P_FLOOR_EXPONENT)}`;
-  if (p >= P_SCIENTIFIC_BELOW) return p.toPrecision(3);
+  if (p >= P_SCIENTIFIC_BELOW) {
+    const text = p.toPrecision(style.significant ?? 3);
+    return style.trimZeros ? String(Number(text)) : text;
+  }
   // toExponential does the rounding, so 0.000999 becomes "1.0e-3", never "10.0e-4".
   const [mantissa, exponent] = p.toExponential(1).split('e');
   return `${mantissa} × 10${superscript(Number(exponent))}`;
 }
 
 /** "p = 0.0421", "p = 3.2 × 10⁻⁴", or "p < 1 × 10⁻³⁰⁰" for a p that underflowed to 0. */
-export function formatPStatement(p: Maybe): string {
-  const text = formatPValue(p);
+export function formatPStatement(p: Maybe, style: PValueStyle = {}): string {
+  const text = formatPValue(p, style);
   if (text === MISSING) return `p ${MISSING}`;
   return text.startsWith('<') ? `p ${text}` : `p = ${text}`;
+}
+
+/**
+ * A p-value in a sentence (the verdict, the e-mails, the demo's texts): two significant digits
+ * without trailing zeros, "p = 0.018", "p = 1", "p = 3.0 × 10⁻⁴"; a p at or below 0 (underflow)
+ * is "p < 1 × 10⁻³⁰⁰".
+ */
+export function formatPInWords(p: number): string {
+  return formatPStatement(Math.max(p, 0), { significant: 2, trimZeros: true });
 }
 
 // --- rates, counts, amounts ---------------------------------------------------------------
 
 /** A rate or share (a fraction) as a percentage: 0.0312 → "3.1%". */
 export function formatPercent(share: Maybe, digits = 1): string {
-  return isNumber(share) ? `${fixed(share * 100, digits)}%` : MISSING;
+  return isNumber(share) ? `${formatFixed(share * 100, digits)}%` : MISSING;
+}
+
+/** A setting given as a share, without trailing zeros: 0.7 → "70%", 0.725 → "72.5%". */
+export function formatShare(share: Maybe, digits = 1): string {
+  return isNumber(share) ? `${realMinus(String(Number((share * 100).toFixed(digits))))}%` : MISSING;
 }
 
 /** A difference of two rates in percentage points, signed: −0.033 → "−3.3 pp". */
@@ -236,7 +269,18 @@ export function formatDateTime(value: DateInput, timeZone?: string): string {
   }).format(date);
 }
 
+/** Dates in API bodies, files and the `dateTime` attribute of <time>: ISO 8601 in UTC. */
+export function iso(date: Date): string {
+  return date.toISOString();
+}
+
+/** `iso`, keeping a missing date null. */
+export function isoOrNull(date: Date | null): string | null {
+  return date === null ? null : iso(date);
+}
+
 /** A date for machines and screen readers alike, for the `dateTime` attribute of <time>. */
 export function isoDateTime(value: DateInput): string | undefined {
-  return toDate(value)?.toISOString();
+  const date = toDate(value);
+  return date ? iso(date) : undefined;
 }

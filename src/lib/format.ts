@@ -1,2 +1,5 @@
-/** The one format module lives in shared/ (the server's PDF and workbook use it too). */
+/**
+ * The client's number and date formats: the one set in shared/format.ts, which the server's
+ * command line, e-mails and verdict wording use too. Pages import from here (`@/lib/format`).
+ */
 export * from '@shared/format';
