@@ -17,6 +17,7 @@ import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
 import { holdoutRoutes } from './holdouts/router';
 import { governanceRoutes } from './governance/router';
+import { packRoutes } from './pack/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
@@ -63,6 +64,7 @@ function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>)
     ...holdoutRoutes(ctx),
     ...comparisonRoutes(ctx),
     ...governanceRoutes(ctx),
+    ...packRoutes(ctx),
     ...noteRoutes(ctx),
     ...policyRoutes(ctx),
     ...auditRoutes(ctx),

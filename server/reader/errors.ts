@@ -26,7 +26,8 @@ export type HoldoutInputCode =
   | 'missing_value'
   | 'bad_weight'
   | 'bad_probability'
-  | 'unsupported_weight';
+  | 'unsupported_weight'
+  | 'no_such_sheet';
 
 export class HoldoutInputError extends Error {
   override name = 'HoldoutInputError';

@@ -13,6 +13,7 @@ import { PageHeader } from '@/components/page-header';
 import { StatusBadge } from '@/components/status-badge';
 import { Steps } from '@/components/steps';
 import { Tabs } from '@/components/tabs';
+import { PackDownloads } from '@/features/comparisons/components/pack-downloads';
 import { comparisonQueryOptions, isRunActive, useComparison } from '@/features/comparisons/api/get-comparison';
 import { reportQueryOptions, useReport } from '@/features/comparisons/api/get-report';
 import { AnalysisFailed, AnalysisProgress } from '@/features/comparisons/components/analysis-progress';
@@ -187,6 +188,7 @@ export function Component() {
             ))}
           </ul>
         ) : null}
+        {report.data ? <PackDownloads comparisonId={id} decided={detail.state === 'decided'} /> : null}
         <Tabs
           label="Comparison pages"
           items={comparisonTabs.map((tab) => ({ to: tab.path(id), label: tab.label, end: tab.key === 'verdict' }))}

@@ -121,7 +121,7 @@ export function Component() {
                 <SwapSegmentsTable rows={result.swap.bySegment} confidence={confidence} />
               </Section>
             ) : null}
-            <div className="grid gap-6 2xl:grid-cols-2">
+            <div className="grid grid-cols-1 gap-6 2xl:grid-cols-2">
               <StrategyCurveChart curve={report.strategyCurve} swap={result.swap} position={result.strategyPosition} />
               <Section title="Swap matrix" description="How the two models band the same accounts: champion band by challenger band, band 1 the riskiest.">
                 <SwapMatrixTable matrix={result.swapMatrix} />
