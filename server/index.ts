@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
 import { comparisonStateLabels } from '@shared/comparisons';
+import { verifyWholeAuditChain } from './audit/chain-state';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
@@ -7,7 +8,7 @@ import { WalCheckpointer } from './db/checkpointer';
 import { storedSessionSecret } from './db/settings';
 import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
 import { JobRunner } from './jobs/runner';
-import { createLogger } from './log';
+import { createLogger, guardStandardStreams } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
@@ -35,6 +36,7 @@ function readConfig(): Config {
 }
 
 async function main(): Promise<void> {
+  guardStandardStreams();
   const config = readConfig();
   const log = createLogger(config.logLevel);
 
@@ -79,6 +81,15 @@ async function main(): Promise<void> {
       );
     }
   }
+
+  // The whole audit chain once at start-up; later calls verify only the events appended since.
+  void verifyWholeAuditChain(dataSource).then(
+    (check) => {
+      if (check.ok) log.info(`audit chain verified: ${check.events} events`);
+      else log.error(`THE AUDIT CHAIN IS BROKEN at event ${check.brokenAt}: ${check.reason}. Every audit trail reports it until the chain is restored.`);
+    },
+    (error: unknown) => log.error('the audit chain could not be verified at start-up', error),
+  );
 
   const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {

@@ -17,7 +17,15 @@ export const adoptionPolicySchema = z.object({
   /** Require the lower bound of the ΔGini interval to be above 0. */
   requireIntervalAboveZero: z.boolean(),
   /** Require the swap-in bad rate not above the swap-out bad rate at this approval rate. */
-  swapRule: z.object({ enabled: z.boolean(), approvalRate: z.number().gt(0).lt(1) }),
+  swapRule: z.object({
+    enabled: z.boolean(),
+    approvalRate: z.number().gt(0).lt(1),
+    /**
+     * Must also hold at the worst case: the swap-in's upper bound (every unknown bad) not above the
+     * swap-out's lower bound (every unknown good). Absent = false.
+     */
+    worstCase: z.boolean().optional(),
+  }),
   /** Minimum number of bads in the holdout. */
   minBads: z.number().int().min(0),
   /** Committee votes needed before a decision can be recorded; 0 = no quorum. */

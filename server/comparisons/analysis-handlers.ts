@@ -6,7 +6,7 @@ import type { Mailer } from '../mail/mailer';
 import { currentPolicy } from '../policy/service';
 import { engineVersion } from '../stats/report';
 import { preparedCacheFor } from './prepared-cache';
-import { recordFinishedRun } from './run-finished';
+import { recordFinishedRun, recordUnstoredRun } from './run-finished';
 
 /**
  * What the analysis queue does when a comparison's run is claimed and when it ends: the worker
@@ -35,6 +35,7 @@ export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer
           : outcome,
         { mailer, publicUrl },
       ),
+    resultNotStored: (runId, cause) => recordUnstoredRun(dataSource, runId, cause, { mailer, publicUrl }),
     afterFinished: () => mailer?.kick(),
     keepPrepared: async (run, message) => {
       const { prepared } = message;

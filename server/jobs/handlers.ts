@@ -20,6 +20,12 @@ export interface JobHandlers {
   jobInput(manager: EntityManager): Promise<Omit<AnalysisJob, 'databasePath' | 'runId' | 'attempt'>>;
   /** Stores a run that ended (done, or failed for good) inside the given transaction; returns the stored run. */
   finished(manager: EntityManager, runId: number, outcome: JobOutcome): Promise<AnalysisRun>;
+  /**
+   * Storing a run's result failed (the disk is full, the database failed): mark the run failed
+   * with the reason, in its own small transaction, instead of leaving it running. Returns whether
+   * that was stored; if not, start-up's recovery settles the run.
+   */
+  resultNotStored(runId: number, cause: unknown): Promise<boolean>;
   /** After that transaction committed (e.g. deliver the e-mail it queued). */
   afterFinished?(): void;
   /** After a done run is stored: keep what the worker prepared (swap sets' data, sort orders). */

@@ -285,7 +285,11 @@ export class JobRunner {
       }
       // Workers end by themselves once their message is posted; make sure.
       if (active) void active.worker.terminate();
-    })().catch((error: unknown) => this.options.log.error(`analysis run ${runId}: could not store its result`, error));
+    })().catch(async (error: unknown) => {
+      this.options.log.error(`analysis run ${runId}: could not store its result`, error);
+      // Marked failed with the reason by the handlers (comparisons/run-finished.ts recordUnstoredRun), not left "running".
+      if (await this.options.handlers.resultNotStored(runId, error)) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
+    });
     this.settling.add(work);
     void work.finally(() => {
       this.settling.delete(work);

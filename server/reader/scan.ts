@@ -1,10 +1,11 @@
-import type { MappingGuess } from '@shared/comparisons';
+import { type MappingGuess, maxSegmentColumns } from '@shared/comparisons';
 import type { ColumnMapping, HigherIs } from '@shared/report';
 import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
+import { boundPreview, PREVIEW_CELL_CHARS } from './preview-bounds';
 import { INVALID, MISSING, parseNumber } from './values';
 import { formatAuc, formatCount } from '@shared/format';
 
@@ -41,7 +42,7 @@ export interface HoldoutScan {
   delimiter: CsvLayout['delimiter'];
   rowCount: number;
   columns: ScannedColumn[];
-  /** The first 20 data rows, as text, in column order. */
+  /** The first 20 data rows, as text, in column order, within the bounds of preview-bounds.ts (cells cut to 200 characters, 64 KB in all). */
   preview: string[][];
   guess: MappingGuess;
   /** Rows whose field count differs from the header's (the first MAX_PROBLEMS); they are left
@@ -127,7 +128,8 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
           continue;
         }
         statRows++;
-        if (preview.length < PREVIEW_ROWS) preview.push(row.slice());
+        // A long cell is copied cut (through a Buffer: a plain slice would keep the whole field alive).
+        if (preview.length < PREVIEW_ROWS) preview.push(row.map((cell) => (cell.length > PREVIEW_CELL_CHARS ? Buffer.from(cell.slice(0, PREVIEW_CELL_CHARS + 1)).toString() : cell)));
         const sampled = sampleRows < sampleLimit;
         for (let c = 0; c < row.length; c++) {
           const cell = row[c];
@@ -182,7 +184,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     delimiter: layout.delimiter,
     rowCount,
     columns,
-    preview,
+    preview: boundPreview(preview),
     guess,
     problems,
   };
@@ -255,7 +257,8 @@ function guessMapping(
 
   const segments = indices
     .filter((c) => !used.has(c) && columns[c].kind === 'categorical' && columns[c].distinct >= 2)
-    .map((c) => header[c]);
+    .map((c) => header[c])
+    .slice(0, maxSegmentColumns);
 
   const orientation = (at: number | undefined): { higherIs: HigherIs | null; hint: string | null } => {
     if (at === undefined) return { higherIs: null, hint: null };

@@ -1,6 +1,6 @@
 import type { DataQuality } from '@shared/report';
 import type { Holdout } from './holdout';
-import type { PreparedHoldout, PreparedModel } from './policy-data';
+import { knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 import { formatAuc, formatCount } from '@shared/format';
 
 /**
@@ -118,7 +118,7 @@ function aucOf(model: PreparedModel, bads: number, goods: number): number {
   for (let b = 0; b < model.blockEnds.length; b++) {
     const end = model.blockEnds[b];
     const blockBads = model.badsBefore[end] - model.badsBefore[start];
-    const blockGoods = end - start - blockBads;
+    const blockGoods = knownAt(model, end) - knownAt(model, start) - blockBads;
     numerator += blockGoods * (model.badsBefore[start] + blockBads / 2);
     start = end;
   }

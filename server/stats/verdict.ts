@@ -2,6 +2,7 @@ import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } 
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
+import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
  * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
@@ -79,7 +80,11 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   }
 
   const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
-  if (policy.swapRule.enabled) criteria.push(swapCriterion(swap, policy.swapRule.approvalRate));
+  if (policy.swapRule.enabled) {
+    // Swap sets with applicants without an outcome: judged under the reject inference, and named so.
+    const unknowns = swap !== null && [swap.bothAccept, swap.swapIn, swap.swapOut, swap.bothReject].some((cell) => (cell.unknown ?? 0) > 0);
+    criteria.push(unknowns ? swapCriterionWithUnknowns(swap, policy, report.settings) : swapCriterion(swap, policy.swapRule.approvalRate));
+  }
 
   criteria.push({
     id: 'minimum-bads',
@@ -126,28 +131,30 @@ function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
   if (!swap) {
     return { ...base, met: false, detail: `swap sets ${at} were not computed for this report, so the rule cannot be checked` };
   }
-  const { swapIn, swapOut, test } = swap;
+  const { swapOut, test } = swap;
+  const swapIn = swap.swapIn;
   if (swapIn.count === 0 && swapOut.count === 0) {
     return { ...base, met: true, detail: `${at} both models accept the same accounts: there is no swap-in and no swap-out` };
   }
   if (swapIn.count === 0) {
-    return { ...base, met: true, detail: `${at} there is no swap-in; the swap-out is ${group(swapOut.count, swapOut.badRate)}` };
+    return { ...base, met: true, detail: `${at} there is no swap-in; the swap-out is ${group(accountsOf(swapOut), swapOut.badRate)}` };
   }
   if (swapOut.count === 0) {
     return {
       ...base,
       met: false,
-      detail: `${at} there is no swap-out to compare the swap-in (${group(swapIn.count, swapIn.badRate)}) with`,
+      detail: `${at} there is no swap-out to compare the swap-in (${group(accountsOf(swapIn), swapIn.badRate)}) with`,
     };
   }
-  // swapIn.bads / swapIn.count ≤ swapOut.bads / swapOut.count, compared exactly in integers.
-  const met = swapIn.bads * swapOut.count <= swapOut.bads * swapIn.count;
+  // swapIn.bads / swapIn.count ≤ swapOut.bads / swapOut.count, compared exactly in integers
+  // (in accounts with weights: summed weights, every outcome known here).
+  const met = swapIn.bads * (swapOut.accounts ?? swapOut.count) <= swapOut.bads * (swapIn.accounts ?? swapIn.count);
   const testText =
     test.p === null ? '' : ` (two-sided ${pText(test.p)}, ${test.method === 'fisher-exact' ? "Fisher's exact test" : 'two-proportion z test'})`;
   return {
     ...base,
     met,
-    detail: `${at} the swap-in is ${group(swapIn.count, swapIn.badRate)} and the swap-out ${group(swapOut.count, swapOut.badRate)}: the swap-in bad rate is ${
+    detail: `${at} the swap-in is ${group(accountsOf(swapIn), swapIn.badRate)} and the swap-out ${group(accountsOf(swapOut), swapOut.badRate)}: the swap-in bad rate is ${
       met ? 'not above' : 'above'
     } the swap-out's${testText}`,
   };
@@ -157,9 +164,18 @@ function swapSummary(swap: SwapSets, rate: number): string {
   const at = `at a ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;
   if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
-  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(swapIn.count)} with a ${rateText(swapIn.badRate)} bad rate`;
-  const outText = swapOut.count === 0 ? 'none' : `${count(swapOut.count)} with a ${rateText(swapOut.badRate)} bad rate`;
+  // Weighted holdouts: applicants (rounded), the bad rate of those with an outcome.
+  const inAccounts = Math.round(swapIn.accounts ?? swapIn.count);
+  const outAccounts = Math.round(swapOut.accounts ?? swapOut.count);
+  const known = (swapIn.unknown ?? 0) + (swapOut.unknown ?? 0) > 0 ? ' known' : '';
+  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(inAccounts)} with a ${rateText(swapIn.badRate)}${known} bad rate`;
+  const outText = swapOut.count === 0 ? 'none' : `${count(outAccounts)} with a ${rateText(swapOut.badRate)}${known} bad rate`;
   return `${at} it swaps in ${inText} for ${outText}`;
+}
+
+/** A swap cell's accounts: summed weights (rounded) with weights, else its rows. */
+function accountsOf(cell: SwapSets['swapIn']): number {
+  return Math.round(cell.accounts ?? cell.count);
 }
 
 function group(n: number, badRate: number | null): string {

@@ -23,6 +23,21 @@ describe('health', () => {
   });
 });
 
+describe('caching', () => {
+  it('marks every API answer no-store: successes, errors and unknown routes', async () => {
+    const client = await signedInAs(t.app, 'analyst');
+    const responses: [string, request.Response][] = [
+      ['/api/health', await request(t.app).get('/api/health')],
+      ['/api/comparisons', await client.get('/api/comparisons')],
+      ['/api/auth/me', await request(t.app).get('/api/auth/me')],
+      ['/api/nothing', await request(t.app).get('/api/nothing')],
+    ];
+    for (const [path, response] of responses) {
+      expect(response.headers['cache-control'], path).toBe('no-store');
+    }
+  });
+});
+
 describe('error shape', () => {
   it('answers an unknown API route with JSON 404, for GET and for mutations', async () => {
     const get = await request(t.app).get('/api/no-such-thing?x=1').expect(404);
