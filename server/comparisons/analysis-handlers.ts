@@ -35,7 +35,7 @@ export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer
           : outcome,
         { mailer, publicUrl },
       ),
-    unstored: (runId, cause) => recordUnstoredRun(dataSource, runId, cause, { mailer, publicUrl }),
+    resultNotStored: (runId, cause) => recordUnstoredRun(dataSource, runId, cause, { mailer, publicUrl }),
     afterFinished: () => mailer?.kick(),
     keepPrepared: async (run, message) => {
       const { prepared } = message;

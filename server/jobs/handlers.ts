@@ -21,10 +21,11 @@ export interface JobHandlers {
   /** Stores a run that ended (done, or failed for good) inside the given transaction; returns the stored run. */
   finished(manager: EntityManager, runId: number, outcome: JobOutcome): Promise<AnalysisRun>;
   /**
-   * A run whose result could not be stored (disk full, storage failing): mark it failed with the
-   * reason, in a transaction of its own; true if that was stored.
+   * Storing a run's result failed (the disk is full, the database failed): mark the run failed
+   * with the reason, in its own small transaction, instead of leaving it running. Returns whether
+   * that was stored; if not, start-up's recovery settles the run.
    */
-  unstored?(runId: number, cause: unknown): Promise<boolean>;
+  resultNotStored(runId: number, cause: unknown): Promise<boolean>;
   /** After that transaction committed (e.g. deliver the e-mail it queued). */
   afterFinished?(): void;
   /** After a done run is stored: keep what the worker prepared (swap sets' data, sort orders). */

@@ -287,8 +287,8 @@ export class JobRunner {
       if (active) void active.worker.terminate();
     })().catch(async (error: unknown) => {
       this.options.log.error(`analysis run ${runId}: could not store its result`, error);
-      // Marked failed with the reason (comparisons/run-finished.ts), not left "running".
-      if (await this.options.handlers.unstored?.(runId, error)) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
+      // Marked failed with the reason by the handlers (comparisons/run-finished.ts recordUnstoredRun), not left "running".
+      if (await this.options.handlers.resultNotStored(runId, error)) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
     });
     this.settling.add(work);
     void work.finally(() => {
