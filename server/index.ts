@@ -12,6 +12,7 @@ import { createLogger, guardStandardStreams } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
+import { formatFixed } from '@shared/format';
 
 /**
  * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
@@ -72,7 +73,7 @@ async function main(): Promise<void> {
     if (config.demoScenario) console.log('The database is empty: adding the demo people and the demo comparisons, whose analyses run now (a few seconds)…');
     try {
       seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir } : null });
-      if (seeded.comparisons.length > 0) console.log(`The demo is ready (${((performance.now() - started) / 1000).toFixed(1)} s).`);
+      if (seeded.comparisons.length > 0) console.log(`The demo is ready (${formatFixed((performance.now() - started) / 1000, 1)} s).`);
     } catch (error) {
       log.error(
         `The demo scenario could not be completed; the server starts with what was added. To try again, stop the server and remove ${config.databasePath} (and its -wal and -shm files).`,

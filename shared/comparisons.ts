@@ -16,7 +16,7 @@ import {
  */
 
 // --- states -------------------------------------------------------------------------------
-/** DESIGN.md "Workflow and roles". */
+/** docs/design.md "Workflow and roles". */
 export const comparisonStates = ['draft', 'analysed', 'in-review', 'validated', 'returned', 'decided'] as const;
 export const comparisonStateSchema = z.enum(comparisonStates);
 export type ComparisonState = z.infer<typeof comparisonStateSchema>;
@@ -116,7 +116,12 @@ export const validationReportSchema = z.object({
       rowsUsed: z.number().int(),
       goods: z.number().int(),
       bads: z.number().int(),
+      /** Bad rate of the rows with an outcome. */
       badRate: z.number(),
+      /** Rows kept without an outcome (keep-unknown); absent when every row has one. */
+      unknownRows: z.number().int().optional(),
+      /** Applicants the rows stand for (weights summed); absent without weights or unknown rows. */
+      accounts: z.number().optional(),
       rowsDroppedMissingScore: z.number().int(),
       missingByColumn: z.record(z.string(), z.number().int()),
       warnings: z.array(z.string()),

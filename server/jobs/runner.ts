@@ -210,13 +210,14 @@ export class JobRunner {
     const { log } = this.options;
     let worker: Worker;
     if (this.options.databasePath === ':memory:') {
-      this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
+      // settle() logs its own errors and is tracked in `settling` (stop() and whenIdle() wait for it).
+      void this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
       return;
     }
     try {
       worker = startWorker(this.workerPath, { workerData: job, resourceLimits: this.options.resourceLimits ?? defaultLimits });
     } catch (error) {
-      this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
+      void this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
       return;
     }
     let exitedResolve: () => void = () => {};

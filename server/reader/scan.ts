@@ -7,6 +7,7 @@ import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
 import { boundPreview, PREVIEW_CELL_CHARS } from './preview-bounds';
 import { INVALID, MISSING, parseNumber } from './values';
+import { formatAuc, formatCount } from '@shared/format';
 
 /**
  * A first look at a holdout file, before any mapping: its columns (what their values look like),
@@ -276,11 +277,11 @@ function guessMapping(
     } catch {
       return { higherIs: byName, hint: 'only one outcome in the first rows; guessed from the name' };
     }
-    const shown = (Math.max(value, 1 - value)).toFixed(3);
-    const base = `on the first ${rows.length.toLocaleString('en-US')} rows`;
+    const shown = formatAuc(Math.max(value, 1 - value));
+    const base = `on the first ${formatCount(rows.length)} rows`;
     if (value > 0.51) return { higherIs: 'safer', hint: `bads have lower scores: AUC ${shown} taking higher = safer, ${base}` };
     if (value < 0.49) return { higherIs: 'riskier', hint: `bads have higher scores: AUC ${shown} taking higher = riskier, ${base}` };
-    return { higherIs: byName, hint: `the data barely separate (AUC ${value.toFixed(3)}); guessed from the name` };
+    return { higherIs: byName, hint: `the data barely separate (AUC ${formatAuc(value)}); guessed from the name` };
   };
   const championOrientation = orientation(championAt);
   const challengerOrientation = orientation(challengerAt);
