@@ -99,14 +99,16 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
 function summary(model: PreparedModel): DataQuality['champion'] {
   const { raw, sorted } = model;
   const n = raw.length;
+  // Scaled as in pearson, so the mean of finite scores is finite.
+  const scale = scaleOf(raw);
   let sum = 0;
-  for (let i = 0; i < n; i++) sum += raw[i];
+  for (let i = 0; i < n; i++) sum += raw[i] / scale;
   const low = sorted[0];
   const high = sorted[n - 1];
   return {
     min: model.higherIs === 'safer' ? low : -high,
     max: model.higherIs === 'safer' ? high : -low,
-    mean: sum / n,
+    mean: (sum / n) * scale,
     distinct: model.blockEnds.length,
   };
 }
@@ -141,13 +143,27 @@ function rawMidranks(model: PreparedModel): Float64Array {
   return ranks;
 }
 
-function pearson(x: Float64Array, y: Float64Array): number | null {
+/** The largest |value| (1 when all are 0): dividing by it keeps sums of values and squares finite. */
+function scaleOf(values: Float64Array): number {
+  let most = 0;
+  for (let i = 0; i < values.length; i++) most = Math.max(most, Math.abs(values[i]));
+  return most > 0 && Number.isFinite(most) ? most : 1;
+}
+
+/**
+ * Pearson's correlation. Each series is first divided by its largest |value| (the correlation does
+ * not change under scaling), so sums and squares stay finite for any finite scores: a score of
+ * 1.7976931348623151e+308 made the plain sums overflow to Infinity and the result NaN.
+ */
+export function pearson(x: Float64Array, y: Float64Array): number | null {
   const n = x.length;
+  const ax = scaleOf(x);
+  const ay = scaleOf(y);
   let sx = 0;
   let sy = 0;
   for (let i = 0; i < n; i++) {
-    sx += x[i];
-    sy += y[i];
+    sx += x[i] / ax;
+    sy += y[i] / ay;
   }
   const mx = sx / n;
   const my = sy / n;
@@ -155,8 +171,8 @@ function pearson(x: Float64Array, y: Float64Array): number | null {
   let sxx = 0;
   let syy = 0;
   for (let i = 0; i < n; i++) {
-    const dx = x[i] - mx;
-    const dy = y[i] - my;
+    const dx = x[i] / ax - mx;
+    const dy = y[i] / ay - my;
     sxy += dx * dy;
     sxx += dx * dx;
     syy += dy * dy;

@@ -144,7 +144,8 @@ describe('the reader under bad input', () => {
     // The mix reaches both ends: some inputs load and report, most are refused for a reason.
     expect(tally.reports).toBeGreaterThan(RUNS / 20);
     expect(tally.refused.size).toBeGreaterThan(5);
-  });
+    // A generous budget: on a loaded 2-core machine 500 cases take minutes; a hang still fails.
+  }, 900_000);
 
   it('refuses a header of a million columns at once, naming the limit', async () => {
     const header = Array.from({ length: 1_000_000 }, (_, i) => `c${i}`).join(',');
@@ -156,7 +157,8 @@ describe('the reader under bad input', () => {
       expect((outcome.error as HoldoutInputError).code).toBe('too_many_columns');
       expect((outcome.error as Error).message).toBe('the header has 1,000,000 columns; at most 5000 are read');
       expect((outcome.error as HoldoutInputError).row).toBe(1);
-      expect(outcome.elapsedMs).toBeLessThan(2_000);
+      // "At once": far from reading a million columns, with room for a busy machine.
+      expect(outcome.elapsedMs).toBeLessThan(20_000);
       record('reader million columns', { bytes: bytes.length, refusedInMs: Math.round(outcome.elapsedMs) });
     }
   });
