@@ -3,7 +3,7 @@ import { z } from 'zod';
 /**
  * The adoption policy: the rules that turn a report's evidence into a recommendation.
  * Admin-editable and versioned on the server; the version is stored with every verdict.
- * Defaults: DESIGN.md ("Verdict"). Materiality of 2 Gini points and 300 bads are common practice,
+ * Defaults: docs/design.md ("Verdict"). Materiality of 2 Gini points and 300 bads are common practice,
  * no source.
  */
 export const adoptionPolicySchema = z.object({

@@ -1,4 +1,5 @@
 import { parseArgs } from 'node:util';
+import { MISSING, formatCount, formatFixed, formatGini, formatPStatement, formatPercent, formatSignedNumber } from '@shared/format';
 import {
   type AnalysisSettings,
   type ColumnMapping,
@@ -217,16 +218,14 @@ export function parseCommand(argv: string[]): CompareCommand {
 }
 
 // --- the readable summary ------------------------------------------------------------------
-const pct = (value: number | null, digits = 1) => (value === null ? '—' : `${(value * 100).toFixed(digits)}%`);
-const points = (value: number, digits = 1) => (value * 100).toFixed(digits);
-const signed = (value: number, digits = 1) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(digits)}`;
-const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? '—' : `[${format(ci[0])}, ${format(ci[1])}]`);
-const int = (value: number) => value.toLocaleString('en-US');
-function pValue(p: number): string {
-  if (p === 0) return '< 1e-300';
-  if (p >= 0.001) return p.toFixed(4);
-  return p.toExponential(1);
-}
+// Numbers as everywhere else (shared/format.ts): Gini and KS in points, rates as percentages,
+// differences signed with a real minus, p-values with three significant digits.
+const pct = (value: number | null, digits = 1) => formatPercent(value, digits);
+const points = (value: number) => formatGini(value);
+const signed = (value: number, digits = 1) => formatSignedNumber(value * 100, digits);
+const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? MISSING : `[${format(ci[0])}, ${format(ci[1])}]`);
+const int = (value: number) => formatCount(value);
+const pStatement = (p: number) => formatPStatement(p);
 const pad = (text: string, width: number) => text.padEnd(width);
 
 export function summary(report: Report): string {
@@ -251,7 +250,7 @@ export function summary(report: Report): string {
     ['Challenger', challenger],
   ] as const) {
     lines.push(
-      `${pad(name, 12)}${pad(points(model.gini), 8)}${pad(range(model.giniCi, (v) => points(v)), 22)}${pad(model.auc.toFixed(4), 9)}${pad(points(model.ks), 7)}${pad(range(model.ksCi, (v) => points(v)), 18)}${model.ksScore}`,
+      `${pad(name, 12)}${pad(points(model.gini), 8)}${pad(range(model.giniCi, (v) => points(v)), 22)}${pad(formatFixed(model.auc, 4), 9)}${pad(points(model.ks), 7)}${pad(range(model.ksCi, (v) => points(v)), 18)}${model.ksScore}`,
     );
   }
   lines.push('');
@@ -260,7 +259,7 @@ export function summary(report: Report): string {
     `  ΔGini ${signed(difference.gini, 2)}, ${level} CI ${range(difference.giniCi, (v) => signed(v, 2))} (DeLong)` +
       (difference.giniBootstrapCi ? `, ${range(difference.giniBootstrapCi, (v) => signed(v, 2))} (bootstrap, ${int(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed})` : ', bootstrap skipped'),
   );
-  lines.push(`  DeLong z = ${difference.z.toFixed(3)}, one-sided p = ${pValue(difference.pOneSided)} (challenger better), two-sided p = ${pValue(difference.pTwoSided)}`);
+  lines.push(`  DeLong z = ${formatFixed(difference.z, 3)}, one-sided ${pStatement(difference.pOneSided)} (challenger better), two-sided ${pStatement(difference.pTwoSided)}`);
   lines.push(`  ΔKS ${signed(difference.ks, 2)}${difference.ksCi ? `, ${level} CI ${range(difference.ksCi, (v) => signed(v, 2))} (bootstrap)` : ''}`);
   lines.push('');
   const basis =
@@ -286,7 +285,7 @@ export function summary(report: Report): string {
     }
   }
   const test = swap.test;
-  lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${test.z.toFixed(3)}`}, p = ${test.p === null ? `— (${test.reason})` : pValue(test.p)}`);
+  lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${formatFixed(test.z, 3)}`}, ${test.p === null ? `p — (${test.reason})` : pStatement(test.p)}`);
   const atRate = report.strategyCurve.atApprovalRate;
   const avoided = atRate.badsAvoided;
   const badsWords = avoided === 0 ? 'as many bads as the champion' : `${int(Math.abs(avoided))} ${avoided > 0 ? 'fewer' : 'more'} bads`;
@@ -317,7 +316,7 @@ export function summary(report: Report): string {
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
     const width = labelWidth(report.segments);
     for (const row of report.segments) {
-      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
+      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  ${pStatement(row.p!)}  Holm ${pStatement(row.pHolm!)}`;
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }

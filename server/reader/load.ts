@@ -5,6 +5,7 @@ import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
+import { formatCount } from '@shared/format';
 
 /**
  * Loads a holdout file with a column mapping into the engine's column form (typed arrays), in
@@ -430,7 +431,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const knownRows = n - unknownRows;
   if (sink.errors.length === 0) {
     if (rowsRead === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
-    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${dropped.toLocaleString('en-US')} rows left out)`);
+    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${formatCount(dropped)} rows left out)`);
     if (knownRows === 0) {
       throw new HoldoutInputError('single_class', `column ${columnName(mapping.outcome)}: no row has an outcome; a comparison needs goods and bads with a known outcome`, null, mapping.outcome);
     }
@@ -511,11 +512,11 @@ export async function validateHoldout(
     const { read } = loaded;
     const warnings: string[] = [];
     if (read.rowsDroppedMissingScore > 0) {
-      warnings.push(`${read.rowsDroppedMissingScore.toLocaleString('en-US')} rows with a missing score left out`);
+      warnings.push(`${formatCount(read.rowsDroppedMissingScore)} rows with a missing score left out`);
     }
     if (read.unknown > 0) {
       warnings.push(
-        `${read.unknown.toLocaleString('en-US')} rows have no outcome: they count in approval rates, cut-offs and swap sets, not in AUC, KS or bad rates`,
+        `${formatCount(read.unknown)} rows have no outcome: they count in approval rates, cut-offs and swap sets, not in AUC, KS or bad rates`,
       );
     }
     return {

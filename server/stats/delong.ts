@@ -28,7 +28,7 @@ import { StatisticError } from './statistic-error';
  * - one class missing: StatisticError (no AUC).
  * - a single good (or bad): that class's sample variance is undefined; its term is taken as 0,
  *   so the se then rests on the other class alone.
- * - identical rankings: Δ = 0, se = 0, z = 0, two-sided p = 1 (DESIGN.md) and one-sided p = 0.5:
+ * - identical rankings: Δ = 0, se = 0, z = 0, two-sided p = 1 (docs/design.md) and one-sided p = 0.5:
  *   P(Z > 0), the limit of the one-sided p of nearly identical models; 2·min(p, 1 − p) gives the
  *   two-sided 1 back.
  * - se = 0 with Δ ≠ 0 (one model separates perfectly while the other is constant): the evidence

@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { formatCount } from '@shared/format';
 import { type AdoptionPolicy, defaultAdoptionPolicy } from '@shared/policy';
 import {
   analysisSettingsSchema,
@@ -73,7 +74,7 @@ export interface BuildReportInput {
   threads?: number;
 }
 
-const count = (value: number) => value.toLocaleString('en-US');
+const count = (value: number) => formatCount(value);
 
 // Share of the progress bar each stage ends at.
 const PROGRESS = { ranked: 0.04, delong: 0.06, bootstrap: 0.9, policy: 0.96, segments: 0.99 } as const;

@@ -1,3 +1,4 @@
+import { formatCount, formatPercent, formatShare } from '@shared/format';
 import { type AdoptionPolicy } from '@shared/policy';
 import { type Criterion, inferenceOf, type AnalysisSettings, type SwapCell, type SwapSets } from '@shared/report';
 
@@ -61,13 +62,13 @@ function bounds(cell: SwapCell): string {
 }
 
 function count(n: number): string {
-  return Math.round(n).toLocaleString('en-US');
+  return formatCount(Math.round(n));
 }
 
 function pct(rate: number): string {
-  return `${(rate * 100).toFixed(1)}%`;
+  return formatPercent(rate);
 }
 
 function percent(fraction: number): string {
-  return `${Number((fraction * 100).toFixed(1))}%`;
+  return formatShare(fraction);
 }

@@ -1,3 +1,4 @@
+import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } from '@shared/format';
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
@@ -11,7 +12,7 @@ import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
  *                    ΔGini interval lies entirely below 0;
  *   supported        otherwise, when every criterion is met;
  *   not-proven       otherwise.
- * Defaults and thresholds: DESIGN.md "Verdict" (materiality and minimum bads are common practice,
+ * Defaults and thresholds: docs/design.md "Verdict" (materiality and minimum bads are common practice,
  * no source). The criteria use the report's ΔGini interval at the report's confidence.
  *
  * A pure function of the report, the policy, and the swap sets at the policy's approval rate
@@ -63,7 +64,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
     id: 'materiality',
     label: 'Material uplift',
     met: material,
-    detail: `ΔGini = ${signedPoints(giniPoints, digits)} points, ${material ? 'at least' : 'below'} the ${required.toFixed(digits)} points required`,
+    detail: `ΔGini = ${signedPoints(giniPoints, digits)} points, ${material ? 'at least' : 'below'} the ${formatFixed(required, digits)} points required`,
   });
 
   if (policy.requireIntervalAboveZero) {
@@ -185,55 +186,21 @@ function accounts(n: number): string {
   return `${count(n)} ${n === 1 ? 'account' : 'accounts'}`;
 }
 
-function count(n: number): string {
-  return n.toLocaleString('en-US');
-}
+const count = (n: number) => formatCount(n);
 
 function rateText(rate: number | null): string {
-  return rate === null ? 'undefined' : `${(rate * 100).toFixed(1)}%`;
+  return rate === null ? 'undefined' : formatPercent(rate);
 }
 
 /** 0.7 → "70%", 0.725 → "72.5%". */
-function percent(fraction: number): string {
-  return `${Number((fraction * 100).toFixed(1))}%`;
-}
+const percent = (fraction: number) => formatShare(fraction);
 
-function signedPoints(points: number, digits = 1): string {
-  const text = points.toFixed(digits);
-  return Number(text) === 0 ? (0).toFixed(digits) : text.replace('-', '−');
-}
+/** Gini points with a real minus sign, no "+": 4.1, −3.0, 0.0. */
+const signedPoints = (points: number, digits = 1) => formatFixed(points, digits);
 
 function unsignedPoints(points: number): string {
   return signedPoints(Math.abs(points));
 }
 
-const SUPERSCRIPT: Record<string, string> = {
-  '-': '⁻',
-  '0': '⁰',
-  '1': '¹',
-  '2': '²',
-  '3': '³',
-  '4': '⁴',
-  '5': '⁵',
-  '6': '⁶',
-  '7': '⁷',
-  '8': '⁸',
-  '9': '⁹',
-};
-
-/**
- * "p = 0.012", "p = 3.0 × 10⁻⁴" below 0.001, "p < 1 × 10⁻³⁰⁰" when it underflowed: the p-values in
- * the verdict's words and in the workflow e-mails.
- */
-export function pText(p: number): string {
-  if (p <= 0) return 'p < 1 × 10⁻³⁰⁰';
-  if (p < 0.001) {
-    const [mantissa, exponent] = p.toExponential(1).split('e');
-    const power = String(Number(exponent))
-      .split('')
-      .map((ch) => SUPERSCRIPT[ch])
-      .join('');
-    return `p = ${mantissa} × 10${power}`;
-  }
-  return `p = ${Number(p.toPrecision(2))}`;
-}
+/** "p = 0.012", "p = 3.0 × 10⁻⁴", "p < 1 × 10⁻³⁰⁰": shared/format.ts's rule for p-values in sentences. */
+const pText = (p: number) => formatPInWords(p);
