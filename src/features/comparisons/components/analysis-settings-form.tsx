@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Controller, useForm } from 'react-hook-form';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import { type AnalysisSettings, analysisSettingsSchema, defaultRejectInference, type RejectInference, rejectInferenceSchema } from '@shared/report';
 import { Button } from '@/components/button';
 import { Select } from '@/components/select';
@@ -47,9 +47,9 @@ export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy, withUnkn
     register,
     handleSubmit,
     control,
-    watch,
     formState: { errors },
   } = useForm({ resolver: zodResolver(settingsFormSchema, { error: errorMap }), defaultValues: initial });
+  const inferenceMethod = useWatch({ control, name: 'rejectInference.method' });
 
   return (
     <form onSubmit={handleSubmit((values) => onSubmit(values as SettingsFormValues))} noValidate className="space-y-6">
@@ -122,7 +122,7 @@ export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy, withUnkn
             options={withInferredColumn ? inferenceOptions : inferenceOptions.filter((option) => option.value !== 'column')}
             {...register('rejectInference.method')}
           />
-          {watch('rejectInference.method') === 'parcel' ? (
+          {inferenceMethod === 'parcel' ? (
             <TextField
               label="Parcel factor"
               type="number"
