@@ -138,6 +138,43 @@ async function runStage(name: string): Promise<void> {
     for (const timing of benchPolicyStages(holdout, { orders: { champion: a.order, challenger: b.order } })) {
       results.push({ stage: `${timing.stage} (${scores})`, runsMs: timing.runsMs, peakRssMb: maxRssMb() });
     }
+  } else if (kind === 'weights') {
+    // The cost of sampling weights: the whole report (bootstrap 200 replicates, one thread so the
+    // comparison is not one of thread scheduling) without weights, with weights by outcome (goods
+    // 4, bads 1: a one-in-four sample of goods) and with weights 1–4 at random (cells split by weight).
+    const holdout = await load(scores);
+    const byOutcome = new Float64Array(holdout.n);
+    const random = new Float64Array(holdout.n);
+    for (let i = 0; i < holdout.n; i++) {
+      byOutcome[i] = holdout.bad[i] ? 1 : 4;
+      random[i] = 1 + ((i * 2654435761) >>> 0) % 4;
+    }
+    const mapping = mappingFor(scores);
+    const input = { fileName: 'bench.csv', sha256: '', bytes: 0 };
+    const settings = { bootstrap: 200 };
+    const variants: [string, Holdout][] = [
+      ['unweighted', holdout],
+      ['weights by outcome', { ...holdout, weight: byOutcome }],
+      ['weights 1–4 at random', { ...holdout, weight: random }],
+    ];
+    const runs: number[][] = variants.map(() => []);
+    for (let round = 0; round < 3; round++) {
+      for (let v = 0; v < variants.length; v++) {
+        const start = performance.now();
+        await buildReport({ holdout: variants[v][1], input, mapping: { ...mapping, weight: v === 0 ? null : 'w' }, settings, threads: 0 });
+        runs[v].push(performance.now() - start);
+      }
+    }
+    const base = median(runs[0]);
+    variants.forEach(([label], v) => {
+      const ratio = median(runs[v]) / base;
+      results.push({
+        stage: `whole report, 200 replicates, one thread, ${label} (${scores})`,
+        runsMs: runs[v],
+        peakRssMb: maxRssMb(),
+        note: v === 0 ? 'the base of the ratios below' : `${ratio.toFixed(2)}× unweighted (goal: under 1.20×)`,
+      });
+    });
   } else if (kind === 'full') {
     const cpu = process.cpuUsage();
     const start = performance.now();
@@ -256,7 +293,7 @@ async function main(): Promise<void> {
   for (const scores of ['points', 'continuous'] as const) await ensureFile(scores, ROWS);
   if (full) await ensureFile('points', FULL_ROWS);
   const results: StageResult[] = [];
-  const stages = ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points'];
+  const stages = ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points', 'weights:points'];
   for (const stage of stages) {
     const result = child(stage);
     results.push(...result);

@@ -44,6 +44,12 @@ export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
     exposure: mapping.exposure ?? null,
   };
   if (mapping.weight) normal.weight = mapping.weight;
+  // Applicants without an outcome, in the order the CLI sets them (cli/compare.ts).
+  if (mapping.keepUnknown) {
+    normal.keepUnknown = true;
+    if (mapping.unknownValues && mapping.unknownValues.length > 0) normal.unknownValues = mapping.unknownValues;
+    if (mapping.inferredBad) normal.inferredBad = mapping.inferredBad;
+  }
   return normal;
 }
 

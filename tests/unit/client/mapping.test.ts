@@ -29,8 +29,19 @@ describe('the column-mapping form', () => {
       segments: ['product'],
       exposure: '',
       weight: '',
+      keepUnknown: false,
+      unknownValues: '',
+      inferredBad: '',
       dropMissing: false,
     });
+  });
+
+  it('keeps applicants without an outcome with their coded values and inferred-bad column', () => {
+    const values = { ...mappingFormDefaults(guess), weight: 'w', keepUnknown: true, unknownValues: ' R, reject ,, -1, R', inferredBad: 'bureau_pd' };
+    expect(toColumnMapping(values)).toMatchObject({ weight: 'w', keepUnknown: true, unknownValues: ['R', 'reject', '-1'], inferredBad: 'bureau_pd' });
+    // without the option the coded values and the column are not part of the mapping
+    expect(toColumnMapping({ ...values, keepUnknown: false })).not.toHaveProperty('keepUnknown');
+    expect(mappingFormDefaults(guess, toColumnMapping(values))).toMatchObject({ keepUnknown: true, unknownValues: 'R, reject, -1', inferredBad: 'bureau_pd' });
   });
 
   it('starts from an earlier mapping when there is one', () => {

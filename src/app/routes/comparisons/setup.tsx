@@ -2,7 +2,7 @@ import { type QueryClient } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
 import { type LoaderFunctionArgs, useNavigate, useParams } from 'react-router';
 import { type ValidationReport } from '@shared/comparisons';
-import { type ColumnMapping } from '@shared/report';
+import { type ColumnMapping, inferenceOf } from '@shared/report';
 import { paths } from '@/config/paths';
 import { errorMessage } from '@/lib/api-client';
 import { Button, ButtonLink } from '@/components/button';
@@ -106,8 +106,10 @@ export function Component() {
   const run = (values: SettingsFormValues) => {
     if (!mapping) return;
     setSettings(values);
+    // The reject inference is recorded only for mappings that keep applicants without an outcome.
+    const { rejectInference, ...rest } = values;
     setup.mutate(
-      { id, mapping, settings: { ...values, dropMissing: dropMissing ?? false } },
+      { id, mapping, settings: { ...rest, ...(mapping.keepUnknown ? { rejectInference } : {}), dropMissing: dropMissing ?? false } },
       { onSuccess: () => navigate(paths.comparisons.detail(id)) },
     );
   };
@@ -184,7 +186,20 @@ export function Component() {
               </div>
             ) : null}
             <AnalysisSettingsForm
-              initial={settings ?? (detail.settings ? { bootstrap: detail.settings.bootstrap, seed: detail.settings.seed, confidence: detail.settings.confidence, approvalRate: detail.settings.approvalRate } : settingsDefaults)}
+              initial={
+                settings ??
+                (detail.settings
+                  ? {
+                      bootstrap: detail.settings.bootstrap,
+                      seed: detail.settings.seed,
+                      confidence: detail.settings.confidence,
+                      approvalRate: detail.settings.approvalRate,
+                      rejectInference: inferenceOf(detail.settings),
+                    }
+                  : settingsDefaults)
+              }
+              withUnknown={mapping?.keepUnknown ?? false}
+              withInferredColumn={Boolean(mapping?.inferredBad)}
               onBack={() => setStep('check')}
               onSubmit={run}
               busy={setup.isPending}

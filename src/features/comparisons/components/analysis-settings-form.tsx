@@ -1,14 +1,16 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Controller, useForm } from 'react-hook-form';
-import { type AnalysisSettings, analysisSettingsSchema } from '@shared/report';
+import { Controller, useForm, useWatch } from 'react-hook-form';
+import { type AnalysisSettings, analysisSettingsSchema, defaultRejectInference, type RejectInference, rejectInferenceSchema } from '@shared/report';
 import { Button } from '@/components/button';
 import { Select } from '@/components/select';
 import { TextField } from '@/components/text-field';
 import { PercentField } from '@/components/percent-field';
 
 /** The settings asked for in the wizard; the rest keep the schema's defaults. */
-export const settingsFormSchema = analysisSettingsSchema.pick({ bootstrap: true, seed: true, confidence: true, approvalRate: true });
-export type SettingsFormValues = Pick<AnalysisSettings, 'bootstrap' | 'seed' | 'confidence' | 'approvalRate'>;
+export const settingsFormSchema = analysisSettingsSchema
+  .pick({ bootstrap: true, seed: true, confidence: true, approvalRate: true })
+  .extend({ rejectInference: rejectInferenceSchema.default(defaultRejectInference) });
+export type SettingsFormValues = Pick<AnalysisSettings, 'bootstrap' | 'seed' | 'confidence' | 'approvalRate'> & { rejectInference: RejectInference };
 
 export const settingsDefaults: SettingsFormValues = settingsFormSchema.parse({});
 
@@ -18,14 +20,25 @@ const messages: Record<string, string> = {
   seed: 'Enter a whole number from 0 to 2,147,483,647',
   confidence: 'Choose a confidence level',
   approvalRate: 'Enter a percentage above 0 and below 100',
+  rejectInference: 'Enter a parcel factor above 0 and at most 20',
 };
 const errorMap = (issue: { path?: PropertyKey[] }) => messages[String(issue.path?.[0])] ?? undefined;
+
+const inferenceOptions = [
+  { value: 'known-only', label: 'Known outcomes only, with the bounds beside them' },
+  { value: 'parcel', label: 'Parcelling by champion score band' },
+  { value: 'column', label: 'The inferred probability of bad column' },
+];
 
 const confidenceOptions = [0.9, 0.95, 0.99].map((value) => ({ value: String(value), label: `${Math.round(value * 100)}%` }));
 
 /** Step 5: bootstrap replicates, seed, confidence and the approval rate for the swap sets. */
-export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy }: {
+export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy, withUnknown = false, withInferredColumn = false }: {
   initial: SettingsFormValues;
+  /** The mapping keeps applicants without an outcome: ask how their bad rate is stated. */
+  withUnknown?: boolean;
+  /** The mapping has an inferred-bad column. */
+  withInferredColumn?: boolean;
   onBack: () => void;
   onSubmit: (values: SettingsFormValues) => void;
   busy?: boolean;
@@ -36,6 +49,7 @@ export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy }: {
     control,
     formState: { errors },
   } = useForm({ resolver: zodResolver(settingsFormSchema, { error: errorMap }), defaultValues: initial });
+  const inferenceMethod = useWatch({ control, name: 'rejectInference.method' });
 
   return (
     <form onSubmit={handleSubmit((values) => onSubmit(values as SettingsFormValues))} noValidate className="space-y-6">
@@ -95,6 +109,34 @@ export function AnalysisSettingsForm({ initial, onBack, onSubmit, busy }: {
           )}
         />
       </div>
+      {withUnknown ? (
+        <fieldset className="grid gap-5 md:grid-cols-2">
+          <legend className="mb-2 text-base font-semibold text-ink">Reject inference</legend>
+          <p className="text-sm text-ink-soft md:col-span-2">
+            The swap-in is mostly applicants the champion declined, whose outcome is not known. Choose how their bad rate is stated; the
+            choice is recorded with the report and named beside every figure it touches. The bounds (every unknown applicant good, every one
+            bad) are always shown.
+          </p>
+          <Select
+            label="How to state the unknown applicants' bad rate"
+            options={withInferredColumn ? inferenceOptions : inferenceOptions.filter((option) => option.value !== 'column')}
+            {...register('rejectInference.method')}
+          />
+          {inferenceMethod === 'parcel' ? (
+            <TextField
+              label="Parcel factor"
+              type="number"
+              inputMode="decimal"
+              min={0.1}
+              max={20}
+              step={0.1}
+              hint="An unknown applicant in a champion score band counts this many times the band's known bad rate (at most 1). 1 assumes declined applicants are as risky as accepted ones of the same band; 2 to 4 is usual."
+              error={errors.rejectInference?.parcelFactor?.message ?? errors.rejectInference?.message}
+              {...register('rejectInference.parcelFactor', { valueAsNumber: true })}
+            />
+          ) : null}
+        </fieldset>
+      ) : null}
       <div className="flex flex-wrap gap-2 border-t border-line pt-4">
         <Button onClick={onBack} disabled={busy}>
           Back to the check

@@ -9,6 +9,7 @@ import { Checkbox, CheckboxGroup } from '@/components/checkbox';
 import { ModelTag } from '@/components/model-tag';
 import { Radio, RadioGroup } from '@/components/radio-group';
 import { Select } from '@/components/select';
+import { TextField } from '@/components/text-field';
 import {
   type MappingFormValues,
   columnOptionLabel,
@@ -65,9 +66,12 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
     if (values.challenger) roles[values.challenger] = 'Challenger';
     if (values.id) roles[values.id] = 'Account id';
     if (values.exposure) roles[values.exposure] = 'Exposure';
+    if (values.weight) roles[values.weight] = 'Weight';
+    if (values.keepUnknown && values.inferredBad) roles[values.inferredBad] = 'Inferred bad';
     for (const segment of values.segments ?? []) if (segment) roles[segment] = 'Segment';
     onRolesChange(roles);
-  }, [values.outcome, values.champion, values.challenger, values.id, values.exposure, values.segments, onRolesChange]);
+  }, [values.outcome, values.champion, values.challenger, values.id, values.exposure, values.weight, values.keepUnknown, values.inferredBad, values.segments, onRolesChange]);
+  const numericOptions = columnOptions.filter((option) => holdout.columns.find((column) => column.name === option.value)?.kind === 'numeric');
 
   const submit = handleSubmit((form) => onSubmit(toColumnMapping(form), form.dropMissing));
 
@@ -93,7 +97,15 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
       <fieldset className="grid gap-4 md:grid-cols-2">
         <legend className="mb-2 text-base font-semibold text-ink">Optional columns</legend>
         <Select label="Account id" optional hint="Names accounts in the swap-list export and finds duplicates." error={errors.id?.message} options={[none, ...columnOptions]} {...register('id')} />
-        <Select label="Exposure or amount" optional hint="Summed in the swap sets (e.g. the loan amount)." error={errors.exposure?.message} options={[none, ...columnOptions.filter((option) => holdout.columns.find((column) => column.name === option.value)?.kind === 'numeric')]} {...register('exposure')} />
+        <Select label="Exposure or amount" optional hint="Summed in the swap sets (e.g. the loan amount)." error={errors.exposure?.message} options={[none, ...numericOptions]} {...register('exposure')} />
+        <Select
+          label="Sampling weight"
+          optional
+          hint="How many applicants each row stands for (e.g. 4 when goods were sampled one in four). Every row needs a positive number."
+          error={errors.weight?.message}
+          options={[none, ...numericOptions]}
+          {...register('weight')}
+        />
         <CheckboxGroup
           legend="Segments"
           hint={segmentCandidates.length > 0 ? 'Both models are compared within each value of these columns (with a Holm adjustment).' : 'No column has few enough distinct values to be a segment.'}
@@ -112,6 +124,35 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
           hint="Otherwise an empty score stops the check with its row and column. Rows left out are counted in the report."
           {...register('dropMissing')}
         />
+      </fieldset>
+
+      <fieldset className="grid gap-4 md:grid-cols-2">
+        <legend className="mb-2 text-base font-semibold text-ink">Applicants without an outcome</legend>
+        <Checkbox
+          className="md:col-span-2"
+          label="Keep applicants without an outcome"
+          hint="For a through-the-door sample: applicants the champion declined were never booked, so they have no outcome. They count in approval rates, cut-offs and swap sets; AUC, KS and bad rates use the rows with an outcome. Without this, an empty outcome stops the check with its row and column."
+          {...register('keepUnknown')}
+        />
+        {values.keepUnknown ? (
+          <>
+            <TextField
+              label="Values that also mean no outcome"
+              optional
+              hint="Separated by commas, e.g. R, reject, -1. An empty outcome always means no outcome."
+              error={errors.unknownValues?.message}
+              {...register('unknownValues')}
+            />
+            <Select
+              label="Inferred probability of bad"
+              optional
+              hint="A column with each unknown applicant's probability of bad, 0 to 1 (e.g. from bureau performance at other lenders). Needed on every row without an outcome; used by reject inference by column."
+              error={errors.inferredBad?.message}
+              options={[none, ...numericOptions]}
+              {...register('inferredBad')}
+            />
+          </>
+        ) : null}
       </fieldset>
 
       <div className="flex flex-wrap gap-2 border-t border-line pt-4">

@@ -19,6 +19,12 @@ export const mappingFormSchema = z
     segments: z.array(z.string()),
     exposure: z.string(),
     weight: z.string(),
+    /** Keep applicants without an outcome (blank, or one of the coded values). */
+    keepUnknown: z.boolean(),
+    /** Coded values meaning "no outcome", comma-separated as typed (e.g. "R, reject"). */
+    unknownValues: z.string().max(400),
+    /** Column with each unknown applicant's probability of bad ("" for none). */
+    inferredBad: z.string(),
     /** Leave out rows with an empty score (counted in the report) instead of stopping. */
     dropMissing: z.boolean(),
   })
@@ -31,6 +37,7 @@ export const mappingFormSchema = z
       ['id', 'the account id'],
       ['exposure', 'the exposure'],
       ['weight', 'the weight'],
+      ['inferredBad', 'the inferred probability of bad'],
     ];
     for (const [field, label] of roles) {
       const column = value[field];
@@ -60,6 +67,9 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
       segments: previous.segments ?? [],
       exposure: previous.exposure ?? '',
       weight: previous.weight ?? '',
+      keepUnknown: previous.keepUnknown ?? false,
+      unknownValues: (previous.unknownValues ?? []).join(', '),
+      inferredBad: previous.inferredBad ?? '',
       dropMissing,
     };
   }
@@ -73,8 +83,16 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
     segments: guess.segments,
     exposure: guess.exposure ?? '',
     weight: '',
+    keepUnknown: false,
+    unknownValues: '',
+    inferredBad: '',
     dropMissing,
   };
+}
+
+/** "R, reject ,-1" → ["R", "reject", "-1"]: the coded values meaning no outcome. */
+export function parseUnknownValues(text: string): string[] {
+  return [...new Set(text.split(',').map((value) => value.trim()).filter((value) => value.length > 0))];
 }
 
 /** The shared ColumnMapping the API takes (checked against the shared schema). */
@@ -89,6 +107,9 @@ export function toColumnMapping(values: MappingFormValues): ColumnMapping {
     segments: values.segments,
     exposure: values.exposure || null,
     weight: values.weight || null,
+    ...(values.keepUnknown
+      ? { keepUnknown: true, unknownValues: parseUnknownValues(values.unknownValues), inferredBad: values.inferredBad || null }
+      : {}),
   });
 }
 

@@ -7,6 +7,7 @@ import { Section } from '@/components/card';
 import { DataTable } from '@/components/data-table';
 import { ModelTag } from '@/components/model-tag';
 import { Stat, StatGroup } from '@/components/stat';
+import { UnknownOutcomesView } from './unknown-outcomes-view';
 
 type Missing = { column: string; role: string; missing: number };
 const missingColumn = createColumnHelper<Missing>();
@@ -25,6 +26,8 @@ function roleOf(report: Report, name: string): string {
   if (name === mapping.challenger) return 'Challenger score';
   if (name === mapping.id) return 'Account id';
   if (name === mapping.exposure) return 'Exposure';
+  if (name === mapping.weight) return 'Sampling weight';
+  if (name === mapping.inferredBad) return 'Inferred probability of bad';
   if (mapping.segments?.includes(name)) return 'Segment';
   return '—';
 }
@@ -41,6 +44,7 @@ export function DataQualityView({ report, comparison }: { report: Report; compar
           <p>{warning}</p>
         </Callout>
       ))}
+      <UnknownOutcomesView report={report} />
       <Section title="The file">
         <dl className="grid gap-x-6 gap-y-3 text-sm sm:grid-cols-2">
           <div>

@@ -1,5 +1,5 @@
 import { type ReactNode } from 'react';
-import { type SwapCell, type SwapSets } from '@shared/report';
+import { fullSwapCell, type SwapCell, type SwapSets } from '@shared/report';
 import { cn } from '@/lib/cn';
 import { formatCount, formatInterval, formatMoney, formatPercent } from '@/lib/format';
 import { ModelTag } from '@/components/model-tag';
@@ -14,8 +14,14 @@ const cellWords: Record<CellKey, { name: string; meaning: string }> = {
   bothReject: { name: 'Both decline', meaning: 'declined either way' },
 };
 
+const inferenceWords = { parcel: 'parcelling', column: 'the inferred-bad column' } as const;
+
 function Cell({ cellKey, cell, confidence, hasAmount, highlight }: { cellKey: CellKey; cell: SwapCell; confidence: string; hasAmount: boolean; highlight?: boolean }) {
   const words = cellWords[cellKey];
+  const full = fullSwapCell(cell);
+  // Applicants without an outcome: their bad rate is not observed; say so, give the bounds and
+  // any inferred rate as an assumption, never in the place of the observed one.
+  const unknown = full.unknown > 0;
   return (
     <td className={cn('border border-line px-3 py-3 align-top', highlight ? 'bg-court-50' : 'bg-paper-raised')} data-cell={cellKey}>
       <p className="text-sm font-semibold text-ink">{words.name}</p>
@@ -23,18 +29,46 @@ function Cell({ cellKey, cell, confidence, hasAmount, highlight }: { cellKey: Ce
       <dl className="num grid grid-cols-[auto_1fr] gap-x-3 gap-y-0.5 text-sm">
         <dt className="text-ink-soft">Accounts</dt>
         <dd className="text-right font-semibold text-ink" data-testid={`${cellKey}-count`}>
-          {formatCount(cell.count)}
+          {formatCount(full.accounts)}
         </dd>
+        {cell.unknown !== undefined ? (
+          <>
+            <dt className="text-ink-soft">With an outcome</dt>
+            <dd className="text-right">{formatCount(full.known)}</dd>
+            <dt className="text-ink-soft">Without an outcome</dt>
+            <dd className="text-right" data-testid={`${cellKey}-unknown`}>
+              {formatCount(full.unknown)}
+            </dd>
+          </>
+        ) : null}
         <dt className="text-ink-soft">Share</dt>
         <dd className="text-right">{formatPercent(cell.share)}</dd>
         <dt className="text-ink-soft">Bads</dt>
         <dd className="text-right">{formatCount(cell.bads)}</dd>
-        <dt className="text-ink-soft">Bad rate</dt>
+        <dt className="text-ink-soft">{unknown ? 'Bad rate, known outcomes' : 'Bad rate'}</dt>
         <dd className="text-right font-semibold text-ink" data-testid={`${cellKey}-bad-rate`}>
           {formatPercent(cell.badRate)}
         </dd>
         <dt className="text-ink-soft">{confidence} interval</dt>
         <dd className="text-right text-ink-soft">{formatInterval(cell.badRateCi, (value) => formatPercent(value))}</dd>
+        {unknown ? (
+          <>
+            <dt className="text-ink-soft" title="Every applicant without an outcome good, or every one bad">
+              All accounts, bounds
+            </dt>
+            <dd className="text-right" data-testid={`${cellKey}-bounds`}>
+              {formatInterval(full.badRateBounds, (value) => formatPercent(value))}
+            </dd>
+            {full.inferred ? (
+              <>
+                <dt className="text-ink-soft">Inferred ({inferenceWords[full.inferred.method]})</dt>
+                <dd className="text-right italic" data-testid={`${cellKey}-inferred`}>
+                  {formatPercent(full.inferred.badRate)}
+                </dd>
+              </>
+            ) : null}
+          </>
+        ) : null}
         {hasAmount ? (
           <>
             <dt className="text-ink-soft">Amount</dt>
@@ -42,6 +76,14 @@ function Cell({ cellKey, cell, confidence, hasAmount, highlight }: { cellKey: Ce
           </>
         ) : null}
       </dl>
+      {unknown ? (
+        <p className="mt-2 text-xs text-ink-soft">
+          {formatCount(full.unknown)} of these applicants have no outcome (never booked).{' '}
+          {full.inferred
+            ? `The inferred rate assumes their bads from ${inferenceWords[full.inferred.method]}; it is not observed.`
+            : 'Their bad rate is not known: anywhere within the bounds.'}
+        </p>
+      ) : null}
     </td>
   );
 }

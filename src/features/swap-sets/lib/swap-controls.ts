@@ -1,5 +1,5 @@
 import { type SwapQuery } from '@shared/comparisons';
-import { type HigherIs, type SwapCell, type SwapSets } from '@shared/report';
+import { fullSwapCell, type HigherIs, type SwapCell, type SwapSets } from '@shared/report';
 
 /**
  * The swap-set controls' logic: slider ranges in each model's own units, the query kept in the
@@ -88,12 +88,16 @@ export function reportSwapQuery(swap: SwapSets): SwapQuery {
 // --- derived numbers ----------------------------------------------------------------------
 
 function combine(a: SwapCell, b: SwapCell) {
-  const count = a.count + b.count;
+  // Accounts (summed weights with a weight column); the bad rate is of those with a known outcome.
+  const x = fullSwapCell(a);
+  const y = fullSwapCell(b);
+  const count = x.accounts + y.accounts;
+  const known = x.known + y.known;
   const bads = a.bads + b.bads;
   return {
     count,
     bads,
-    badRate: count > 0 ? bads / count : null,
+    badRate: known > 0 ? bads / known : null,
     amount: a.amount === null || b.amount === null ? null : a.amount + b.amount,
     share: a.share + b.share,
   };
