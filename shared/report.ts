@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calibrationSchema, stabilitySchema } from './calibration';
 import { adoptionPolicySchema } from './policy';
 
 /**
@@ -314,7 +315,7 @@ export const verdictOutcomeSchema = z.enum(['supported', 'not-proven', 'champion
 export type VerdictOutcome = z.infer<typeof verdictOutcomeSchema>;
 
 export const criterionSchema = z.object({
-  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads']),
+  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads', 'calibration', 'psi', 'period-sign']),
   label: z.string(),
   met: z.boolean(),
   /** Plain-language reason with the numbers, e.g. "one-sided p = 0.0003 < α = 0.05". */
@@ -342,6 +343,12 @@ export const columnMappingSchema = z.object({
   segments: z.array(z.string().min(1)).optional(),
   exposure: z.string().min(1).nullable().optional(),
   weight: z.string().min(1).nullable().optional(),
+  /** The modeler confirms that a model's score is a probability of default (higher = riskier, 0 to 1): its calibration is computed. */
+  probabilityOfDefault: z.object({ champion: z.boolean(), challenger: z.boolean() }).optional(),
+  /** Rating grade columns: calibration by grade instead of by quantile band. */
+  grades: z.object({ champion: z.string().min(1).nullable(), challenger: z.string().min(1).nullable() }).optional(),
+  /** Month or vintage column: stability by period. */
+  period: z.string().min(1).nullable().optional(),
 });
 export type ColumnMapping = z.infer<typeof columnMappingSchema>;
 
@@ -363,6 +370,8 @@ export const analysisSettingsSchema = z.object({
     })
     .nullable()
     .default(null),
+  /** A value of the period column whose accounts are the PSI's reference (when no reference file is given). */
+  referencePeriod: z.string().min(1).max(200).nullable().default(null),
 });
 export type AnalysisSettings = z.infer<typeof analysisSettingsSchema>;
 
@@ -390,5 +399,8 @@ export const reportSchema = z.object({
   curves: curvesSchema,
   economics: economicsSchema.nullable(),
   verdict: verdictSchema,
+  /** Optional: reports stored before engine 1.2 have neither. */
+  calibration: calibrationSchema.optional(),
+  stability: stabilitySchema.optional(),
 });
 export type Report = z.infer<typeof reportSchema>;

@@ -2,6 +2,8 @@ import { parseArgs } from 'node:util';
 import { swapInRiskier, type AnalysisSettings, type ColumnMapping, type HigherIs, type Report } from '@shared/report';
 import { HoldoutInputError } from '@server/reader/errors';
 import { loadHoldout } from '@server/reader/load';
+import { loadReference } from '@server/reader/load-reference';
+import { calibrationStabilityLines } from './calibration-text';
 import { buildReport } from '@server/stats/report';
 import { StatisticError } from '@server/stats/statistic-error';
 
@@ -30,6 +32,14 @@ Columns
   --exposure COL             exposure / amount column, summed in the swap sets
   --id COL                   account id column
   --drop-missing             leave out (and count) rows with an empty score instead of stopping
+  --pd champion|challenger   that model's score is a probability of default (higher = riskier,
+                             0 to 1): its calibration is computed (repeatable)
+  --grade-champion COL       rating grade column of the champion (calibration by grade)
+  --grade-challenger COL     rating grade column of the challenger
+  --period COL               month or vintage column: Gini, KS and ΔGini by period
+  --reference FILE           the development sample (the same score columns, no outcome needed):
+                             PSI of each model's score against the holdout
+  --reference-period V       or: the accounts of period V are the PSI's reference
 
 Analysis
   --bootstrap B              bootstrap replicates, 0 to skip (default: 2000)
@@ -73,6 +83,12 @@ const options = {
   exposure: { type: 'string' },
   id: { type: 'string' },
   'drop-missing': { type: 'boolean' },
+  pd: { type: 'string', multiple: true },
+  'grade-champion': { type: 'string' },
+  'grade-challenger': { type: 'string' },
+  period: { type: 'string' },
+  reference: { type: 'string' },
+  'reference-period': { type: 'string' },
   json: { type: 'boolean' },
   help: { type: 'boolean', short: 'h' },
 } as const;
@@ -84,6 +100,8 @@ export interface CompareCommand {
   dropMissing: boolean;
   mapping: ColumnMapping;
   settings: Partial<AnalysisSettings>;
+  /** The development sample's file, for the PSI; null without one. */
+  reference: string | null;
 }
 
 function orientation(value: string | undefined, fallback: HigherIs, flag: string): HigherIs {
@@ -122,7 +140,7 @@ export function parseCommand(argv: string[]): CompareCommand {
   }
   const { values, positionals } = parsed;
   if (values.help) {
-    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {} };
+    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {}, reference: null };
   }
   if (positionals.length !== 1) {
     throw new UsageError(positionals.length === 0 ? 'give the holdout CSV file (see --help)' : `give one holdout file, got ${positionals.length}: ${positionals.join(', ')}`);
@@ -141,6 +159,18 @@ export function parseCommand(argv: string[]): CompareCommand {
     segments: values.segment ?? [],
     exposure: values.exposure ?? null,
   };
+  // Calibration and stability columns, only when given (the mapping stays the CLI's earlier form otherwise).
+  const pdModels = values.pd ?? [];
+  for (const model of pdModels) {
+    if (model !== 'champion' && model !== 'challenger') throw new UsageError(`--pd must be "champion" or "challenger", got "${model}"`);
+  }
+  if (pdModels.length > 0) mapping.probabilityOfDefault = { champion: pdModels.includes('champion'), challenger: pdModels.includes('challenger') };
+  if (values['grade-champion'] !== undefined || values['grade-challenger'] !== undefined) {
+    mapping.grades = { champion: values['grade-champion'] ?? null, challenger: values['grade-challenger'] ?? null };
+  }
+  if (values.period !== undefined) mapping.period = values.period;
+  if (values.reference !== undefined && values['reference-period'] !== undefined) throw new UsageError('give --reference or --reference-period, not both');
+  if (values['reference-period'] !== undefined && values.period === undefined) throw new UsageError('--reference-period needs --period');
   for (const [flag, value] of Object.entries({ '--outcome': mapping.outcome, '--bad-value': mapping.badValue, '--champion': mapping.champion, '--challenger': mapping.challenger })) {
     if (value.trim() === '') throw new UsageError(`${flag} must not be empty`);
   }
@@ -163,7 +193,8 @@ export function parseCommand(argv: string[]): CompareCommand {
     settings.cutoffs = { champion: cutoffChampion, challenger: cutoffChallenger };
   }
   settings.dropMissing = values['drop-missing'] ?? false;
-  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings };
+  if (values['reference-period'] !== undefined) settings.referencePeriod = values['reference-period'];
+  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings, reference: values.reference ?? null };
 }
 
 // --- the readable summary ------------------------------------------------------------------
@@ -255,6 +286,7 @@ export function summary(report: Report): string {
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
+  lines.push(...calibrationStabilityLines(report.calibration, report.stability));
   if (report.dataQuality.warnings.length > 0) {
     lines.push('');
     lines.push('Data quality');
@@ -295,6 +327,7 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
   const { file } = command;
   try {
     const loaded = await loadHoldout({ path: file }, command.mapping, { dropMissing: command.dropMissing });
+    const reference = command.reference === null ? null : await loadReference({ path: command.reference }, command.mapping, { dropMissing: command.dropMissing });
     let shown = -1;
     const report = await buildReport({
       holdout: loaded.holdout,
@@ -302,6 +335,7 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
       mapping: command.mapping,
       settings: command.settings,
       read: loaded.read,
+      reference,
       onProgress: io.progress
         ? ({ fraction, stage }) => {
             const percent = Math.floor(fraction * 100);

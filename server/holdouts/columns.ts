@@ -14,6 +14,9 @@ import type { Holdout as EngineHoldout } from '../stats/holdout';
  *   exposure            Float64  when mapped
  *   segment.<i>         Uint32   codes into RunInput.segments[i].levels
  *   ids                 UTF-8    account ids joined by NUL (the reader never lets NUL through)
+ *   grade.<model>       Uint32   codes into RunInput.grades[model].levels, when mapped
+ *   period              Uint32   codes into RunInput.period.levels, when mapped
+ *   reference.<model>   Float64  the PSI's reference sample's scores, when one was chosen
  *   order.<model>       Uint32   accounts riskiest first (safety ascending), written when the
  *                                run is done, so that preparing swap sets skips the sort
  */
@@ -51,6 +54,9 @@ export function encodeHoldout(holdout: EngineHoldout): EncodedColumn[] {
   if (holdout.exposure) columns.push({ name: 'exposure', data: bytesOf(holdout.exposure) });
   holdout.segments.forEach((segment, index) => columns.push({ name: `segment.${index}`, data: bytesOf(segment.codes) }));
   if (holdout.ids) columns.push({ name: 'ids', data: Buffer.from(holdout.ids.join('\0'), 'utf8') });
+  if (holdout.grades?.champion) columns.push({ name: 'grade.champion', data: bytesOf(holdout.grades.champion.codes) });
+  if (holdout.grades?.challenger) columns.push({ name: 'grade.challenger', data: bytesOf(holdout.grades.challenger.codes) });
+  if (holdout.period) columns.push({ name: 'period', data: bytesOf(holdout.period.codes) });
   return columns;
 }
 
@@ -66,7 +72,13 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
     if (!bytes) throw new Error(`stored column ${name} is missing`);
     return bytes;
   };
+  const categorical = (stored: { column: string; levels: string[] } | null | undefined, name: string) =>
+    stored ? { column: stored.column, levels: stored.levels, codes: viewAs(Uint32Array, get(name), n, name) } : null;
+  const extras: Pick<EngineHoldout, 'grades' | 'period'> = {};
+  if (input.grades) extras.grades = { champion: categorical(input.grades.champion, 'grade.champion'), challenger: categorical(input.grades.challenger, 'grade.challenger') };
+  if (input.period) extras.period = categorical(input.period, 'period');
   return {
+    ...extras,
     n,
     bad: viewAs(Uint8Array, get('bad'), n, 'bad'),
     champion: viewAs(Float64Array, get('champion'), n, 'champion'),
@@ -97,4 +109,22 @@ export function decodeOrders(n: number, stored: ReadonlyMap<string, Uint8Array>)
     champion: viewAs(Uint32Array, champion, n, orderColumn('champion')),
     challenger: viewAs(Uint32Array, challenger, n, orderColumn('challenger')),
   };
+}
+
+/** The PSI's reference sample's scores, when the run has them. */
+export function decodeReference(input: RunInput, stored: ReadonlyMap<string, Uint8Array>): { champion: Float64Array; challenger: Float64Array } | null {
+  if (!input.reference) return null;
+  const get = (name: string): Float64Array => {
+    const bytes = stored.get(name);
+    if (!bytes) throw new Error(`stored column ${name} is missing`);
+    return viewAs(Float64Array, bytes, input.reference!.rows, name);
+  };
+  return { champion: get('reference.champion'), challenger: get('reference.challenger') };
+}
+
+export function encodeReference(scores: { champion: Float64Array; challenger: Float64Array }): EncodedColumn[] {
+  return [
+    { name: 'reference.champion', data: bytesOf(scores.champion) },
+    { name: 'reference.challenger', data: bytesOf(scores.challenger) },
+  ];
 }

@@ -86,6 +86,9 @@ async function mapStored(task: Extract<ReaderTask, { task: 'map' }>): Promise<Ma
     hasExposure: holdout.exposure !== null,
     segments: holdout.segments.map((segment) => ({ column: segment.column, levels: segment.levels })),
   };
+  const levels = (column: { column: string; levels: string[] } | null) => (column === null ? null : { column: column.column, levels: column.levels });
+  if (holdout.grades) input.grades = { champion: levels(holdout.grades.champion), challenger: levels(holdout.grades.challenger) };
+  if (holdout.period) input.period = levels(holdout.period);
   return { input, columns: encodeHoldout(holdout) };
 }
 

@@ -24,7 +24,9 @@ export type HoldoutInputCode =
   | 'bad_outcome'
   | 'single_class'
   | 'missing_value'
-  | 'unsupported_weight';
+  | 'unsupported_weight'
+  | 'pd_orientation'
+  | 'not_a_probability';
 
 export class HoldoutInputError extends Error {
   override name = 'HoldoutInputError';

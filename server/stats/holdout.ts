@@ -18,6 +18,10 @@ export interface Holdout {
   ids: string[] | null;
   /** Categorical columns: the distinct values and each account's index into them. */
   segments: SegmentColumn[];
+  /** Rating grade column of each model (calibration by grade), when mapped. */
+  grades?: { champion: SegmentColumn | null; challenger: SegmentColumn | null };
+  /** Month or vintage column (stability by period), when mapped. */
+  period?: SegmentColumn | null;
 }
 
 export interface SegmentColumn {

@@ -127,23 +127,13 @@ function prepareModel(
   ends[blocks++] = n;
   const blockEnds = ends.slice(0, blocks);
 
-  // Band rule (see the header): each block goes wholly to the band its middle falls in.
+  const bandEnds = bandEndsOf(blockEnds, n, bands);
   const band = new Uint8Array(n);
-  const bandEndList: number[] = [];
-  let current = -1;
   let start = 0;
-  for (let b = 0; b < blocks; b++) {
-    const end = blockEnds[b];
-    const ideal = Math.floor(((start + end) * bands) / (2 * n));
-    if (ideal !== current) {
-      if (current >= 0) bandEndList.push(start);
-      current = ideal;
-    }
-    const index = bandEndList.length;
-    for (let k = start; k < end; k++) band[order[k]] = index;
-    start = end;
+  for (let b = 0; b < bandEnds.length; b++) {
+    for (let k = start; k < bandEnds[b]; k++) band[order[k]] = b;
+    start = bandEnds[b];
   }
-  bandEndList.push(n);
 
   return {
     name,
@@ -155,8 +145,30 @@ function prepareModel(
     badsBefore,
     blockEnds,
     band,
-    bandEnds: Uint32Array.from(bandEndList),
+    bandEnds,
   };
+}
+
+/**
+ * The band rule of the header on sorted positions: given the exclusive ends of the blocks of
+ * equal scores (ascending, the last is n), the exclusive end of each band. Also used for the
+ * PSI's reference bands (psi.ts).
+ */
+export function bandEndsOf(blockEnds: Uint32Array, n: number, bands: number): Uint32Array {
+  const ends: number[] = [];
+  let current = -1;
+  let start = 0;
+  for (let b = 0; b < blockEnds.length; b++) {
+    const end = blockEnds[b];
+    const ideal = Math.floor(((start + end) * bands) / (2 * n));
+    if (ideal !== current) {
+      if (current >= 0) ends.push(start);
+      current = ideal;
+    }
+    start = end;
+  }
+  ends.push(n);
+  return Uint32Array.from(ends);
 }
 
 /** Score range of the accounts at sorted positions [start, end), in the model's own units. */

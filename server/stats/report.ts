@@ -10,6 +10,7 @@ import {
 } from '@shared/report';
 import { bandTable } from './bands';
 import { bootstrap } from './bootstrap';
+import { calibrationSection, type ReferenceSample, stabilitySection } from './calibration-stability';
 import { curves } from './curves';
 import { dataQuality } from './data-quality';
 import { pairedDelong } from './delong';
@@ -34,11 +35,11 @@ import { verdict } from './verdict';
  * delong.ts, ks.ts) → the bootstrap (bootstrap.ts, most of the time) → swap sets, swap matrix,
  * strategy curve, band tables, curves, economics and data quality on data prepared from the same
  * orders (policy-data.ts and its consumers) → segments (segments.ts) → the verdict under the
- * adoption policy (verdict.ts). Cost: O(n log n) + O(replicates · cells).
+ * adoption policy (verdict.ts), after calibration and stability (calibration-stability.ts). Cost: O(n log n) + O(replicates · cells).
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
-export const engineVersion = '1.1.0';
+export const engineVersion = '1.2.0';
 
 export interface AnalysisProgress {
   /** 0 to 1. */
@@ -60,6 +61,8 @@ export interface BuildReportInput {
   onProgress?: (progress: AnalysisProgress) => void;
   /** Bootstrap threads (see bootstrap.ts); default one per core for large jobs. */
   threads?: number;
+  /** The development sample's scores, for the PSI (calibration-stability.ts); null or absent: none. */
+  reference?: ReferenceSample | null;
 }
 
 const count = (value: number) => value.toLocaleString('en-US');
@@ -171,6 +174,21 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     economics: profit,
     verdict: { outcome: 'not-proven', policyVersion: policy.version, criteria: [], summary: '' },
   };
+  // Sampling weights reach the engine with the holdout's weight column (not read yet: null).
+  const weights: Float64Array | null = null;
+  const sectionInput = {
+    holdout,
+    data,
+    settings,
+    policy,
+    pd: { champion: mapping.probabilityOfDefault?.champion === true, challenger: mapping.probabilityOfDefault?.challenger === true },
+    columns: { champion: mapping.champion, challenger: mapping.challenger },
+    weights,
+    overallDeltaGini: difference.gini,
+    reference: request.reference ?? null,
+  };
+  result.calibration = calibrationSection(sectionInput);
+  result.stability = stabilitySection(sectionInput);
   result.verdict = verdict(result, policy, swapAtPolicyRate);
   report(1, 'Done');
   return result;

@@ -1,6 +1,7 @@
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
+import { stabilityCriteria } from './verdict-stability';
 
 /**
  * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
@@ -20,7 +21,7 @@ import { normalCdf } from './normal';
  * Cost: O(1).
  */
 
-export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'>;
+export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'> & Partial<Pick<Report, 'calibration' | 'stability'>>;
 
 export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null): Verdict {
   const { difference } = report;
@@ -89,6 +90,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
         ? `${count(report.bads)} bads in the holdout, at least the ${count(policy.minBads)} required`
         : `only ${count(report.bads)} bads in the holdout; the policy requires at least ${count(policy.minBads)}`,
   });
+  criteria.push(...stabilityCriteria(report, policy));
 
   const significantlyWorse =
     policy.sided === 'one-sided'

@@ -31,6 +31,12 @@ export interface RunInput {
   hasExposure: boolean;
   /** Segment columns in mapping order, with their values (the stored codes index into them). */
   segments: { column: string; levels: string[] }[];
+  /** Grade columns (stored as `grade.champion` / `grade.challenger` codes), when mapped. */
+  grades?: { champion: { column: string; levels: string[] } | null; challenger: { column: string; levels: string[] } | null };
+  /** Period column (stored as `period` codes), when mapped. */
+  period?: { column: string; levels: string[] } | null;
+  /** The PSI's reference sample (stored as `reference.champion` / `reference.challenger`), when one was chosen. */
+  reference?: { holdoutId: number; fileName: string; sha256: string; rows: number } | null;
 }
 
 /**
