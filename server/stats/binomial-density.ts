@@ -28,7 +28,7 @@ function bd0(x: number, np: number): number {
   return x * Math.log(x / np) + np - x;
 }
 
-const LN_2PI = 1.8378770664093453;
+const LN_2PI = 1.8378770664093456;
 
 export function binomialDensity(x: number, n: number, p: number, q: number): number {
   if (!(p >= 0 && p <= 1 && q >= 0 && q <= 1)) throw new RangeError(`binomialDensity requires 0 ≤ p, q ≤ 1, got ${p}, ${q}`);
