@@ -69,6 +69,15 @@ export class AnalysisRun {
   @JoinColumn({ name: 'holdoutId' })
   holdout: Holdout;
 
+  /**
+   * The PSI's reference sample (a second uploaded holdout), when the set-up chose one. A plain
+   * column, added by ALTER TABLE (a foreign key would need the table rebuilt); holdouts have no
+   * delete path, and its uploader counts among the comparison's authors (authors.ts).
+   */
+  @Index()
+  @Column({ type: 'integer', nullable: true })
+  referenceHoldoutId: number | null;
+
   @Column({ type: 'text' })
   status: RunStatus;
 
