@@ -86,13 +86,21 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
       </fieldset>
 
       <div className="grid gap-6 md:grid-cols-2">
-        <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} />
-        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} />
+        <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} pdError={errors.pd?.champion?.message} gradeError={errors.grades?.champion?.message} />
+        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} pdError={errors.pd?.challenger?.message} gradeError={errors.grades?.challenger?.message} />
       </div>
 
       <fieldset className="grid gap-4 md:grid-cols-2">
         <legend className="mb-2 text-base font-semibold text-ink">Optional columns</legend>
         <Select label="Account id" optional hint="Names accounts in the swap-list export and finds duplicates." error={errors.id?.message} options={[none, ...columnOptions]} {...register('id')} />
+        <Select
+          label="Month or vintage"
+          optional
+          hint="Both models and the uplift by period, on the Stability tab."
+          error={errors.period?.message}
+          options={[none, ...columnOptions]}
+          {...register('period')}
+        />
         <Select label="Exposure or amount" optional hint="Summed in the swap sets (e.g. the loan amount)." error={errors.exposure?.message} options={[none, ...columnOptions.filter((option) => holdout.columns.find((column) => column.name === option.value)?.kind === 'numeric')]} {...register('exposure')} />
         <CheckboxGroup
           legend="Segments"
@@ -130,6 +138,8 @@ function ScoreFields({
   values,
   error,
   columnOptions,
+  pdError,
+  gradeError,
 }: {
   model: 'champion' | 'challenger';
   holdout: HoldoutInfo;
@@ -137,6 +147,8 @@ function ScoreFields({
   values: DeepPartial<MappingFormValues>;
   error?: string;
   columnOptions: { value: string; label: string }[];
+  pdError?: string;
+  gradeError?: string;
 }) {
   const column = values[model];
   const chosen = values.higherIs?.[model];
@@ -162,6 +174,13 @@ function ScoreFields({
         <Radio value="safer" label="Higher is safer" hint="points" {...register(`higherIs.${model}`)} />
         <Radio value="riskier" label="Higher is riskier" hint="a PD" {...register(`higherIs.${model}`)} />
       </RadioGroup>
+      <Checkbox
+        label="This score is a probability of default"
+        hint="Values from 0 to 1, higher = riskier: its calibration (Jeffreys test by band or grade) is computed."
+        error={pdError}
+        {...register(`pd.${model}`)}
+      />
+      <Select label="Rating grade column" optional hint="Calibration by grade instead of by band." error={gradeError} options={[{ value: '', label: 'None' }, ...columnOptions]} {...register(`grades.${model}`)} />
       {disagrees ? (
         <Callout tone="caution" title="The data point the other way">
           <p>
