@@ -79,7 +79,7 @@ export function stabilityCriteria(report: StabilityEvidence, policy: AdoptionPol
       if (counted.length === 0) {
         criteria.push({ ...base, met: false, detail: `no period of ${stability.periodColumn} has ${minBads} bads, so the uplift cannot be followed over time` });
       } else if (changed.length === 0) {
-        criteria.push({ ...base, met: true, detail: `ΔGini has the overall sign in all ${counted.length} periods with at least ${minBads} bads` });
+        criteria.push({ ...base, met: true, detail: `ΔGini has the overall sign in ${counted.length === 1 ? 'the one period' : `all ${counted.length} periods`} with at least ${minBads} bads` });
       } else {
         criteria.push({
           ...base,
