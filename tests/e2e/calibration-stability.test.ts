@@ -20,7 +20,8 @@ let pdId = 0;
 const outputDir = path.join(screenshotDir, 'calibration');
 
 beforeAll(async () => {
-  server = await startServer({ env: { DEMO_SCENARIO: 'true' }, timeoutMs: 180_000 });
+  // The first start analyses two 60,000-account holdouts before it listens: minutes on a loaded machine.
+  server = await startServer({ env: { DEMO_SCENARIO: 'true' }, timeoutMs: 420_000 });
   browser = await launchBrowser();
   const reader = new ApiSession(server.url);
   await reader.signIn('analyst@tallowmere.test');
@@ -28,7 +29,7 @@ beforeAll(async () => {
   pdId = body.items.find((item) => item.state === 'in-review')?.id ?? 0;
   expect(pdId, server.output().slice(-3000)).toBeGreaterThan(0);
   await mkdir(outputDir, { recursive: true });
-}, 240_000);
+}, 480_000);
 
 afterAll(async () => {
   await browser?.close();
