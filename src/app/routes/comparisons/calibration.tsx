@@ -44,7 +44,7 @@ export function Component() {
               <p className="text-sm text-ink-soft">
                 Brier score <span className="num font-medium text-ink">{formatNumber(brier.brier, 5)}</span> = reliability {formatNumber(brier.reliability, 5)} −
                 resolution {formatNumber(brier.resolution, 5)} + uncertainty {formatNumber(brier.uncertainty, 5)}
-                {Math.abs(brier.withinGroup) > 5e-6 ? ` + ${formatNumber(brier.withinGroup, 5)} from the PDs' spread within groups` : ''} (Murphy 1973). Lower
+                {Math.abs(brier.withinGroup) > 5e-6 ? ` ${brier.withinGroup < 0 ? '−' : '+'} ${formatNumber(Math.abs(brier.withinGroup), 5)} from the PDs' spread within groups` : ''} (Murphy 1973). Lower
                 reliability is better calibration; higher resolution, better separation.
               </p>
             </div>
