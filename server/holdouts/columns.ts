@@ -17,6 +17,11 @@ import type { Holdout as EngineHoldout } from '../stats/holdout';
  *   grade.<model>       Uint32   codes into RunInput.grades[model].levels, when mapped
  *   period              Uint32   codes into RunInput.period.levels, when mapped
  *   reference.<model>   Float64  the PSI's reference sample's scores, when one was chosen
+ *   weight              Float64  sampling weight per row, when mapped
+ *   known               Uint8    1 = outcome known, 0 = no outcome (bad is 0 there), when the
+ *                                holdout keeps applicants without an outcome and has some
+ *   inferredBad         Float64  probability of bad from the inferred-bad column (NaN where not
+ *                                given), when mapped and some row has no outcome
  *   order.<model>       Uint32   accounts riskiest first (safety ascending), written when the
  *                                run is done, so that preparing swap sets skips the sort
  */
@@ -57,6 +62,9 @@ export function encodeHoldout(holdout: EngineHoldout): EncodedColumn[] {
   if (holdout.grades?.champion) columns.push({ name: 'grade.champion', data: bytesOf(holdout.grades.champion.codes) });
   if (holdout.grades?.challenger) columns.push({ name: 'grade.challenger', data: bytesOf(holdout.grades.challenger.codes) });
   if (holdout.period) columns.push({ name: 'period', data: bytesOf(holdout.period.codes) });
+  if (holdout.weight) columns.push({ name: 'weight', data: bytesOf(holdout.weight) });
+  if (holdout.known) columns.push({ name: 'known', data: bytesOf(holdout.known) });
+  if (holdout.inferredBad) columns.push({ name: 'inferredBad', data: bytesOf(holdout.inferredBad) });
   return columns;
 }
 
@@ -77,8 +85,14 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
   const extras: Pick<EngineHoldout, 'grades' | 'period'> = {};
   if (input.grades) extras.grades = { champion: categorical(input.grades.champion, 'grade.champion'), challenger: categorical(input.grades.challenger, 'grade.challenger') };
   if (input.period) extras.period = categorical(input.period, 'period');
+  const weight = stored.get('weight');
+  const known = stored.get('known');
+  const inferredBad = stored.get('inferredBad');
   return {
     ...extras,
+    ...(weight ? { weight: viewAs(Float64Array, weight, n, 'weight') } : {}),
+    ...(known ? { known: viewAs(Uint8Array, known, n, 'known') } : {}),
+    ...(inferredBad ? { inferredBad: viewAs(Float64Array, inferredBad, n, 'inferredBad') } : {}),
     n,
     bad: viewAs(Uint8Array, get('bad'), n, 'bad'),
     champion: viewAs(Float64Array, get('champion'), n, 'champion'),

@@ -3,7 +3,7 @@ import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
-import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
+import { recordFinishedRun, recordUnstoredRun, type RunOutcome } from '../comparisons/run-finished';
 import { AnalysisRun } from '../db/entities/index';
 import { inTransaction, withWriteLock } from '../db/transaction';
 import { encodeOrder, orderColumn } from '../holdouts/columns';
@@ -210,13 +210,14 @@ export class JobRunner {
     const { log } = this.options;
     let worker: Worker;
     if (this.options.databasePath === ':memory:') {
-      this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
+      // settle() logs its own errors and is tracked in `settling` (stop() and whenIdle() wait for it).
+      void this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
       return;
     }
     try {
       worker = startWorker(this.workerPath, { workerData: job, resourceLimits: this.options.resourceLimits ?? defaultLimits });
     } catch (error) {
-      this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
+      void this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
       return;
     }
     let exitedResolve: () => void = () => {};
@@ -300,7 +301,11 @@ export class JobRunner {
       }
       // Workers end by themselves once their message is posted; make sure.
       if (active) void active.worker.terminate();
-    })().catch((error: unknown) => this.options.log.error(`analysis run ${runId}: could not store its result`, error));
+    })().catch(async (error: unknown) => {
+      this.options.log.error(`analysis run ${runId}: could not store its result`, error);
+      // Marked failed with the reason (comparisons/run-finished.ts), not left "running".
+      if (await recordUnstoredRun(this.options.dataSource, runId, error, this.finishContext())) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
+    });
     this.settling.add(work);
     void work.finally(() => {
       this.settling.delete(work);

@@ -24,6 +24,8 @@ export type HoldoutInputCode =
   | 'bad_outcome'
   | 'single_class'
   | 'missing_value'
+  | 'bad_weight'
+  | 'bad_probability'
   | 'unsupported_weight'
   | 'pd_orientation'
   | 'not_a_probability';

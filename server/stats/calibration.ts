@@ -3,7 +3,7 @@ import { binomialTestUpper } from './binomial-test';
 import { brierScore } from './brier';
 import { jeffreysTest } from './jeffreys';
 import { StatisticError } from './statistic-error';
-import { wilsonIntervalEffective } from './wilson-effective';
+import { wilsonEffective } from './wilson-effective';
 
 /**
  * Calibration of one model whose score is a probability of default, per group (the model's
@@ -75,7 +75,7 @@ function row(label: string, band: number | null, s: Sums, weighted: boolean, alp
     pdMin: s.pdMin,
     pdMax: s.pdMax,
     observedBadRate: rate,
-    observedBadRateCi: wilsonIntervalEffective(rate, effective, confidence, weighted ? null : { x: s.bads, n: s.accounts }),
+    observedBadRateCi: wilsonEffective(s.badWeight, s.weight, s.weightSquares, confidence),
     expectedBads: s.pd,
     observedBads: s.badWeight,
     jeffreysP,

@@ -1,7 +1,6 @@
 import type { HigherIs } from '@shared/report';
 import type { Psi } from '@shared/calibration';
 import { argsortAscending, safety } from './order';
-import { bandEndsOf } from './policy-data';
 import { psiCriticalValue } from './psi-critical-value';
 import { StatisticError } from './statistic-error';
 
@@ -53,7 +52,20 @@ export function psi(input: PsiInput): Psi {
     if (k > 0 && sorted[k] !== sorted[k - 1]) blockEndList.push(k);
   }
   blockEndList.push(m);
-  const bandEnds = bandEndsOf(Uint32Array.from(blockEndList), m, bands);
+  // The band rule of policy-data.ts (unweighted): each block of equal scores goes wholly to the band its middle falls in.
+  const endList: number[] = [];
+  let current = -1;
+  let blockStart = 0;
+  for (const end of blockEndList) {
+    const ideal = Math.floor(((blockStart + end) * bands) / (2 * m));
+    if (ideal !== current) {
+      if (current >= 0) endList.push(blockStart);
+      current = ideal;
+    }
+    blockStart = end;
+  }
+  endList.push(m);
+  const bandEnds = Uint32Array.from(endList);
   const count = bandEnds.length;
   if (count < 2) throw new StatisticError('psi requires a reference with at least two distinct scores');
   // Upper bound of each band in safety units; the last is open above.

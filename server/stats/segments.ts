@@ -2,7 +2,7 @@ import type { SegmentRow } from '@shared/report';
 import { pairedDelong } from './delong';
 import { levelOrder, type Holdout } from './holdout';
 import { holm } from './holm';
-import { blocksFromSorted, type ScoreBlocks } from './order';
+import { blocksFromSorted, type ScoreBlocks, weighBlocks } from './order';
 
 /**
  * The comparison within each value of each segment column: accounts, goods, bads, both Ginis,
@@ -12,6 +12,9 @@ import { blocksFromSorted, type ScoreBlocks } from './order';
  * A segment with fewer than TOO_FEW_BADS bads is flagged: its Gini moves a lot with a handful of
  * accounts (the threshold is a rule of thumb, no source). A segment with one class only has no
  * Gini; its row says why.
+ *
+ * Sampling weights (holdout.weight): each segment's Ginis and DeLong are the weighted ones
+ * (weighted-auc.ts, delong.ts); the engine passes the rows with a known outcome only.
  *
  * Cost: O(n) per segment column after the two whole-holdout sorts: each segment's blocks are the
  * whole holdout's blocks filtered, in one pass per model; then O(n) for DeLong.
@@ -72,6 +75,16 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
     for (let i = 0; i < holdout.n; i++) badByLevel[offsets[codes[i]] + levelAndLocal[2 * i + 1]] = bad[i];
     const champion = blocksByLevel(options.champion, levelAndLocal, offsets, levels);
     const challenger = blocksByLevel(options.challenger, levelAndLocal, offsets, levels);
+    const weight = holdout.weight ?? null;
+    if (weight !== null) {
+      const weightByLevel = new Float64Array(holdout.n);
+      for (let i = 0; i < holdout.n; i++) weightByLevel[offsets[codes[i]] + levelAndLocal[2 * i + 1]] = weight[i];
+      for (let level = 0; level < levels; level++) {
+        const local = weightByLevel.subarray(offsets[level], offsets[level + 1]);
+        champion[level] = weighBlocks(champion[level], local);
+        challenger[level] = weighBlocks(challenger[level], local);
+      }
+    }
 
     for (const level of levelOrder(column.levels)) {
       const n = size[level];

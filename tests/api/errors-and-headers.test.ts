@@ -23,6 +23,15 @@ describe('health', () => {
   });
 });
 
+describe('caching', () => {
+  it('marks every API answer no-store: successes, errors and unknown routes', async () => {
+    const client = await signedInAs(t.app, 'analyst');
+    for (const response of [await request(t.app).get('/api/health'), await client.get('/api/comparisons'), await request(t.app).get('/api/auth/me'), await request(t.app).get('/api/nothing')]) {
+      expect(response.headers['cache-control'], response.req.path).toBe('no-store');
+    }
+  });
+});
+
 describe('error shape', () => {
   it('answers an unknown API route with JSON 404, for GET and for mutations', async () => {
     const get = await request(t.app).get('/api/no-such-thing?x=1').expect(404);

@@ -1,8 +1,9 @@
 import { type AdoptionPolicy } from '@shared/policy';
+import { formatCount, formatShare } from '@/lib/format';
 
 /** Each rule of the adoption policy in words, for the summary and the version history. */
 export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: string; value: string }[] {
-  const percent = (fraction: number) => `${Number((fraction * 100).toFixed(1))}%`;
+  const percent = (fraction: number) => formatShare(fraction);
   return [
     { label: 'Significance', value: `${policy.sided === 'one-sided' ? 'One-sided' : 'Two-sided'} DeLong test of ΔGini at α = ${policy.alpha}` },
     { label: 'Materiality', value: `ΔGini of at least ${policy.materialityGiniPoints} Gini points` },
@@ -13,7 +14,7 @@ export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: s
         ? `Swap-in bad rate not above the swap-out bad rate at a ${percent(policy.swapRule.approvalRate)} approval rate`
         : 'Not checked',
     },
-    { label: 'Minimum bads', value: `At least ${policy.minBads.toLocaleString('en-US')} bads in the holdout` },
+    { label: 'Minimum bads', value: `At least ${formatCount(policy.minBads)} bads in the holdout` },
     // Calibration and stability criteria.
     {
       label: 'PD calibration',
@@ -22,7 +23,7 @@ export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: s
     { label: 'Population stability', value: policy.psiRule.enabled ? `The challenger's PSI against the reference sample below ${policy.psiRule.threshold}` : 'Not checked' },
     {
       label: 'Uplift over time',
-      value: policy.periodSignRule.enabled ? `ΔGini keeps its sign in every period with at least ${policy.periodSignRule.minBads.toLocaleString('en-US')} bads` : 'Not checked',
+      value: policy.periodSignRule.enabled ? `ΔGini keeps its sign in every period with at least ${formatCount(policy.periodSignRule.minBads)} bads` : 'Not checked',
     },
     { label: 'Quorum', value: policy.quorum > 0 ? `${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision` : 'None' },
   ];
