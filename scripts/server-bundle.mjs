@@ -16,7 +16,7 @@ export function workerEntries(dir) {
 
 /** The server's entry points: the server, the CLI, the benchmark and every worker thread. */
 export function serverEntryPoints() {
-  return ['server/index.ts', 'server/cli/compare.ts', 'bench/index.ts', ...workerEntries('server/jobs'), ...workerEntries('server/stats')];
+  return ['server/index.ts', 'server/cli/compare.ts', 'server/cli/create-admin.ts', 'bench/index.ts', ...workerEntries('server/jobs'), ...workerEntries('server/stats')];
 }
 
 /**
