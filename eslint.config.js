@@ -37,6 +37,11 @@ const engineZones = [
   },
   { target: './server/runtime.ts', from: './server', except: ['./runtime.ts'], message: 'server/runtime.ts uses Node built-ins only.' },
   { target: './server/mail', from: './server/stats', message: 'Mail wording formats numbers with shared/format.ts, not the engine.' },
+  {
+    target: ['./server/jobs/runner.ts', './server/jobs/handlers.ts'],
+    from: ['./server/comparisons', './server/governance', './server/policy', './server/notes', './server/holdouts', './server/users', './server/mail', './server/stats'],
+    message: 'The job queue knows jobs, not comparisons: what a run means comes in through its handlers (server/jobs/handlers.ts), wired in app.ts and index.ts.',
+  },
 ];
 
 const tsProjects = ['./shared/tsconfig.json', './server/tsconfig.json', './src/tsconfig.json', './tests/tsconfig.json', './tsconfig.node.json'];

@@ -13,6 +13,7 @@ import { JobRunner } from '../server/jobs/runner';
 import { createLogger } from '../server/log';
 import { Mailer } from '../server/mail/mailer';
 import { projectRoot } from '../server/runtime';
+import { analysisHandlers } from '../server/comparisons/analysis-handlers';
 
 const directory = mkdtempSync(join(tmpdir(), 'scorecourt-routes-'));
 try {
@@ -20,7 +21,7 @@ try {
   const log = createLogger('silent');
   const dataSource = await openDatabase(config.databasePath);
   const mailer = new Mailer(dataSource, nodemailer.createTransport({ jsonTransport: true }), { from: config.mailFrom, log, pollMs: 60_000 });
-  const jobs = new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: 1, log, mailer, publicUrl: config.publicUrl });
+  const jobs = new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: 1, log, handlers: analysisHandlers({ dataSource, mailer }) });
   const app = createApp({ config, dataSource, mailer, sessionSecret: 'x'.repeat(40), log, jobs, uploadDir: join(directory, 'uploads') });
   const routes = routeTable(app);
   writeFileSync(join(projectRoot, 'docs', 'routes.md'), routesMarkdown(routes));

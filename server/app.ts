@@ -17,6 +17,7 @@ import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
 import { holdoutRoutes } from './holdouts/router';
 import { governanceRoutes } from './governance/router';
+import { packRoutes } from './pack/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
@@ -30,6 +31,7 @@ import { noteRoutes } from './notes/router';
 import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
+import { analysisHandlers } from './comparisons/analysis-handlers';
 
 export interface AppDeps {
   config: Config;
@@ -62,6 +64,7 @@ function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>)
     ...holdoutRoutes(ctx),
     ...comparisonRoutes(ctx),
     ...governanceRoutes(ctx),
+    ...packRoutes(ctx),
     ...noteRoutes(ctx),
     ...policyRoutes(ctx),
     ...auditRoutes(ctx),
@@ -86,7 +89,13 @@ export function createApp(deps: AppDeps): Express {
   const ownJobs = deps.jobs === undefined;
   const jobs =
     deps.jobs ??
-    new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: config.analysisConcurrency, log, mailer, publicUrl: config.publicUrl });
+    new JobRunner({
+      dataSource,
+      databasePath: config.databasePath,
+      concurrency: config.analysisConcurrency,
+      log,
+      handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+    });
   if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
   const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir };
 

@@ -13,6 +13,7 @@ import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
 import { formatFixed } from '@shared/format';
+import { analysisHandlers } from './comparisons/analysis-handlers';
 
 /**
  * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
@@ -55,8 +56,7 @@ async function main(): Promise<void> {
     databasePath: config.databasePath,
     concurrency: config.analysisConcurrency,
     log,
-    mailer,
-    publicUrl: config.publicUrl,
+    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
   });
   await jobs.start();
 

@@ -46,7 +46,7 @@ export function submittedMail(input: Base & { submittedBy: string; message: stri
   };
 }
 
-export function validatedMail(input: Base & { reviewer: string; findings: string; quorum: number }): OutgoingMail {
+export function validatedMail(input: Base & { reviewer: string; findings: string; quorum: number; pack: string }): OutgoingMail {
   return {
     to: input.to,
     subject: `Validated, waiting for the committee: ${input.comparison}`,
@@ -63,6 +63,9 @@ export function validatedMail(input: Base & { reviewer: string; findings: string
         : 'The adoption policy sets no quorum of votes.',
       'Vote to adopt the challenger, keep the champion or defer, and record the decision here:',
       input.link,
+      '',
+      'The committee pack (PDF, with the charts; sign in to open it):',
+      input.pack,
       '',
       'The verdict only advises: statistical significance is not business approval, and a new model changes who is approved and declined.',
       '',

@@ -11,6 +11,8 @@ import { Decision, Review, VerdictRecord, Vote, type User } from '../db/entities
 import { inTransaction } from '../db/transaction';
 import { conflict } from '../errors';
 import type { OutgoingMail } from '../mail/mailer';
+import { archiveDecisionPack } from '../pack/service';
+import { packLink } from '../pack/links';
 import { currentPolicy } from '../policy/service';
 import { activeUsersWithRole } from '../users/service';
 import { comparisonLink } from './links';
@@ -117,7 +119,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
         ctx,
         manager,
         committee.map((person) =>
-          validatedMail({ to: person.email, name: person.name, comparison: comparison.name, link, reviewer: actor.name, findings: input.findings, quorum }),
+          validatedMail({ to: person.email, name: person.name, comparison: comparison.name, link, reviewer: actor.name, findings: input.findings, quorum, pack: packLink(ctx.config.publicUrl, id) }),
         ),
       );
     } else {
@@ -221,6 +223,8 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         votes: tally,
       },
     });
+    // The pack as decided, kept with the decision; its SHA-256 goes in the audit trail.
+    await archiveDecisionPack(manager, { comparisonId: id, decisionId: decision.id, actor });
     const link = comparisonLink(ctx.config.publicUrl, id, 'report');
     await queueAll(
       ctx,

@@ -9,7 +9,10 @@ import { formatCount } from '@shared/format';
  * written them to disk) or bytes already in memory (tests, small inputs). The reader streams
  * either in 1 MB chunks and never holds the whole file as text.
  */
-export type HoldoutSource = { path: string; fileName?: string } | { bytes: Uint8Array; fileName: string };
+export type HoldoutSource = ({ path: string; fileName?: string } | { bytes: Uint8Array; fileName: string }) & {
+  /** For an .xlsx workbook: the sheet to read (default: the first). */
+  sheet?: string | null;
+};
 
 export interface SourceInfo {
   fileName: string;

@@ -28,7 +28,8 @@ export type HoldoutInputCode =
   | 'bad_probability'
   | 'unsupported_weight'
   | 'pd_orientation'
-  | 'not_a_probability';
+  | 'not_a_probability'
+  | 'no_such_sheet';
 
 export class HoldoutInputError extends Error {
   override name = 'HoldoutInputError';

@@ -2,7 +2,8 @@ import type { ValidationReport } from '@shared/comparisons';
 import type { ColumnMapping } from '@shared/report';
 import type { Holdout, SegmentColumn } from '@server/stats/holdout';
 import { type HoldoutSource, sourceInfo } from './byte-source';
-import { type CsvLayout, readCsv } from './csv-records';
+import { type CsvLayout } from './csv-records';
+import { readRecords } from './records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
 import { formatCount } from '@shared/format';
@@ -276,7 +277,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
 
   // In validation mode a problem that stops the reader (a row too long, a quote never closed) is
   // listed after the problems found before it, in file order, like every other.
-  const read = readCsv(source, info, {
+  const read = readRecords(source, info, {
     onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
     onHeader(found) {
       const header = found.header;

@@ -3,7 +3,8 @@ import type { ColumnMapping, HigherIs } from '@shared/report';
 import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
 import { type HoldoutSource, sourceInfo } from './byte-source';
-import { type CsvLayout, readCsv } from './csv-records';
+import { type CsvLayout } from './csv-records';
+import { readRecords } from './records';
 import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
 import { boundPreview, PREVIEW_CELL_CHARS } from './preview-bounds';
 import { INVALID, MISSING, parseNumber } from './values';
@@ -93,7 +94,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
   let newline: CsvLayout['newline'] = '\n';
   const preview: string[][] = [];
 
-  const layout = await readCsv(source, info, {
+  const layout = await readRecords(source, info, {
     onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
     onHeader(found) {
       header = found.header;

@@ -15,7 +15,7 @@ export interface TabItem {
 export function Tabs({ label, items, className }: { label: string; items: TabItem[]; className?: string }) {
   return (
     <nav aria-label={label} className={cn('border-b border-line print:hidden', className)}>
-      <ul className="-mb-px flex gap-1 overflow-x-auto">
+      <ul className="-mb-px flex flex-wrap gap-x-1 md:flex-nowrap md:overflow-x-auto">
         {items.map((item) => (
           <li key={item.to}>
             <NavLink

@@ -98,6 +98,8 @@ export const paths = {
         ),
     ),
     reportJson: path('/api/comparisons/:id/export/report.json', (id: Id) => `/api/comparisons/${segment(id)}/export/report.json`),
+    packPdf: path('/api/comparisons/:id/export/pack.pdf', (id: Id) => `/api/comparisons/${segment(id)}/export/pack.pdf`),
+    workbook: path('/api/comparisons/:id/export/workbook.xlsx', (id: Id) => `/api/comparisons/${segment(id)}/export/workbook.xlsx`),
     /** The evidence pack: report, settings, hashes, verdict records, reviews, votes, decision, notes and audit trail. */
     evidenceJson: path('/api/comparisons/:id/evidence.json', (id: Id) => `/api/comparisons/${segment(id)}/evidence.json`),
   },

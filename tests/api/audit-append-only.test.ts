@@ -44,7 +44,8 @@ beforeAll(async () => {
   await step(clients.get('committee')!, 'votes', { vote: 'adopt' });
   await step(clients.get('committee')!, 'decision', { outcome: 'adopt', rationale: 'Clear gain.' });
   expect((await clients.get('policy')!.post(`/api/comparisons/${decidedId}/notes`, { anchor: 'swap-in', body: 'Swap-in looks clean.' })).status).toBe(201);
-}, 60_000);
+  // Two analyses and a decision, which lays out and archives the committee pack.
+}, 180_000);
 afterAll(async () => {
   await t.close();
 });
@@ -82,7 +83,8 @@ describe('the audit trail is append-only', () => {
     expect(after.length).toBeGreaterThan(before.length);
     expect(after.slice(0, before.length)).toEqual(before);
     expect(await verifyAuditChain(t.dataSource)).toEqual({ ok: true, events: after.length });
-  });
+    // Every role downloads the analysed comparison's committee pack, each laid out on a worker thread.
+  }, 400_000);
 
   it('is refused UPDATE and DELETE by the database', async () => {
     await expect(t.dataSource.query(`UPDATE "audit_events" SET "details" = '{}' WHERE "id" = 1`)).rejects.toThrow(/append-only/);

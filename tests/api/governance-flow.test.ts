@@ -110,6 +110,7 @@ describe('the review workflow, end to end', () => {
       expect(mail.subject).toBe('Validated, waiting for the committee: Challenger v2 on the 2025 sample');
       expect(mail.receivedText).toContain(`http://scorecourt.test/comparisons/${id}/review`);
       expect(mail.receivedText).toContain('Uplift significant and stable');
+      expect(mail.receivedText).toContain(`http://scorecourt.test/api/comparisons/${id}/export/pack.pdf`);
     }
     expect((await outboxAfter(t, before)).map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
   });
@@ -189,10 +190,11 @@ describe('the review workflow, end to end', () => {
       'vote.changed',
       'policy.changed',
       'comparison.decided',
+      'comparison.pack_archived',
     ]);
     const ids = trail.events.map((event) => event.id);
     expect([...ids].sort((a, b) => a - b)).toEqual(ids);
-    const decided = trail.events.at(-1)!;
+    const decided = trail.events.find((event) => event.action === 'comparison.decided')!;
     expect(decided.actor).toEqual({ id: expect.any(Number), name: 'Henrik Aalto' });
     expect(decided.details).toMatchObject({ from: 'validated', to: 'decided', outcome: 'adopt', policyVersion: 3, votes: { adopt: 2, keep: 0, defer: 0 } });
     const returned = trail.events.find((event) => event.action === 'comparison.returned')!;

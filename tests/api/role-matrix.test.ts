@@ -52,6 +52,9 @@ const intendedAccess: Record<string, string> = {
   'POST /comparisons/:id/verdicts': 'analyst | committee | admin',
   'GET /comparisons/:id/audit': 'signed-in',
   'GET /comparisons/:id/evidence.json': 'signed-in',
+  // The committee pack: read by every role (committees, validators, modelers, credit policy, admins).
+  'GET /comparisons/:id/export/pack.pdf': 'signed-in',
+  'GET /comparisons/:id/export/workbook.xlsx': 'signed-in',
   // Notes: anyone signed in writes in the discussion; swap-set anchors need the policy role (the service answers 403).
   'GET /comparisons/:id/notes': 'signed-in',
   'POST /comparisons/:id/notes': 'signed-in',

@@ -67,7 +67,7 @@ describe('the new-comparison wizard', () => {
       const cdp = await tab.context.newCDPSession(page);
       await cdp.send('Network.enable');
       await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 10, downloadThroughput: -1, uploadThroughput: 40 * 1024 });
-      await page.getByLabel('Holdout file (CSV)').setInputFiles(sample2k);
+      await page.getByLabel('Holdout file (CSV or .xlsx)').setInputFiles(sample2k);
       await page.getByRole('button', { name: 'Upload the holdout' }).click();
       const seen = new Set<number>();
       const nameHeading = page.getByRole('heading', { level: 1, name: 'Name the comparison' });
@@ -290,7 +290,7 @@ describe('problems in the file', () => {
       await page.goto(paths.comparisons.new());
 
       // A file that cannot be read at all is refused at upload, with the reader's words.
-      await page.getByLabel('Holdout file (CSV)').setInputFiles(empty);
+      await page.getByLabel('Holdout file (CSV or .xlsx)').setInputFiles(empty);
       await page.getByRole('button', { name: 'Upload the holdout' }).click();
       await page.getByText('The file was not accepted').waitFor();
       await tab.screenshot('wizard-upload-refused');
@@ -298,7 +298,7 @@ describe('problems in the file', () => {
       // The broken sample uploads; its mistakes (sample-data/README.md: text in a score on line 13,
       // an outcome of 2 on line 58, a short row on line 102, an empty score on line 151) are listed
       // by the check with their lines and columns.
-      await page.getByLabel('Holdout file (CSV)').setInputFiles(broken);
+      await page.getByLabel('Holdout file (CSV or .xlsx)').setInputFiles(broken);
       await page.getByRole('button', { name: 'Upload the holdout' }).click();
       await page.getByRole('heading', { level: 1, name: 'Name the comparison' }).waitFor();
       await page.getByRole('button', { name: 'Save and map the columns' }).click();

@@ -146,6 +146,8 @@ const objectRules: Record<string, { body?: unknown; rules: Rule[] }> = {
   'GET /comparisons/:id/export/bands.csv': { rules: ['exists', 'done-run'] },
   'GET /comparisons/:id/export/swap.csv': { rules: ['exists', 'done-run'] },
   'GET /comparisons/:id/export/report.json': { rules: ['exists', 'done-run'] },
+  'GET /comparisons/:id/export/pack.pdf': { rules: ['exists', 'done-run'] },
+  'GET /comparisons/:id/export/workbook.xlsx': { rules: ['exists', 'done-run'] },
   'GET /comparisons/:id/governance': { rules: ['exists'] },
   'POST /comparisons/:id/submit': { body: { message: '' }, rules: ['exists', { state: ['analysed', 'returned'] }] },
   'POST /comparisons/:id/review': { body: { outcome: 'validated', findings: 'Fine.' }, rules: ['exists', 'four-eyes', { state: ['in-review'] }] },

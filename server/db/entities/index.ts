@@ -4,6 +4,7 @@ import { AuditEvent } from './audit-event';
 import { Comparison } from './comparison';
 import { CutoffScenario } from './cutoff-scenario';
 import { Decision } from './decision';
+import { DecisionPack } from './decision-pack';
 import { Holdout } from './holdout';
 import { HoldoutChunk } from './holdout-chunk';
 import { MailMessage } from './mail-message';
@@ -24,6 +25,7 @@ export {
   Comparison,
   CutoffScenario,
   Decision,
+  DecisionPack,
   Holdout,
   HoldoutChunk,
   MailMessage,
@@ -61,4 +63,5 @@ export const entities = [
   Vote,
   Decision,
   Note,
+  DecisionPack,
 ];

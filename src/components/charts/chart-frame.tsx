@@ -30,7 +30,7 @@ export function ChartFrame({ title, caption, legend, children, table, height = 3
   const captionId = useId();
   const titleId = useId();
   return (
-    <figure aria-labelledby={titleId} className={cn('rounded-lg border border-line bg-paper-raised p-4 break-inside-avoid', className)}>
+    <figure aria-labelledby={titleId} className={cn('min-w-0 rounded-lg border border-line bg-paper-raised p-4 break-inside-avoid', className)}>
       <div className="flex flex-wrap items-start justify-between gap-3">
         <h3 id={titleId} className="text-sm font-semibold text-ink">
           {title}

@@ -22,7 +22,7 @@ export function Component() {
   ];
   return (
     <div className="space-y-6">
-      <div className="grid gap-6 xl:grid-cols-2">
+      <div className="grid grid-cols-1 gap-6 xl:grid-cols-2">
         <ModelCurveChart
           title="ROC curve"
           curve={curves.roc}
@@ -47,7 +47,7 @@ export function Component() {
           caption={`The share of bads caught as the riskiest accounts are declined first. A perfect model catches every bad by declining the ${formatPercent(report.badRate)} that are bad; the accuracy ratio (Gini) is champion ${formatGini(champion.gini)}, challenger ${formatGini(challenger.gini)} points.`}
         />
       </div>
-      <div className="grid gap-6 xl:grid-cols-2">
+      <div className="grid grid-cols-1 gap-6 xl:grid-cols-2">
         <KsChart model="champion" points={curves.ks.champion} metrics={champion} column={report.mapping.champion} />
         <KsChart model="challenger" points={curves.ks.challenger} metrics={challenger} column={report.mapping.challenger} />
       </div>
@@ -56,7 +56,7 @@ export function Component() {
         description={`Paired bootstrap, stratified by outcome: each replicate resamples the same accounts for both models (seed ${bootstrap.seed}). The interval is the ${confidence} percentile interval.`}
       >
         {bootstrap.histograms ? (
-          <div className="grid gap-6 xl:grid-cols-2">
+          <div className="grid grid-cols-1 gap-6 xl:grid-cols-2">
             <BootstrapHistogram
               title="ΔGini across replicates"
               quantity="ΔGini"

@@ -4,8 +4,10 @@ import { type LoaderFunctionArgs, useParams } from 'react-router';
 import { comparisonStateLabels } from '@shared/comparisons';
 import { paths } from '@/config/paths';
 import { useUser } from '@/lib/auth';
-import { formatDateTime, formatPercent } from '@/lib/format';
+import { ksChart, rocChart, segmentIntervalsChart, strategyChart, swapGridChart, upliftChart } from '@shared/pack/charts';
+import { formatCount, formatDateTime, formatPercent, formatScore } from '@/lib/format';
 import { Button } from '@/components/button';
+import { PackChart } from '@/components/charts/pack-chart';
 import { DecisionCautions } from '@/components/decision-cautions';
 import { DocumentTitle } from '@/components/document-title';
 import { ErrorState } from '@/components/error-state';
@@ -34,6 +36,7 @@ import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/comp
 import { scenariosQueryOptions, useScenarios } from '@/features/swap-sets/api/get-scenarios';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
+import { policyInOneSentence } from '@/features/policy/components/policy-words';
 
 export const loader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   const id = comparisonIdFrom(params);
@@ -80,6 +83,7 @@ export function Component() {
   const verdict = report.verdict;
   const annotations = (notes.data ?? []).filter((note) => note.anchor !== 'discussion');
   const discussion = (notes.data ?? []).filter((note) => note.anchor === 'discussion');
+  const segmentChart = segmentIntervalsChart(report);
   const scenarioName = new Map((scenarios.data ?? []).map((scenario) => [scenario.id, scenario.name]));
 
   return (
@@ -134,6 +138,9 @@ export function Component() {
 
       <ReportPart title="Evidence: metrics and tests" id="report-metrics">
         <ReportMetrics report={report} />
+        <PackChart chart={upliftChart(report)} />
+        <PackChart chart={rocChart(report)} />
+        <PackChart chart={ksChart(report)} />
         <ReportBlock title="Reading the Gini">
           <GiniContext report={report} />
         </ReportBlock>
@@ -146,7 +153,9 @@ export function Component() {
 
       <ReportPart title="Who changes sides: swap sets and segments" id="report-swap">
         <ReportSwapTable swap={report.swap} confidence={report.settings.confidence} hasAmount={hasAmount} title="Swap sets at the report’s cut-offs" />
+        <PackChart chart={swapGridChart(report)} />
         <ReportStrategy report={report} />
+        <PackChart chart={strategyChart(report)} />
         <ReportSwapSegments swap={report.swap} confidence={report.settings.confidence} />
         {scenarios.data && scenarios.data.length > 0 ? (
           <ReportBlock title="Saved cut-off scenarios" note="Chosen by credit policy; swap sets as computed when each was saved.">
@@ -156,12 +165,12 @@ export function Component() {
               numeric={[1, 2, 3, 4, 5, 6, 7]}
               rows={scenarios.data.map((scenario) => [
                 scenario.name,
-                String(scenario.cutoffs.champion),
-                String(scenario.cutoffs.challenger),
+                formatScore(scenario.cutoffs.champion),
+                formatScore(scenario.cutoffs.challenger),
                 scenario.approvalRate === null ? 'cut-offs' : formatPercent(scenario.approvalRate, 1),
-                String(scenario.swapIn.count),
+                formatCount(scenario.swapIn.count),
                 formatPercent(scenario.swapIn.badRate),
-                String(scenario.swapOut.count),
+                formatCount(scenario.swapOut.count),
                 formatPercent(scenario.swapOut.badRate),
                 scenario.createdBy.name,
               ])}
@@ -178,6 +187,7 @@ export function Component() {
           </ReportBlock>
         ) : null}
         <ReportSegments report={report} />
+        {segmentChart ? <PackChart chart={segmentChart} /> : null}
       </ReportPart>
 
       <ReportPart title="Verdict, review and decision" id="report-governance">
@@ -188,12 +198,7 @@ export function Component() {
             nowrap={[1]}
             rows={verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail])}
           />
-          <p className="text-xs text-ink-soft">
-            Policy version {report.policy.version}: α = {report.policy.alpha} ({report.policy.sided}), materiality {report.policy.materialityGiniPoints} Gini
-            points, interval above zero {report.policy.requireIntervalAboveZero ? 'required' : 'not required'}, swap rule{' '}
-            {report.policy.swapRule.enabled ? `at a ${formatPercent(report.policy.swapRule.approvalRate, 1)} approval rate` : 'off'}, at least{' '}
-            {report.policy.minBads} bads, quorum {report.policy.quorum || 'none'}.
-          </p>
+          <p className="text-xs text-ink-soft">{policyInOneSentence(report.policy)}</p>
         </ReportBlock>
         <ReportBlock title="Verdict records" note="Every verdict given, newest first, each under the policy version it used; a stored verdict never changes.">
           <VerdictRecords comparisonId={id} records={g.verdicts} currentRunId={comparison.currentRunId} canReEvaluate={false} />

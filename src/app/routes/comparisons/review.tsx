@@ -88,7 +88,7 @@ export function Component() {
   })();
 
   return (
-    <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+    <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
       <div className="min-w-0 space-y-6">
         <Section title="Where it stands" description="Submitted by a modeler, validated or returned by an analyst, decided by the committee.">
           <WorkflowProgress state={g.state} />
@@ -121,7 +121,7 @@ export function Component() {
             {g.decision ? (
               <DecisionRecord decision={g.decision} />
             ) : actions.decide.kind === 'allowed' ? (
-              <div className="grid gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+              <div className="grid grid-cols-1 gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
                 <DecisionForm comparisonId={id} quorumMet={quorumMet} onDone={setNotice} />
                 <DecisionCautions compact />
               </div>

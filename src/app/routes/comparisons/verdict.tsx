@@ -20,7 +20,7 @@ export function Component() {
       <Section title="The uplift" description="How much better the challenger separates goods from bads, with the uncertainty of the estimate.">
         <UpliftChart report={report} />
       </Section>
-      <div className="grid gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+      <div className="grid grid-cols-1 gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Section title="Adoption criteria" description="The adoption policy turns the evidence into a recommendation; each rule with the numbers that decided it.">
           <CriteriaList verdict={report.verdict} />
         </Section>

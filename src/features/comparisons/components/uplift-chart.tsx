@@ -43,7 +43,8 @@ export function UpliftChart({ report }: { report: Report }) {
         Uplift in Gini points, challenger − champion
       </h3>
       <div ref={ref} className="w-full">
-      <svg width={W} height={height} viewBox={`0 0 ${W} ${height}`} className="block" aria-hidden="true" focusable="false">
+      {/* Drawn at least 420 wide; on a narrower screen the drawing scales down to fit (labels stay above 10 px). */}
+      <svg viewBox={`0 0 ${W} ${height}`} className="block h-auto w-full" aria-hidden="true" focusable="false">
         {/* The material region: right of the materiality line. */}
         <rect x={x(materiality)} y={TOP - 8} width={Math.max(0, x(domain[1]) - x(materiality))} height={rows.length * ROW + 8} fill={colors.good.soft} opacity={0.55} />
         {ticks.map((tick) => (

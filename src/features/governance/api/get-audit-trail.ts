@@ -3,6 +3,7 @@ import { type z } from 'zod';
 import { auditTrailSchema } from '@shared/governance';
 import { pageLimitMax } from '@shared/paging';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 export type AuditTrail = z.infer<typeof auditTrailSchema>;
 
@@ -21,7 +22,7 @@ export async function getAuditTrail(id: number): Promise<AuditTrail> {
 }
 
 export const auditTrailQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['comparisons', 'detail', id, 'audit'], queryFn: () => getAuditTrail(id) });
+  queryOptions({ queryKey: queryKeys.comparisons.audit(id), queryFn: () => getAuditTrail(id) });
 
 export function useAuditTrail(id: number) {
   return useQuery(auditTrailQueryOptions(id));

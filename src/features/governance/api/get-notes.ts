@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { type Note, noteSchema } from '@shared/governance';
 import { pageLimitMax } from '@shared/paging';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 const notesResponseSchema = z.object({ notes: z.array(noteSchema), nextAfter: z.number().int().nullable().optional() });
 
@@ -18,7 +19,7 @@ export async function getNotes(id: number): Promise<Note[]> {
   return notes;
 }
 
-export const notesQueryOptions = (id: number) => queryOptions({ queryKey: ['comparisons', 'detail', id, 'notes'], queryFn: () => getNotes(id) });
+export const notesQueryOptions = (id: number) => queryOptions({ queryKey: queryKeys.comparisons.notes(id), queryFn: () => getNotes(id) });
 
 export function useNotes(id: number) {
   return useQuery(notesQueryOptions(id));

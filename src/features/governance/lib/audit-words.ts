@@ -24,6 +24,7 @@ const labels: Record<string, string> = {
   'vote.cast': 'Voted',
   'vote.changed': 'Changed their vote',
   'comparison.decided': 'Recorded the decision',
+  'comparison.pack_archived': 'Archived the committee pack (PDF) with the decision',
   'policy.changed': 'Changed the adoption policy',
 };
 
@@ -66,6 +67,8 @@ export function auditSummary(event: AuditEvent): string | null {
       return [outcomeWords[String(d.vote)] ?? String(d.vote), text(d.comment)].filter(Boolean).join(': ');
     case 'comparison.decided':
       return `${outcomeWords[String(d.outcome)] ?? String(d.outcome)}${text(d.effectiveDate) ? ` from ${String(d.effectiveDate)}` : ''} (policy version ${String(d.policyVersion)})`;
+    case 'comparison.pack_archived':
+      return `SHA-256 ${String(d.sha256)}`;
     case 'note.added':
       return text(d.body);
     case 'scenario.saved':

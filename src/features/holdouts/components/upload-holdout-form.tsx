@@ -66,15 +66,15 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
             dragging ? 'border-court-500 bg-court-50' : 'border-line-strong bg-paper-raised hover:bg-paper',
           )}
         >
-          <span className="text-sm font-semibold text-ink">Holdout file (CSV)</span>
+          <span className="text-sm font-semibold text-ink">Holdout file (CSV or .xlsx)</span>
           <span id={hintId} className="max-w-lg text-sm text-ink-soft">
             One row per account with the observed outcome and both models’ scores; optionally an account id, segments and an amount. Choose a
-            file or drop it here.
+            file or drop it here. From a workbook the first sheet is read, its first row the column names.
           </span>
           <input
             id={inputId}
             type="file"
-            accept=".csv,text/csv,text/plain"
+            accept=".csv,text/csv,text/plain,.xlsx,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
             aria-describedby={hintId}
             onChange={(event: ChangeEvent<HTMLInputElement>) => choose(event.target.files?.[0])}
             disabled={uploadHoldout.isPending}

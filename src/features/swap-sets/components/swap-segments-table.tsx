@@ -92,7 +92,7 @@ export function SwapSegmentsTable({ rows, confidence }: { rows: SwapSegmentRow[]
       header: 'Flags',
       cell: ({ getValue }) =>
         getValue() ? (
-          <StatusBadge tone="caution">Swap-in riskier than swap-out</StatusBadge>
+          <StatusBadge tone="caution" className="whitespace-normal!">Swap-in riskier than swap-out</StatusBadge>
         ) : (
           <span className="text-ink-faint">none</span>
         ),

@@ -196,7 +196,8 @@ export function ReportSwapSegments({ swap, confidence }: { swap: SwapSets; confi
           rateWithInterval(row.swapIn),
           formatCount(row.swapOut.count),
           rateWithInterval(row.swapOut),
-          swapInRiskier(row) ? 'Swap-in riskier than swap-out' : '',
+          // Non-breaking hyphens: the flag may wrap between words, never inside "swap-in".
+          swapInRiskier(row) ? 'Swap\u2011in riskier than swap\u2011out' : '',
         ])}
       />
     </ReportBlock>

@@ -22,9 +22,12 @@ export function ReportTable({
   nowrap?: number[];
   className?: string;
 }) {
+  // Eight columns or more do not fit a portrait page: printed on a landscape page (styles.css).
+  const wide = head.length >= 8;
   const align = (index: number) =>
     cn(numeric.includes(index) ? 'text-right num' : 'text-left', (numeric.includes(index) || nowrap.includes(index)) && 'whitespace-nowrap');
   return (
+    <div className={cn('report-table-frame', wide && 'report-wide')}>
     <table className={cn('w-full border-collapse text-sm', className)}>
       <caption className="sr-only">{caption}</caption>
       <thead>
@@ -41,7 +44,7 @@ export function ReportTable({
           <tr key={rowIndex} className="border-b border-line">
             {row.map((cell, index) =>
               index === 0 ? (
-                <th key={index} scope="row" className={cn('px-2 py-1.5 text-left font-medium text-ink', nowrap.includes(0) && 'whitespace-nowrap')}>
+                <th key={index} scope="row" className={cn('bg-paper-raised px-2 py-1.5 text-left font-medium text-ink', nowrap.includes(0) && 'whitespace-nowrap')}>
                   {cell}
                 </th>
               ) : (
@@ -54,6 +57,7 @@ export function ReportTable({
         ))}
       </tbody>
     </table>
+    </div>
   );
 }
 
