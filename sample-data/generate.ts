@@ -23,17 +23,18 @@ import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import seedrandom from 'seedrandom';
+import { developmentCsv, pdWithBrokerDrift } from './pd-and-development';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const SEED = 'tallowmere-2025';
 const ACCOUNTS = 60_000;
 const POINTS_TO_DOUBLE_ODDS = 20;
-const POINTS_FACTOR = POINTS_TO_DOUBLE_ODDS / Math.LN2;
+export const POINTS_FACTOR = POINTS_TO_DOUBLE_ODDS / Math.LN2;
 
-type Product = 'personal-loan' | 'credit-card';
-type Channel = 'branch' | 'web' | 'broker';
+export type Product = 'personal-loan' | 'credit-card';
+export type Channel = 'branch' | 'web' | 'broker';
 
-interface Account {
+export interface Account {
   id: string;
   month: string;
   product: Product;
@@ -46,7 +47,7 @@ interface Account {
 }
 
 /** A seeded source of uniform and normal draws (Box–Muller, one value per call). */
-function randomSource(seed: string) {
+export function randomSource(seed: string) {
   const uniform = seedrandom(seed);
   return {
     uniform: () => uniform(),
@@ -66,9 +67,9 @@ function randomSource(seed: string) {
   };
 }
 
-const sigmoid = (x: number) => 1 / (1 + Math.exp(-x));
+export const sigmoid = (x: number) => 1 / (1 + Math.exp(-x));
 
-const productMix = [
+export const productMix = [
   ['personal-loan', 0.55],
   ['credit-card', 0.45],
 ] as const;
@@ -85,10 +86,10 @@ const channelMix: Record<Product, readonly (readonly [Channel, number])[]> = {
   ],
 };
 /** Extra log-odds of going bad, by product and channel (brokered business is riskier). */
-const productRisk: Record<Product, number> = { 'personal-loan': 0, 'credit-card': 0.25 };
-const channelRisk: Record<Channel, number> = { branch: -0.2, web: 0, broker: 0.35 };
+export const productRisk: Record<Product, number> = { 'personal-loan': 0, 'credit-card': 0.25 };
+export const channelRisk: Record<Channel, number> = { branch: -0.2, web: 0, broker: 0.35 };
 /** Intercept tuned so the holdout's bad rate is about 7%. */
-const INTERCEPT = -3.4;
+export const INTERCEPT = -3.4;
 
 function simulate(count: number): Account[] {
   const random = randomSource(SEED);
@@ -149,11 +150,11 @@ function holdoutCsv(accounts: Account[]): string {
   return lines.join('\n') + '\n';
 }
 
-function pdCsv(accounts: Account[]): string {
+/** The PD file with the challenger's PD as pd-and-development.ts tells its story (broker drift from July). */
+function pdDriftCsv(accounts: Account[]): string {
+  const pd = pdWithBrokerDrift(accounts);
   const lines = [[...header, 'champion_points', 'challenger_pd'].join(',')];
-  for (const a of accounts) {
-    lines.push([...leadFields(a), a.championPoints, a.challengerPd.toFixed(6)].join(','));
-  }
+  accounts.forEach((a, i) => lines.push([...leadFields(a), a.championPoints, pd[i].toFixed(6)].join(',')));
   return lines.join('\n') + '\n';
 }
 
@@ -182,7 +183,8 @@ export function buildSampleFiles(): Record<string, string> {
   return {
     'tallowmere-holdout-2025.csv': holdoutCsv(accounts),
     'tallowmere-holdout-2025-sample-2k.csv': holdoutCsv(sampleOf(accounts, 2_000)),
-    'tallowmere-holdout-2025-pd.csv': pdCsv(accounts),
+    'tallowmere-holdout-2025-pd.csv': pdDriftCsv(accounts),
+    'tallowmere-development-2023.csv': developmentCsv(),
     'tallowmere-holdout-broken.csv': brokenCsv(accounts),
   };
 }

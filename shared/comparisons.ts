@@ -142,6 +142,8 @@ export const createComparisonInputSchema = z.object({
   holdoutId: z.number().int(),
   mapping: mappingInputSchema.optional(),
   settings: analysisSettingsSchema.partial().optional(),
+  /** A second uploaded file, the development sample: the PSI's reference (same score columns, no outcome needed). */
+  referenceHoldoutId: z.number().int().nullable().optional(),
 });
 export type CreateComparisonInput = z.infer<typeof createComparisonInputSchema>;
 
@@ -153,6 +155,8 @@ export const setupComparisonInputSchema = z.object({
   holdoutId: z.number().int().optional(),
   mapping: mappingInputSchema,
   settings: analysisSettingsSchema.partial().optional(),
+  /** The PSI's reference sample (an uploaded holdout); null or absent: none. */
+  referenceHoldoutId: z.number().int().nullable().optional(),
 });
 export type SetupComparisonInput = z.infer<typeof setupComparisonInputSchema>;
 

@@ -1,5 +1,19 @@
 import { z } from 'zod';
 
+// --- Calibration and stability criteria (each off by default; older versions parse with these defaults) ---
+/** The challenger's portfolio Jeffreys p above α (only for a challenger whose score is a PD). */
+export const calibrationRuleSchema = z.object({ enabled: z.boolean(), alpha: z.number().gt(0).lt(0.5) });
+/** The PSI of the challenger's score against the reference sample below a threshold. */
+export const psiRuleSchema = z.object({ enabled: z.boolean(), threshold: z.number().gt(0).max(10) });
+/** The uplift keeps its sign in every period with at least minBads bads. */
+export const periodSignRuleSchema = z.object({ enabled: z.boolean(), minBads: z.number().int().min(1) });
+export const defaultCalibrationRule = { enabled: false, alpha: 0.05 };
+/** 0.25: the usual "shifted" line, common practice, no source. */
+export const defaultPsiRule = { enabled: false, threshold: 0.25 };
+/** 100 bads for a period's Gini to be read: rule of thumb, no source. */
+export const defaultPeriodSignRule = { enabled: false, minBads: 100 };
+// --- end of the calibration and stability criteria ---
+
 /**
  * The adoption policy: the rules that turn a report's evidence into a recommendation.
  * Admin-editable and versioned on the server; the version is stored with every verdict.
@@ -30,6 +44,10 @@ export const adoptionPolicySchema = z.object({
   minBads: z.number().int().min(0),
   /** Committee votes needed before a decision can be recorded; 0 = no quorum. */
   quorum: z.number().int().min(0),
+  // Calibration and stability criteria (see above).
+  calibrationRule: calibrationRuleSchema.default(defaultCalibrationRule),
+  psiRule: psiRuleSchema.default(defaultPsiRule),
+  periodSignRule: periodSignRuleSchema.default(defaultPeriodSignRule),
 });
 export type AdoptionPolicy = z.infer<typeof adoptionPolicySchema>;
 
@@ -42,4 +60,7 @@ export const defaultAdoptionPolicy: AdoptionPolicy = {
   swapRule: { enabled: true, approvalRate: 0.7 },
   minBads: 300,
   quorum: 0,
+  calibrationRule: defaultCalibrationRule,
+  psiRule: defaultPsiRule,
+  periodSignRule: defaultPeriodSignRule,
 };

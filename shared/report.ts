@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { calibrationSchema, stabilitySchema } from './calibration';
 import { adoptionPolicySchema } from './policy';
 
 /**
@@ -363,7 +364,7 @@ export const verdictOutcomeSchema = z.enum(['supported', 'not-proven', 'champion
 export type VerdictOutcome = z.infer<typeof verdictOutcomeSchema>;
 
 export const criterionSchema = z.object({
-  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads']),
+  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads', 'calibration', 'psi', 'period-sign']),
   label: z.string(),
   met: z.boolean(),
   /** Plain-language reason with the numbers, e.g. "one-sided p = 0.0003 < α = 0.05". */
@@ -392,6 +393,12 @@ export const columnMappingSchema = z.object({
   exposure: z.string().min(1).nullable().optional(),
   /** Sampling weight: a positive finite number per row, each row standing for that many applicants. */
   weight: z.string().min(1).nullable().optional(),
+  /** The modeler confirms that a model's score is a probability of default (higher = riskier, 0 to 1): its calibration is computed. */
+  probabilityOfDefault: z.object({ champion: z.boolean(), challenger: z.boolean() }).optional(),
+  /** Rating grade columns: calibration by grade instead of by quantile band. */
+  grades: z.object({ champion: z.string().min(1).nullable(), challenger: z.string().min(1).nullable() }).optional(),
+  /** Month or vintage column: stability by period. */
+  period: z.string().min(1).nullable().optional(),
   /**
    * Keep applicants without an outcome (e.g. those the champion declined, never booked): a blank
    * outcome, or one of `unknownValues`, marks the row unknown instead of being an error.
@@ -439,6 +446,8 @@ export const analysisSettingsSchema = z.object({
     })
     .nullable()
     .default(null),
+  /** A value of the period column whose accounts are the PSI's reference (when no reference file is given). */
+  referencePeriod: z.string().min(1).max(200).nullable().default(null),
   /** Reject inference for rows without an outcome; absent = known-only (reports before engine 1.2 have none). */
   rejectInference: rejectInferenceSchema.optional(),
 });
@@ -483,6 +492,9 @@ export const reportSchema = z.object({
   curves: curvesSchema,
   economics: economicsSchema.nullable(),
   verdict: verdictSchema,
+  /** Optional: reports stored before engine 1.2 have neither. */
+  calibration: calibrationSchema.optional(),
+  stability: stabilitySchema.optional(),
 });
 export type Report = z.infer<typeof reportSchema>;
 

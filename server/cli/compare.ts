@@ -14,6 +14,8 @@ import {
 } from '@shared/report';
 import { HoldoutInputError } from '@server/reader/errors';
 import { loadHoldout } from '@server/reader/load';
+import { loadReference } from '@server/reader/load-reference';
+import { calibrationStabilityLines } from './calibration-text';
 import { buildReport } from '@server/stats/report';
 import { StatisticError } from '@server/stats/statistic-error';
 
@@ -42,6 +44,14 @@ Columns
   --exposure COL             exposure / amount column, summed in the swap sets
   --id COL                   account id column
   --drop-missing             leave out (and count) rows with an empty score instead of stopping
+  --pd champion|challenger   that model's score is a probability of default (higher = riskier,
+                             0 to 1): its calibration is computed (repeatable)
+  --grade-champion COL       rating grade column of the champion (calibration by grade)
+  --grade-challenger COL     rating grade column of the challenger
+  --period COL               month or vintage column: Gini, KS and ΔGini by period
+  --reference FILE           the development sample (the same score columns, no outcome needed):
+                             PSI of each model's score against the holdout
+  --reference-period V       or: the accounts of period V are the PSI's reference
   --weight COL               sampling weight column: a positive number per row, each row
                              standing for that many applicants
   --keep-unknown             keep applicants without an outcome (e.g. declined, never booked):
@@ -97,6 +107,12 @@ const options = {
   exposure: { type: 'string' },
   id: { type: 'string' },
   'drop-missing': { type: 'boolean' },
+  pd: { type: 'string', multiple: true },
+  'grade-champion': { type: 'string' },
+  'grade-challenger': { type: 'string' },
+  period: { type: 'string' },
+  reference: { type: 'string' },
+  'reference-period': { type: 'string' },
   weight: { type: 'string' },
   'keep-unknown': { type: 'boolean' },
   'unknown-value': { type: 'string', multiple: true },
@@ -114,6 +130,8 @@ export interface CompareCommand {
   dropMissing: boolean;
   mapping: ColumnMapping;
   settings: Partial<AnalysisSettings>;
+  /** The development sample's file, for the PSI; null without one. */
+  reference: string | null;
 }
 
 function orientation(value: string | undefined, fallback: HigherIs, flag: string): HigherIs {
@@ -152,7 +170,7 @@ export function parseCommand(argv: string[]): CompareCommand {
   }
   const { values, positionals } = parsed;
   if (values.help) {
-    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {} };
+    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {}, reference: null };
   }
   if (positionals.length !== 1) {
     throw new UsageError(positionals.length === 0 ? 'give the holdout CSV file (see --help)' : `give one holdout file, got ${positionals.length}: ${positionals.join(', ')}`);
@@ -171,6 +189,18 @@ export function parseCommand(argv: string[]): CompareCommand {
     segments: values.segment ?? [],
     exposure: values.exposure ?? null,
   };
+  // Calibration and stability columns, only when given (the mapping stays the CLI's earlier form otherwise).
+  const pdModels = values.pd ?? [];
+  for (const model of pdModels) {
+    if (model !== 'champion' && model !== 'challenger') throw new UsageError(`--pd must be "champion" or "challenger", got "${model}"`);
+  }
+  if (pdModels.length > 0) mapping.probabilityOfDefault = { champion: pdModels.includes('champion'), challenger: pdModels.includes('challenger') };
+  if (values['grade-champion'] !== undefined || values['grade-challenger'] !== undefined) {
+    mapping.grades = { champion: values['grade-champion'] ?? null, challenger: values['grade-challenger'] ?? null };
+  }
+  if (values.period !== undefined) mapping.period = values.period;
+  if (values.reference !== undefined && values['reference-period'] !== undefined) throw new UsageError('give --reference or --reference-period, not both');
+  if (values['reference-period'] !== undefined && values.period === undefined) throw new UsageError('--reference-period needs --period');
   if (values.weight !== undefined) mapping.weight = values.weight;
   if (values['keep-unknown']) mapping.keepUnknown = true;
   if (values['unknown-value'] !== undefined) {
@@ -203,6 +233,7 @@ export function parseCommand(argv: string[]): CompareCommand {
     settings.cutoffs = { champion: cutoffChampion, challenger: cutoffChallenger };
   }
   settings.dropMissing = values['drop-missing'] ?? false;
+  if (values['reference-period'] !== undefined) settings.referencePeriod = values['reference-period'];
   const method = values['reject-inference'];
   const parcelFactor = number(values['parcel-factor'], '--parcel-factor', (v) => v > 0 && v <= 20, 'a number above 0 and at most 20');
   if (method !== undefined || parcelFactor !== undefined) {
@@ -214,7 +245,7 @@ export function parseCommand(argv: string[]): CompareCommand {
     if (chosen === 'column' && mapping.inferredBad === undefined) throw new UsageError('--reject-inference column needs --inferred-bad COL');
     settings.rejectInference = { method: chosen, parcelFactor: parcelFactor ?? 1 };
   }
-  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings };
+  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings, reference: values.reference ?? null };
 }
 
 // --- the readable summary ------------------------------------------------------------------
@@ -320,6 +351,7 @@ export function summary(report: Report): string {
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
+  lines.push(...calibrationStabilityLines(report.calibration, report.stability));
   if (report.dataQuality.warnings.length > 0) {
     lines.push('');
     lines.push('Data quality');
@@ -360,6 +392,7 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
   const { file } = command;
   try {
     const loaded = await loadHoldout({ path: file }, command.mapping, { dropMissing: command.dropMissing });
+    const reference = command.reference === null ? null : await loadReference({ path: command.reference }, command.mapping, { dropMissing: command.dropMissing });
     let shown = -1;
     const report = await buildReport({
       holdout: loaded.holdout,
@@ -367,6 +400,7 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
       mapping: command.mapping,
       settings: command.settings,
       read: loaded.read,
+      reference,
       onProgress: io.progress
         ? ({ fraction, stage }) => {
             const percent = Math.floor(fraction * 100);

@@ -10,14 +10,16 @@ export async function authorsOf(
   source: DataSource | EntityManager,
   comparison: Comparison,
   /** The comparison's runs when the caller has read them already (with requestedById and holdoutId). */
-  knownRuns?: readonly Pick<AnalysisRun, 'requestedById' | 'holdoutId'>[],
+  knownRuns?: readonly (Pick<AnalysisRun, 'requestedById' | 'holdoutId'> & Partial<Pick<AnalysisRun, 'referenceHoldoutId'>>)[],
 ): Promise<Set<number>> {
   const authors = new Set<number>([comparison.createdById]);
-  const runs = knownRuns ?? (await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true } }));
+  const runs = knownRuns ?? (await source.getRepository(AnalysisRun).find({ where: { comparisonId: comparison.id }, select: { requestedById: true, holdoutId: true, referenceHoldoutId: true } }));
   const holdoutIds = new Set<number>([comparison.holdoutId]);
   for (const run of runs) {
     authors.add(run.requestedById);
     holdoutIds.add(run.holdoutId);
+    // The PSI's reference sample is evidence too: its uploader is an author.
+    if (run.referenceHoldoutId) holdoutIds.add(run.referenceHoldoutId);
   }
   // The comparison's own holdout is usually loaded with it: only the others are read.
   if (comparison.holdout) {

@@ -15,7 +15,7 @@ import { AnalysisRun, Comparison, type Holdout, type RunInput, type User } from 
 import { inTransaction } from '../db/transaction';
 import { conflict, notFound } from '../errors';
 import type { EncodedColumn } from '../holdouts/columns';
-import { findHoldout, mapHoldout } from '../holdouts/service';
+import { findHoldout, mapHoldout, mapReference } from '../holdouts/service';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
 import { requireState, transition } from './state';
@@ -50,6 +50,12 @@ export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
     if (mapping.unknownValues && mapping.unknownValues.length > 0) normal.unknownValues = mapping.unknownValues;
     if (mapping.inferredBad) normal.inferredBad = mapping.inferredBad;
   }
+  // Calibration and stability columns, only when given (earlier mappings keep their form).
+  if (mapping.probabilityOfDefault) normal.probabilityOfDefault = { champion: mapping.probabilityOfDefault.champion, challenger: mapping.probabilityOfDefault.challenger };
+  if (mapping.grades && (mapping.grades.champion || mapping.grades.challenger)) {
+    normal.grades = { champion: mapping.grades.champion ?? null, challenger: mapping.grades.challenger ?? null };
+  }
+  if (mapping.period) normal.period = mapping.period;
   return normal;
 }
 
@@ -111,6 +117,16 @@ interface PreparedRun {
   settings: AnalysisSettings;
   input: RunInput;
   columns: EncodedColumn[];
+  /** The PSI's reference holdout, when the set-up chose one. */
+  referenceHoldoutId?: number | null;
+}
+
+/** Reads the chosen reference sample's scores into the prepared run (a 400 naming row and column on bad data). */
+async function withReference(ctx: AppContext, prepared: PreparedRun, referenceHoldoutId: number | null | undefined): Promise<PreparedRun> {
+  if (referenceHoldoutId === undefined || referenceHoldoutId === null) return prepared;
+  const holdout = await findHoldout(ctx.dataSource, referenceHoldoutId);
+  const mapped = await mapReference(ctx, holdout, prepared.mapping, prepared.settings.dropMissing);
+  return { ...prepared, input: { ...prepared.input, reference: mapped.reference }, columns: [...prepared.columns, ...mapped.columns], referenceHoldoutId: holdout.id };
 }
 
 /** Inserts a queued run with its input columns. */
@@ -134,6 +150,7 @@ async function insertRun(manager: EntityManager, comparisonId: number, prepared:
       report: null,
       headline: null,
       requestedById: actor.id,
+      referenceHoldoutId: prepared.referenceHoldoutId ?? null,
     }),
   );
   for (const column of prepared.columns) {
@@ -152,6 +169,7 @@ function auditMapping(prepared: PreparedRun) {
     settings: prepared.settings,
     rowsUsed: prepared.input.n,
     rowsDroppedMissingScore: prepared.input.read.rowsDroppedMissingScore,
+    ...(prepared.input.reference ? { reference: prepared.input.reference } : {}),
   };
 }
 
@@ -161,7 +179,7 @@ export async function createComparison(ctx: AppContext, actor: User, input: Crea
   let prepared: PreparedRun | null = null;
   if (input.mapping) {
     const mapping = normaliseMapping(input.mapping);
-    prepared = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
+    prepared = await withReference(ctx, { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) }, input.referenceHoldoutId);
   }
   const created = await inTransaction(ctx.dataSource, async (manager) => {
     const at = now();
@@ -202,7 +220,7 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
   // in every default: given settings are therefore complete. Without them the current ones stay.
   const settings = analysisSettingsSchema.parse(input.settings ?? comparison.settings ?? {});
   const mapping = normaliseMapping(input.mapping);
-  const prepared: PreparedRun = { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) };
+  const prepared = await withReference(ctx, { holdout, mapping, settings, ...(await mapHoldout(ctx, holdout, mapping, settings.dropMissing)) }, input.referenceHoldoutId);
 
   await inTransaction(ctx.dataSource, async (manager) => {
     const at = now();
@@ -249,6 +267,7 @@ export async function getComparisonDetail(source: DataSource | EntityManager, id
       headline: true,
       requestedById: true,
       holdoutId: true,
+      referenceHoldoutId: true,
     },
   });
   return presentDetail(comparison, runs, await authorsOf(source, comparison, runs));

@@ -23,7 +23,9 @@ import * as words from './wording';
  *    history — submitted, validated with findings that name the brokered-cards weakness, the
  *    policy role's saved scenarios and swap-set annotations, discussion, two votes, the decision
  *    with conditions, and the e-mails each step sends;
- * 2. in review: the same accounts with the challenger as a PD, submitted, waiting for the analyst;
+ * 2. in review: the same accounts with the challenger as a PD (its calibration by band, stability
+ *    by month, and the PSI against the 2023 development sample uploaded beside it), submitted,
+ *    waiting for the analyst;
  * 3. a draft waiting for its mapping: the 2,000-account sample, uploaded and named.
  *
  * The analyses really run (the worker threads of the queue) and finish before a comparison moves
@@ -35,6 +37,8 @@ export const sampleDataDir = join(projectRoot, 'sample-data');
 export const demoFiles = {
   full: 'tallowmere-holdout-2025.csv',
   pd: 'tallowmere-holdout-2025-pd.csv',
+  /** The 2023 development sample (scores only): the PD comparison's PSI reference. */
+  development: 'tallowmere-development-2023.csv',
   sample: 'tallowmere-holdout-2025-sample-2k.csv',
 } as const;
 
@@ -49,7 +53,15 @@ const baseMapping = {
 
 export const demoMappings: { full: ColumnMapping; pd: ColumnMapping } = {
   full: { ...baseMapping, segments: [...baseMapping.segments], challenger: 'challenger_points', higherIs: { champion: 'safer', challenger: 'safer' } },
-  pd: { ...baseMapping, segments: [...baseMapping.segments], challenger: 'challenger_pd', higherIs: { champion: 'safer', challenger: 'riskier' } },
+  pd: {
+    ...baseMapping,
+    segments: [...baseMapping.segments],
+    challenger: 'challenger_pd',
+    higherIs: { champion: 'safer', challenger: 'riskier' },
+    // Calibration of the PD, stability by month.
+    probabilityOfDefault: { champion: false, challenger: true },
+    period: 'application_month',
+  },
 };
 
 /** The analysis settings of both analysed comparisons (the defaults, written out). */
@@ -210,11 +222,18 @@ export async function playScenario(ctx: AppContext, people: DemoPeople, options:
   // 2. In review: the PD-scored variant.
   at('uploadPd');
   const pdHoldout = await upload(people.modeler, demoFiles.pd);
+  const developmentSample = await upload(people.modeler, demoFiles.development);
   at('createPd');
   const pd = await createComparison(
     ctx,
     people.modeler,
-    createComparisonInputSchema.parse({ ...words.comparisons.inReview, holdoutId: pdHoldout.id, mapping: demoMappings.pd, settings }),
+    createComparisonInputSchema.parse({
+      ...words.comparisons.inReview,
+      holdoutId: pdHoldout.id,
+      mapping: demoMappings.pd,
+      settings,
+      referenceHoldoutId: developmentSample.id,
+    }),
   );
   await analysed(pd.id);
   at('submitPd');

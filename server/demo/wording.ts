@@ -137,7 +137,7 @@ export function decision(report: Report): { rationale: string; conditions: strin
 }
 
 export function pdSubmissionMessage(): string {
-  return 'Same 2025 accounts, with the challenger as the probability of default the scoring service returns (higher = riskier). It should rank exactly as the points version; please confirm the orientation before we wire the PD into the decision engine.';
+  return 'Same 2025 accounts, with the challenger as the probability of default the scoring service returns (higher = riskier), recalibrated on the 2023 development sample (uploaded beside it as the reference for the PSI). Please look at the calibration by band and the stability by month before we wire the PD into the decision engine: the broker partnership has been sending self-declared cash-flow figures since July.';
 }
 
 export const comparisons = {
@@ -148,7 +148,8 @@ export const comparisons = {
   },
   inReview: {
     name: 'CF-3 as probability of default vs AS-19 — 2025 holdout',
-    description: 'The same accounts and outcome, with the challenger delivered as a PD by the scoring service (higher = riskier) instead of points.',
+    description:
+      'The same accounts and outcome, with the challenger delivered as a PD by the scoring service (higher = riskier) instead of points, recalibrated on the 2023 development sample.',
   },
   draft: {
     name: 'Quick look: 2,000-account sample of the 2025 holdout',

@@ -51,6 +51,8 @@ export interface EvidencePack {
   runs: (AnalysisRunBody & {
     holdoutId: number;
     input: { fileName: string; sha256: string; bytes: number; rowsRead: number; rowsUsed: number; goods: number; bads: number };
+    /** The PSI's reference sample the run read (a second uploaded file); null without one. */
+    reference: { holdoutId: number; fileName: string; sha256: string; rows: number } | null;
     mapping: ColumnMapping;
     settings: AnalysisSettings;
     /** SHA-256 of the stored report as GET /api/comparisons/:id/report serves it; null until done. */
@@ -147,6 +149,7 @@ export async function buildEvidencePack(ctx: AppContext, actor: User, comparison
         goods: run.input.read.goods,
         bads: run.input.read.bads,
       },
+      reference: run.input.reference ?? null,
       mapping: run.mapping,
       settings: run.settings,
       reportSha256: run.report ? sha256(run.report) : null,

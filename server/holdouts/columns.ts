@@ -14,6 +14,9 @@ import type { Holdout as EngineHoldout } from '../stats/holdout';
  *   exposure            Float64  when mapped
  *   segment.<i>         Uint32   codes into RunInput.segments[i].levels
  *   ids                 UTF-8    account ids joined by NUL (the reader never lets NUL through)
+ *   grade.<model>       Uint32   codes into RunInput.grades[model].levels, when mapped
+ *   period              Uint32   codes into RunInput.period.levels, when mapped
+ *   reference.<model>   Float64  the PSI's reference sample's scores, when one was chosen
  *   weight              Float64  sampling weight per row, when mapped
  *   known               Uint8    1 = outcome known, 0 = no outcome (bad is 0 there), when the
  *                                holdout keeps applicants without an outcome and has some
@@ -56,6 +59,9 @@ export function encodeHoldout(holdout: EngineHoldout): EncodedColumn[] {
   if (holdout.exposure) columns.push({ name: 'exposure', data: bytesOf(holdout.exposure) });
   holdout.segments.forEach((segment, index) => columns.push({ name: `segment.${index}`, data: bytesOf(segment.codes) }));
   if (holdout.ids) columns.push({ name: 'ids', data: Buffer.from(holdout.ids.join('\0'), 'utf8') });
+  if (holdout.grades?.champion) columns.push({ name: 'grade.champion', data: bytesOf(holdout.grades.champion.codes) });
+  if (holdout.grades?.challenger) columns.push({ name: 'grade.challenger', data: bytesOf(holdout.grades.challenger.codes) });
+  if (holdout.period) columns.push({ name: 'period', data: bytesOf(holdout.period.codes) });
   if (holdout.weight) columns.push({ name: 'weight', data: bytesOf(holdout.weight) });
   if (holdout.known) columns.push({ name: 'known', data: bytesOf(holdout.known) });
   if (holdout.inferredBad) columns.push({ name: 'inferredBad', data: bytesOf(holdout.inferredBad) });
@@ -74,10 +80,16 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
     if (!bytes) throw new Error(`stored column ${name} is missing`);
     return bytes;
   };
+  const categorical = (stored: { column: string; levels: string[] } | null | undefined, name: string) =>
+    stored ? { column: stored.column, levels: stored.levels, codes: viewAs(Uint32Array, get(name), n, name) } : null;
+  const extras: Pick<EngineHoldout, 'grades' | 'period'> = {};
+  if (input.grades) extras.grades = { champion: categorical(input.grades.champion, 'grade.champion'), challenger: categorical(input.grades.challenger, 'grade.challenger') };
+  if (input.period) extras.period = categorical(input.period, 'period');
   const weight = stored.get('weight');
   const known = stored.get('known');
   const inferredBad = stored.get('inferredBad');
   return {
+    ...extras,
     ...(weight ? { weight: viewAs(Float64Array, weight, n, 'weight') } : {}),
     ...(known ? { known: viewAs(Uint8Array, known, n, 'known') } : {}),
     ...(inferredBad ? { inferredBad: viewAs(Float64Array, inferredBad, n, 'inferredBad') } : {}),
@@ -111,4 +123,22 @@ export function decodeOrders(n: number, stored: ReadonlyMap<string, Uint8Array>)
     champion: viewAs(Uint32Array, champion, n, orderColumn('champion')),
     challenger: viewAs(Uint32Array, challenger, n, orderColumn('challenger')),
   };
+}
+
+/** The PSI's reference sample's scores, when the run has them. */
+export function decodeReference(input: RunInput, stored: ReadonlyMap<string, Uint8Array>): { champion: Float64Array; challenger: Float64Array } | null {
+  if (!input.reference) return null;
+  const get = (name: string): Float64Array => {
+    const bytes = stored.get(name);
+    if (!bytes) throw new Error(`stored column ${name} is missing`);
+    return viewAs(Float64Array, bytes, input.reference!.rows, name);
+  };
+  return { champion: get('reference.champion'), challenger: get('reference.challenger') };
+}
+
+export function encodeReference(scores: { champion: Float64Array; challenger: Float64Array }): EncodedColumn[] {
+  return [
+    { name: 'reference.champion', data: bytesOf(scores.champion) },
+    { name: 'reference.challenger', data: bytesOf(scores.challenger) },
+  ];
 }

@@ -7,7 +7,8 @@ import { loadHoldout, validateHoldout } from '../reader/load';
 import { type HoldoutScan, scanHoldout } from '../reader/scan';
 import { startWorker } from '../runtime';
 import { StatisticError } from '../stats/statistic-error';
-import { encodeHoldout, type EncodedColumn } from './columns';
+import { loadReference } from '../reader/load-reference';
+import { encodeHoldout, encodeReference, type EncodedColumn } from './columns';
 
 /**
  * The reader's work for the API — scanning an upload, applying a mapping to a stored holdout,
@@ -21,14 +22,27 @@ import { encodeHoldout, type EncodedColumn } from './columns';
 export type ReaderTask =
   | { task: 'scan'; path: string; fileName: string }
   | { task: 'map'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean }
-  | { task: 'validate'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean };
+  | { task: 'validate'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean }
+  | { task: 'reference'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean };
 
 export interface MappedHoldout {
   input: RunInput;
   columns: EncodedColumn[];
 }
 
-type TaskValue<T extends ReaderTask> = T extends { task: 'scan' } ? HoldoutScan : T extends { task: 'map' } ? MappedHoldout : ValidationReport;
+/** A reference sample's scores, ready to store with a run. */
+export interface MappedReference {
+  reference: NonNullable<RunInput['reference']>;
+  columns: EncodedColumn[];
+}
+
+type TaskValue<T extends ReaderTask> = T extends { task: 'scan' }
+  ? HoldoutScan
+  : T extends { task: 'map' }
+    ? MappedHoldout
+    : T extends { task: 'reference' }
+      ? MappedReference
+      : ValidationReport;
 
 export type ReaderReply =
   | { ok: true; value: unknown }
@@ -86,13 +100,26 @@ async function mapStored(task: Extract<ReaderTask, { task: 'map' }>): Promise<Ma
     hasExposure: holdout.exposure !== null,
     segments: holdout.segments.map((segment) => ({ column: segment.column, levels: segment.levels })),
   };
+  const levels = (column: { column: string; levels: string[] } | null) => (column === null ? null : { column: column.column, levels: column.levels });
+  if (holdout.grades) input.grades = { champion: levels(holdout.grades.champion), challenger: levels(holdout.grades.challenger) };
+  if (holdout.period) input.period = levels(holdout.period);
   return { input, columns: encodeHoldout(holdout) };
+}
+
+async function referenceStored(task: Extract<ReaderTask, { task: 'reference' }>): Promise<MappedReference> {
+  const file = storedFile(task.databasePath, task.holdoutId);
+  const loaded = await loadReference({ bytes: file.bytes, fileName: file.fileName }, task.mapping, { dropMissing: task.dropMissing });
+  return {
+    reference: { holdoutId: task.holdoutId, fileName: loaded.fileName, sha256: loaded.sha256, rows: loaded.champion.length },
+    columns: encodeReference(loaded),
+  };
 }
 
 /** Does the task on this thread (what the worker runs). */
 export async function performReaderTask(task: ReaderTask): Promise<unknown> {
   if (task.task === 'scan') return scanHoldout({ path: task.path, fileName: task.fileName });
   if (task.task === 'map') return mapStored(task);
+  if (task.task === 'reference') return referenceStored(task);
   const file = storedFile(task.databasePath, task.holdoutId);
   const result = await validateHoldout({ bytes: file.bytes, fileName: file.fileName }, task.mapping, { dropMissing: task.dropMissing, maxErrors: 50 });
   return { ok: result.ok, errors: result.errors, summary: result.summary } satisfies ValidationReport;
@@ -107,9 +134,9 @@ export function replyOf(error: unknown): ReaderReply {
 
 /** Buffers a reply can transfer: the mapped columns' own, whole buffers. */
 export function transferList(task: ReaderTask, value: unknown): ArrayBuffer[] {
-  if (task.task !== 'map') return [];
+  if (task.task !== 'map' && task.task !== 'reference') return [];
   const buffers = new Set<ArrayBuffer>();
-  for (const { data } of (value as MappedHoldout).columns) {
+  for (const { data } of (value as MappedHoldout | MappedReference).columns) {
     if (data.byteOffset === 0 && data.byteLength === data.buffer.byteLength && data.buffer instanceof ArrayBuffer && data.byteLength > 4096) buffers.add(data.buffer);
   }
   return [...buffers];
@@ -125,9 +152,9 @@ export function runReaderTask<T extends ReaderTask>(task: T): Promise<TaskValue<
       void worker.terminate();
       if (reply.ok) {
         const value = reply.value as TaskValue<T>;
-        if (task.task === 'map') {
+        if (task.task === 'map' || task.task === 'reference') {
           // Structured clone turns Buffers into Uint8Arrays: views again, no copy.
-          for (const column of (value as MappedHoldout).columns) column.data = Buffer.from(column.data.buffer, column.data.byteOffset, column.data.byteLength);
+          for (const column of (value as MappedHoldout | MappedReference).columns) column.data = Buffer.from(column.data.buffer, column.data.byteOffset, column.data.byteLength);
         }
         resolve(value);
       } else if (reply.kind === 'input') reject(new HoldoutInputError(reply.code, reply.message, reply.row, reply.column));

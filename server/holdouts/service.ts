@@ -10,7 +10,7 @@ import { notFound } from '../errors';
 import { sanitiseFileName } from './file-name';
 import { asBadInput } from './input-error';
 import { presentHoldout } from './present';
-import { type MappedHoldout, runReaderTask } from './reading';
+import { type MappedHoldout, type MappedReference, runReaderTask } from './reading';
 import { ensureRoomFor } from './free-space';
 import { CHUNK_BYTES, storeHoldoutFile } from './storage';
 
@@ -88,6 +88,11 @@ export async function validateMapping(ctx: AppContext, id: number, mapping: Colu
  * columns in typed-array form, ready to store. Bad data → 400 naming the row and column (nothing
  * has been stored yet).
  */
+/** The PSI's reference sample: the mapping's score columns read from another stored holdout (on the reader's thread). */
+export async function mapReference(ctx: AppContext, holdout: Holdout, mapping: ColumnMapping, dropMissing: boolean): Promise<MappedReference> {
+  return asBadInput(() => runReaderTask({ task: 'reference', databasePath: ctx.config.databasePath, holdoutId: holdout.id, mapping, dropMissing }));
+}
+
 export async function mapHoldout(ctx: AppContext, holdout: Holdout, mapping: ColumnMapping, dropMissing: boolean): Promise<MappedHoldout> {
   return asBadInput(() => runReaderTask({ task: 'map', databasePath: ctx.config.databasePath, holdoutId: holdout.id, mapping, dropMissing }));
 }

@@ -1,5 +1,5 @@
 import { parentPort, workerData } from 'node:worker_threads';
-import { decodeHoldout } from '../holdouts/columns';
+import { decodeHoldout, decodeReference } from '../holdouts/columns';
 import { HoldoutInputError } from '../reader/errors';
 import { argsortAscending, safety } from '../stats/order';
 import { preparePolicyData } from '../stats/policy-data';
@@ -34,6 +34,10 @@ async function main(): Promise<void> {
     settings,
     policy: job.policy,
     read: input.read,
+    reference: (() => {
+      const scores = decodeReference(input, columns);
+      return scores && input.reference ? { fileName: input.reference.fileName, sha256: input.reference.sha256, ...scores } : null;
+    })(),
     onProgress: ({ fraction, stage }) => {
       const now = Date.now();
       if (now - lastPost < 100 && fraction < 1) return;

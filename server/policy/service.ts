@@ -15,7 +15,19 @@ import { now } from '../clock';
  * changed (database triggers refuse it), so every verdict can be read back under its own rules.
  */
 
-const policyKeys = ['alpha', 'sided', 'materialityGiniPoints', 'requireIntervalAboveZero', 'swapRule', 'minBads', 'quorum'] as const;
+const policyKeys = [
+  'alpha',
+  'sided',
+  'materialityGiniPoints',
+  'requireIntervalAboveZero',
+  'swapRule',
+  'minBads',
+  'quorum',
+  // Calibration and stability criteria.
+  'calibrationRule',
+  'psiRule',
+  'periodSignRule',
+] as const;
 
 function toPolicy(row: PolicyVersion): AdoptionPolicy {
   // Parse on the way out: a stored row always satisfies the schema the API promises.
@@ -68,6 +80,10 @@ export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUp
     swapRule: { enabled: fields.swapRule.enabled, approvalRate: fields.swapRule.approvalRate },
     minBads: fields.minBads,
     quorum: fields.quorum,
+    // Calibration and stability criteria.
+    calibrationRule: { enabled: fields.calibrationRule.enabled, alpha: fields.calibrationRule.alpha },
+    psiRule: { enabled: fields.psiRule.enabled, threshold: fields.psiRule.threshold },
+    periodSignRule: { enabled: fields.periodSignRule.enabled, minBads: fields.periodSignRule.minBads },
   };
   const version = await inTransaction(ctx.dataSource, async (manager) => {
     const previous = await newestRow(manager);
@@ -75,8 +91,10 @@ export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUp
     const repository = manager.getRepository(PolicyVersion);
     await repository.insert({ version: next, policy: stored, reason, createdById: actor.id, createdAt: now() });
     const changes: Record<string, { from: unknown; to: unknown }> = {};
+    // Read through the schema, so that fields an older version lacks count as their defaults.
+    const before = toPolicy(previous);
     for (const key of policyKeys) {
-      if (!sameValue(previous.policy[key], stored[key])) changes[key] = { from: previous.policy[key], to: stored[key] };
+      if (!sameValue(before[key], stored[key])) changes[key] = { from: before[key], to: stored[key] };
     }
     await recordAudit(manager, {
       actor,

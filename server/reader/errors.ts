@@ -27,6 +27,8 @@ export type HoldoutInputCode =
   | 'bad_weight'
   | 'bad_probability'
   | 'unsupported_weight'
+  | 'pd_orientation'
+  | 'not_a_probability'
   | 'no_such_sheet';
 
 export class HoldoutInputError extends Error {

@@ -117,9 +117,25 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       throw new HoldoutInputError('same_column', `column ${columnName(name)} is mapped as both the outcome and the ${role}'s score`, null, name);
     }
   }
+  const pdModels = (['champion', 'challenger'] as const).filter((model) => mapping.probabilityOfDefault?.[model] === true);
+  for (const model of pdModels) {
+    if (mapping.higherIs[model] !== 'riskier') {
+      throw new HoldoutInputError(
+        'pd_orientation',
+        `column ${columnName(mapping[model])}: a probability of default is higher = riskier; set the ${model}'s orientation to riskier or do not mark it as a probability of default`,
+        null,
+        mapping[model],
+      );
+    }
+  }
   const info = sourceInfo(source);
   const dropMissing = options.dropMissing ?? false;
-  const segmentNames = mapping.segments ?? [];
+  // Grade and period columns are read like segment columns and split off at the end.
+  const gradeChampion = mapping.grades?.champion ?? null;
+  const gradeChallenger = mapping.grades?.challenger ?? null;
+  const periodName = mapping.period ?? null;
+  const extraNames = [gradeChampion, gradeChallenger, periodName].filter((name): name is string => name !== null);
+  const segmentNames = [...(mapping.segments ?? []), ...extraNames.filter((name) => !(mapping.segments ?? []).includes(name))];
   const idName = mapping.id ?? null;
   const exposureName = mapping.exposure ?? null;
   const weightName = mapping.weight ?? null;
@@ -306,6 +322,20 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           if (b === MISSING) missingScore = true;
           if (!scoreProblem(b, mapping.challenger, row[challengerAt], line)) ok = false;
         }
+        for (const model of pdModels) {
+          const value = model === 'champion' ? a : b;
+          if (typeof value === 'number' && !(value >= 0 && value <= 1)) {
+            sink.report(
+              new HoldoutInputError(
+                'not_a_probability',
+                `${where(line, mapping[model])}: ${quoteCell(String(value))} is not a probability of default (0 to 1), and the ${model}'s score is marked as one`,
+                line,
+                mapping[model],
+              ),
+            );
+            ok = false;
+          }
+        }
         if ((outcome < 0 || outcome === UNKNOWN) && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
 
         let rowWeight = 1;
@@ -451,11 +481,13 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
 
   const badFlags = new Uint8Array(n);
   for (let i = 0; i < n; i++) badFlags[i] = bad.data[i];
-  const segments: SegmentColumn[] = segmentNames.map((column, s) => ({
+  const categorical: SegmentColumn[] = segmentNames.map((column, s) => ({
     column,
     levels: [...segmentLevels[s].keys()],
     codes: segmentCodes[s].data.slice(0, n),
   }));
+  const segments = categorical.slice(0, (mapping.segments ?? []).length);
+  const categoricalColumn = (name: string | null) => (name === null ? null : categorical[segmentNames.indexOf(name)]);
   const holdout: Holdout = {
     n,
     bad: badFlags,
@@ -466,6 +498,8 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     ids,
     segments,
   };
+  if (gradeChampion !== null || gradeChallenger !== null) holdout.grades = { champion: categoricalColumn(gradeChampion), challenger: categoricalColumn(gradeChallenger) };
+  if (periodName !== null) holdout.period = categoricalColumn(periodName);
   if (weight !== null) holdout.weight = weight.finish();
   if (known !== null && unknownRows > 0) {
     const flags = new Uint8Array(n);

@@ -18,6 +18,10 @@ export interface Holdout {
   ids: string[] | null;
   /** Categorical columns: the distinct values and each account's index into them. */
   segments: SegmentColumn[];
+  /** Rating grade column of each model (calibration by grade), when mapped. */
+  grades?: { champion: SegmentColumn | null; challenger: SegmentColumn | null };
+  /** Month or vintage column (stability by period), when mapped. */
+  period?: SegmentColumn | null;
   /** Sampling weight per row (positive, finite): the applicants the row stands for; absent = 1 each. */
   weight?: Float64Array | null;
   /** 1 = the outcome is known, 0 = no outcome (kept with keep-unknown; bad is 0 there); absent = all known. */

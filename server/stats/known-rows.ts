@@ -1,5 +1,5 @@
 import type { Population } from '@shared/report';
-import type { Holdout } from './holdout';
+import type { Holdout, SegmentColumn } from './holdout';
 
 /**
  * The rows with a known outcome, as a holdout of their own (weights, exposure, ids and segment
@@ -23,6 +23,11 @@ export function knownRows(holdout: Holdout): Holdout {
   };
   const bad = new Uint8Array(m);
   for (let k = 0; k < m; k++) bad[k] = holdout.bad[rows[k]];
+  const pickCodes = (column: SegmentColumn): SegmentColumn => {
+    const codes = new Uint32Array(m);
+    for (let k = 0; k < m; k++) codes[k] = column.codes[rows[k]];
+    return { ...column, codes };
+  };
   return {
     n: m,
     bad,
@@ -39,6 +44,11 @@ export function knownRows(holdout: Holdout): Holdout {
     weight: holdout.weight ? pickF(holdout.weight) : null,
     known: null,
     inferredBad: null,
+    // Grade and period columns (calibration and stability), when mapped.
+    ...(holdout.grades
+      ? { grades: { champion: holdout.grades.champion ? pickCodes(holdout.grades.champion) : null, challenger: holdout.grades.challenger ? pickCodes(holdout.grades.challenger) : null } }
+      : {}),
+    ...(holdout.period !== undefined ? { period: holdout.period ? pickCodes(holdout.period) : null } : {}),
   };
 }
 

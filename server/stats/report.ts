@@ -13,6 +13,7 @@ import {
 } from '@shared/report';
 import { bandTable } from './bands';
 import { bootstrap } from './bootstrap';
+import { calibrationSection, type ReferenceSample, stabilitySection } from './calibration-stability';
 import { curves } from './curves';
 import { dataQuality } from './data-quality';
 import { pairedDelong } from './delong';
@@ -47,10 +48,12 @@ import { verdict } from './verdict';
  * strategy curve and the band tables use every row, weighted, with bad rates of the known
  * accounts and the reject inference of the settings (policy-data.ts, swap-sets-weighted.ts). The
  * report then carries `population`. Without either, the report is as before to the byte.
+ * Calibration and stability (calibration-stability.ts) come last, on the rows with a known
+ * outcome, weighted, before the verdict.
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
-export const engineVersion = '1.2.0';
+export const engineVersion = '1.3.0';
 
 export interface AnalysisProgress {
   /** 0 to 1. */
@@ -72,6 +75,8 @@ export interface BuildReportInput {
   onProgress?: (progress: AnalysisProgress) => void;
   /** Bootstrap threads (see bootstrap.ts); default one per core for large jobs. */
   threads?: number;
+  /** The development sample's scores, for the PSI (calibration-stability.ts); null or absent: none. */
+  reference?: ReferenceSample | null;
 }
 
 const count = (value: number) => formatCount(value);
@@ -196,6 +201,21 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     economics: profit,
     verdict: { outcome: 'not-proven', policyVersion: policy.version, criteria: [], summary: '' },
   };
+  // On the rows with a known outcome (their own bands), with their sampling weights.
+  const weights: Float64Array | null = knownHoldout.weight ?? null;
+  const sectionInput = {
+    holdout: knownHoldout,
+    data: knownData,
+    settings,
+    policy,
+    pd: { champion: mapping.probabilityOfDefault?.champion === true, challenger: mapping.probabilityOfDefault?.challenger === true },
+    columns: { champion: mapping.champion, challenger: mapping.challenger },
+    weights,
+    overallDeltaGini: difference.gini,
+    reference: request.reference ?? null,
+  };
+  result.calibration = calibrationSection(sectionInput);
+  result.stability = stabilitySection(sectionInput);
   result.verdict = verdict(result, policy, swapAtPolicyRate);
   report(1, 'Done');
   return result;

@@ -2,6 +2,7 @@ import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } 
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
+import { stabilityCriteria } from './verdict-stability';
 import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
@@ -22,7 +23,7 @@ import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
  * Cost: O(1).
  */
 
-export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'>;
+export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'> & Partial<Pick<Report, 'calibration' | 'stability'>>;
 
 export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null): Verdict {
   const { difference } = report;
@@ -95,6 +96,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
         ? `${count(report.bads)} bads in the holdout, at least the ${count(policy.minBads)} required`
         : `only ${count(report.bads)} bads in the holdout; the policy requires at least ${count(policy.minBads)}`,
   });
+  criteria.push(...stabilityCriteria(report, policy));
 
   const significantlyWorse =
     policy.sided === 'one-sided'

@@ -75,6 +75,8 @@ export const paths = {
     swapSets: comparison('/swap-sets'),
     segments: comparison('/segments'),
     bands: comparison('/bands'),
+    calibration: comparison('/calibration'),
+    stability: comparison('/stability'),
     data: comparison('/data'),
     review: comparison('/review'),
     report: comparison('/report'),

@@ -1,5 +1,5 @@
 import { governanceSchema, policyVersionSchema, policyVersionsSchema, verdictRecordSchema, type Governance } from '@shared/governance';
-import { defaultAdoptionPolicy } from '@shared/policy';
+import { adoptionPolicySchema, defaultAdoptionPolicy } from '@shared/policy';
 import type { Report, SwapSets } from '@shared/report';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seededPolicy } from '@server/db/migrations/1764806400000-governance';
@@ -45,8 +45,9 @@ describe('adoption policy versions', () => {
     const current = policyVersionSchema.parse(response.body);
     expect(current.policy).toEqual(defaultAdoptionPolicy);
     expect(current.createdBy).toBeNull();
-    // The migration writes its own copy of the defaults; it must stay equal to shared/policy.ts.
-    expect({ ...seededPolicy, version: 1 }).toEqual(defaultAdoptionPolicy);
+    // The migration writes its own copy of the defaults; read through the schema (which gives the
+    // criteria added later, off, their defaults) it must stay equal to shared/policy.ts.
+    expect(adoptionPolicySchema.parse({ ...seededPolicy, version: 1 })).toEqual(defaultAdoptionPolicy);
   });
 
   it('refuses a change without a reason or with an out-of-range field (400), and names the field', async () => {

@@ -86,12 +86,31 @@ describe('the demo on first start', () => {
     expect(Math.abs(cards.deltaGini! * 100 + 5.5)).toBeLessThan(0.05);
     expect(full.verdict.outcome).toBe('supported');
 
-    // The PD file holds the same accounts with the challenger's PD (the generator: both challenger
-    // columns come from the same safety value, points rounded to whole numbers), so the two
-    // comparisons differ only by the rounding's ties: within 0.5 Gini points.
+    // The PD file holds the same accounts and champion; the challenger's PD is the same safety
+    // value as its points except for brokered cards from July, whose PD is pulled down and blurred
+    // (sample-data/pd-and-development.ts): its Gini is lower than the points challenger's (measured
+    // 1.8 points lower), the champion's identical.
     const pd = await report(seeded.comparisons[1].id);
     expect(pd.challenger.higherIs).toBe('riskier');
-    expect(Math.abs(pd.challenger.gini - full.challenger.gini)).toBeLessThan(0.005);
+    expect(pd.champion.gini).toBe(full.champion.gini);
+    expect(full.challenger.gini - pd.challenger.gini).toBeGreaterThan(0.005);
+    expect(full.challenger.gini - pd.challenger.gini).toBeLessThan(0.03);
+  });
+
+  it("shows the PD challenger's calibration failing in a band, the uplift turning over the months, and a PSI against the development sample", async () => {
+    const pd = await report(seeded.comparisons[1].id);
+    // The story of sample-data/pd-and-development.ts: from July brokered cards arrive with
+    // optimistic, unverified cash-flow figures. Figures: `npm run -s compare --
+    // sample-data/tallowmere-holdout-2025-pd.csv --outcome bad_12m --champion champion_points
+    // --challenger challenger_pd --champion-higher-is safer --challenger-higher-is riskier --pd challenger
+    // --period application_month --reference sample-data/tallowmere-development-2023.csv`.
+    const calibration = pd.calibration!.challenger!;
+    expect(calibration.portfolio.jeffreysP).toBeGreaterThan(0.05);
+    expect(calibration.rows.filter((row) => row.fails).map((row) => row.label)).toEqual(['Band 10']);
+    expect(pd.stability!.signChanges).toEqual(['2025-09', '2025-12']);
+    expect(pd.stability!.psi!.reference).toMatchObject({ kind: 'file', fileName: 'tallowmere-development-2023.csv', rows: 40_000 });
+    expect(pd.stability!.psi!.challenger.rating).toBe('stable');
+    expect(pd.stability!.psi!.challenger.significant).toBe(true);
   });
 
   it('keeps the decided comparison\'s whole history: submission, validating review, scenarios, annotations, discussion, two votes, the decision', async () => {

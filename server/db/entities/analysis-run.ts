@@ -31,6 +31,12 @@ export interface RunInput {
   hasExposure: boolean;
   /** Segment columns in mapping order, with their values (the stored codes index into them). */
   segments: { column: string; levels: string[] }[];
+  /** Grade columns (stored as `grade.champion` / `grade.challenger` codes), when mapped. */
+  grades?: { champion: { column: string; levels: string[] } | null; challenger: { column: string; levels: string[] } | null };
+  /** Period column (stored as `period` codes), when mapped. */
+  period?: { column: string; levels: string[] } | null;
+  /** The PSI's reference sample (stored as `reference.champion` / `reference.challenger`), when one was chosen. */
+  reference?: { holdoutId: number; fileName: string; sha256: string; rows: number } | null;
 }
 
 /**
@@ -62,6 +68,15 @@ export class AnalysisRun {
   @ManyToOne(() => Holdout, { onDelete: 'RESTRICT' })
   @JoinColumn({ name: 'holdoutId' })
   holdout: Holdout;
+
+  /**
+   * The PSI's reference sample (a second uploaded holdout), when the set-up chose one. A plain
+   * column, added by ALTER TABLE (a foreign key would need the table rebuilt); holdouts have no
+   * delete path, and its uploader counts among the comparison's authors (authors.ts).
+   */
+  @Index()
+  @Column({ type: 'integer', nullable: true })
+  referenceHoldoutId: number | null;
 
   @Column({ type: 'text' })
   status: RunStatus;

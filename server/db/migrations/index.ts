@@ -1,7 +1,14 @@
 import { Foundation1764614400000 } from './1764614400000-foundation';
 import { HoldoutsComparisonsRuns1764633600000 } from './1764633600000-holdouts-comparisons-runs';
 import { Governance1764806400000 } from './1764806400000-governance';
+import { ReferenceSample1764930000000 } from './1764930000000-reference-sample';
 import { DecisionPacks1764940000000 } from './1764940000000-decision-packs';
 
 /** Every migration in order, listed by hand: the server is bundled by esbuild, so there are no globs. */
-export const migrations = [Foundation1764614400000, HoldoutsComparisonsRuns1764633600000, Governance1764806400000, DecisionPacks1764940000000];
+export const migrations = [
+  Foundation1764614400000,
+  HoldoutsComparisonsRuns1764633600000,
+  Governance1764806400000,
+  ReferenceSample1764930000000,
+  DecisionPacks1764940000000,
+];

@@ -148,8 +148,21 @@ describe('compare CLI', () => {
         exposure: 'amount',
       },
       settings: { bootstrap: 500, seed: 7, confidence: 0.9, cutoffs: { champion: 0.2, challenger: 610 }, dropMissing: true },
+      reference: null,
     });
     expect(parseCommand(['f.csv', '--approval-rate', '0.8', '--champion-higher-is', 'riskier']).settings.approvalRate).toBe(0.8);
+  });
+
+  it('reads the calibration and stability options, and refuses inconsistent ones', () => {
+    const command = parseCommand(['f.csv', '--pd', 'challenger', '--grade-challenger', 'grade', '--period', 'month', '--reference', 'dev.csv']);
+    expect(command.mapping).toMatchObject({ probabilityOfDefault: { champion: false, challenger: true }, grades: { champion: null, challenger: 'grade' }, period: 'month' });
+    expect(command.reference).toBe('dev.csv');
+    expect(parseCommand(['f.csv', '--period', 'month', '--reference-period', '2025-01']).settings.referencePeriod).toBe('2025-01');
+    expect(() => parseCommand(['f.csv', '--pd', 'both'])).toThrow(/--pd must be/);
+    expect(() => parseCommand(['f.csv', '--reference-period', '2025-01'])).toThrow(/needs --period/);
+    expect(() => parseCommand(['f.csv', '--period', 'm', '--reference', 'd.csv', '--reference-period', 'x'])).toThrow(/not both/);
+    // Without these options the mapping keeps its earlier form (no new keys).
+    expect(parseCommand(['f.csv']).mapping).not.toHaveProperty('probabilityOfDefault');
   });
 
   it('drops rows with missing scores with --drop-missing and counts them', async () => {

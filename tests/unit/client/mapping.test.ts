@@ -33,6 +33,23 @@ describe('the column-mapping form', () => {
       unknownValues: '',
       inferredBad: '',
       dropMissing: false,
+      pd: { champion: false, challenger: false },
+      grades: { champion: '', challenger: '' },
+      period: '',
+    });
+  });
+
+  it('marks a score as a probability of default only with higher = riskier, and passes PD, grade and period on', () => {
+    const base = mappingFormDefaults(guess);
+    const wrong = mappingFormSchema.safeParse({ ...base, pd: { champion: true, challenger: false } });
+    expect(wrong.success).toBe(false);
+    expect(wrong.error!.issues[0]).toMatchObject({ path: ['pd', 'champion'], message: expect.stringMatching(/higher = riskier/) });
+    const values = { ...base, pd: { champion: false, challenger: true }, grades: { champion: '', challenger: 'grade' }, period: 'application_month' };
+    expect(mappingFormSchema.safeParse(values).success).toBe(true);
+    expect(toColumnMapping(values)).toMatchObject({
+      probabilityOfDefault: { champion: false, challenger: true },
+      grades: { champion: null, challenger: 'grade' },
+      period: 'application_month',
     });
   });
 

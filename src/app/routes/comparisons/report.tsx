@@ -31,6 +31,7 @@ import {
   ReportSwapTable,
   ReportTests,
 } from '@/features/governance/components/report/report-evidence';
+import { ReportCalibrationStability } from '@/features/governance/components/report/report-calibration';
 import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/components/report/report-table';
 import { scenariosQueryOptions, useScenarios } from '@/features/swap-sets/api/get-scenarios';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
@@ -144,6 +145,10 @@ export function Component() {
           <GiniContext report={report} />
         </ReportBlock>
         <ReportTests report={report} />
+      </ReportPart>
+
+      <ReportPart title="Calibration and stability" id="report-calibration">
+        <ReportCalibrationStability report={report} />
       </ReportPart>
 
       <ReportPart title="Who changes sides: swap sets and segments" id="report-swap">

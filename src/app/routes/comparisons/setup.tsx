@@ -14,6 +14,7 @@ import { LoadingState } from '@/components/loading-state';
 import { PageHeader } from '@/components/page-header';
 import { Steps } from '@/components/steps';
 import { comparisonQueryOptions, isRunActive, useComparison } from '@/features/comparisons/api/get-comparison';
+import { type ReferenceChoice, ReferenceSampleField } from '@/features/holdouts/components/reference-sample-field';
 import { useSetupComparison } from '@/features/comparisons/api/setup-comparison';
 import { AnalysisSettingsForm, type SettingsFormValues, settingsDefaults } from '@/features/comparisons/components/analysis-settings-form';
 import { holdoutQueryOptions, useHoldout } from '@/features/holdouts/api/get-holdout';
@@ -54,6 +55,7 @@ export function Component() {
   const [report, setReport] = useState<ValidationReport | null>(null);
   const [settings, setSettings] = useState<SettingsFormValues | null>(null);
   const [roles, setRoles] = useState<Record<string, string>>({});
+  const [reference, setReference] = useState<ReferenceChoice>({ kind: 'none' });
   const onRolesChange = useCallback((next: Record<string, string>) => setRoles(next), []);
 
   if (comparison.isPending || holdout.isPending) return <LoadingState label="Loading the comparison…" variant="skeleton" />;
@@ -109,7 +111,12 @@ export function Component() {
     // The reject inference is recorded only for mappings that keep applicants without an outcome.
     const { rejectInference, ...rest } = values;
     setup.mutate(
-      { id, mapping, settings: { ...rest, ...(mapping.keepUnknown ? { rejectInference } : {}), dropMissing: dropMissing ?? false } },
+      {
+        id,
+        mapping,
+        settings: { ...rest, ...(mapping.keepUnknown ? { rejectInference } : {}), dropMissing: dropMissing ?? false, referencePeriod: reference.kind === 'period' ? reference.period : null },
+        referenceHoldoutId: reference.kind === 'file' ? reference.holdout.id : null,
+      },
       { onSuccess: () => navigate(paths.comparisons.detail(id)) },
     );
   };
@@ -183,6 +190,11 @@ export function Component() {
               <div className="mb-5 space-y-3">
                 <RowErrorsTable errors={setupErrors} />
                 <Button onClick={() => setStep('mapping')}>Back to the column mapping</Button>
+              </div>
+            ) : null}
+            {mapping ? (
+              <div className="mb-5">
+                <ReferenceSampleField value={reference} onChange={setReference} periodColumn={mapping.period ?? null} scoreColumns={{ champion: mapping.champion, challenger: mapping.challenger }} />
               </div>
             ) : null}
             <AnalysisSettingsForm

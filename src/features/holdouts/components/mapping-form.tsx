@@ -90,8 +90,8 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
       </fieldset>
 
       <div className="grid gap-6 md:grid-cols-2">
-        <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} />
-        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} />
+        <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} pdError={errors.pd?.champion?.message} gradeError={errors.grades?.champion?.message} />
+        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} pdError={errors.pd?.challenger?.message} gradeError={errors.grades?.challenger?.message} />
       </div>
 
       <fieldset className="grid gap-4 md:grid-cols-2">
@@ -105,6 +105,14 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
           error={errors.weight?.message}
           options={[none, ...numericOptions]}
           {...register('weight')}
+        />
+        <Select
+          label="Month or vintage"
+          optional
+          hint="Both models and the uplift by period, on the Stability tab."
+          error={errors.period?.message}
+          options={[none, ...columnOptions]}
+          {...register('period')}
         />
         <CheckboxGroup
           legend="Segments"
@@ -171,6 +179,8 @@ function ScoreFields({
   values,
   error,
   columnOptions,
+  pdError,
+  gradeError,
 }: {
   model: 'champion' | 'challenger';
   holdout: HoldoutInfo;
@@ -178,6 +188,8 @@ function ScoreFields({
   values: DeepPartial<MappingFormValues>;
   error?: string;
   columnOptions: { value: string; label: string }[];
+  pdError?: string;
+  gradeError?: string;
 }) {
   const column = values[model];
   const chosen = values.higherIs?.[model];
@@ -203,6 +215,13 @@ function ScoreFields({
         <Radio value="safer" label="Higher is safer" hint="points" {...register(`higherIs.${model}`)} />
         <Radio value="riskier" label="Higher is riskier" hint="a PD" {...register(`higherIs.${model}`)} />
       </RadioGroup>
+      <Checkbox
+        label="This score is a probability of default"
+        hint="Values from 0 to 1, higher = riskier: its calibration (Jeffreys test by band or grade) is computed."
+        error={pdError}
+        {...register(`pd.${model}`)}
+      />
+      <Select label="Rating grade column" optional hint="Calibration by grade instead of by band." error={gradeError} options={[{ value: '', label: 'None' }, ...columnOptions]} {...register(`grades.${model}`)} />
       {disagrees ? (
         <Callout tone="caution" title="The data point the other way">
           <p>

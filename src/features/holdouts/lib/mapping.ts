@@ -27,6 +27,12 @@ export const mappingFormSchema = z
     inferredBad: z.string(),
     /** Leave out rows with an empty score (counted in the report) instead of stopping. */
     dropMissing: z.boolean(),
+    /** "This score is a probability of default": its calibration is computed. */
+    pd: z.object({ champion: z.boolean(), challenger: z.boolean() }),
+    /** Rating grade columns ("" for none): calibration by grade. */
+    grades: z.object({ champion: z.string(), challenger: z.string() }),
+    /** Month or vintage column ("" for none): stability by period. */
+    period: z.string(),
   })
   .superRefine((value, context) => {
     const used = new Map<string, string>();
@@ -46,6 +52,14 @@ export const mappingFormSchema = z
       if (other) context.addIssue({ code: 'custom', path: [field], message: `"${column}" is already ${other}` });
       else used.set(column, label);
     }
+    for (const model of ['champion', 'challenger'] as const) {
+      if (value.pd[model] && value.higherIs[model] !== 'riskier') {
+        context.addIssue({ code: 'custom', path: ['pd', model], message: 'A probability of default is higher = riskier: change the orientation or clear this box' });
+      }
+      const grade = value.grades[model];
+      if (grade !== '' && used.has(grade)) context.addIssue({ code: 'custom', path: ['grades', model], message: `"${grade}" is already ${used.get(grade)}` });
+    }
+    if (value.period !== '' && used.has(value.period)) context.addIssue({ code: 'custom', path: ['period'], message: `"${value.period}" is already ${used.get(value.period)}` });
     for (const segment of value.segments) {
       const other = used.get(segment);
       if (other) context.addIssue({ code: 'custom', path: ['segments'], message: `"${segment}" is already ${other}; it cannot also be a segment` });
@@ -71,6 +85,9 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
       unknownValues: (previous.unknownValues ?? []).join(', '),
       inferredBad: previous.inferredBad ?? '',
       dropMissing,
+      pd: { champion: previous.probabilityOfDefault?.champion ?? false, challenger: previous.probabilityOfDefault?.challenger ?? false },
+      grades: { champion: previous.grades?.champion ?? '', challenger: previous.grades?.challenger ?? '' },
+      period: previous.period ?? '',
     };
   }
   return {
@@ -87,6 +104,9 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
     unknownValues: '',
     inferredBad: '',
     dropMissing,
+    pd: { champion: false, challenger: false },
+    grades: { champion: '', challenger: '' },
+    period: '',
   };
 }
 
@@ -110,6 +130,9 @@ export function toColumnMapping(values: MappingFormValues): ColumnMapping {
     ...(values.keepUnknown
       ? { keepUnknown: true, unknownValues: parseUnknownValues(values.unknownValues), inferredBad: values.inferredBad || null }
       : {}),
+    ...(values.pd.champion || values.pd.challenger ? { probabilityOfDefault: { champion: values.pd.champion, challenger: values.pd.challenger } } : {}),
+    ...(values.grades.champion || values.grades.challenger ? { grades: { champion: values.grades.champion || null, challenger: values.grades.challenger || null } } : {}),
+    ...(values.period ? { period: values.period } : {}),
   });
 }
 

@@ -11,6 +11,7 @@ import { Radio, RadioGroup } from '@/components/radio-group';
 import { TextAreaField } from '@/components/text-area-field';
 import { TextField } from '@/components/text-field';
 import { useUpdatePolicy } from '@/features/policy/api/update-policy';
+import { StabilityRulesFields } from '@/features/policy/components/stability-rules-fields';
 
 /**
  * The admin's form for a new version of the adoption policy. Saving never changes a stored
@@ -111,6 +112,7 @@ export function PolicyForm({ current, onSaved }: { current: PolicyVersion; onSav
             />
           ) : null}
         </div>
+        <StabilityRulesFields register={register} control={control} errors={errors} />
         <TextField
           label="Quorum of committee votes"
           type="number"

@@ -15,6 +15,16 @@ export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: s
         : 'Not checked',
     },
     { label: 'Minimum bads', value: `At least ${formatCount(policy.minBads)} bads in the holdout` },
+    // Calibration and stability criteria.
+    {
+      label: 'PD calibration',
+      value: policy.calibrationRule.enabled ? `A PD challenger's portfolio Jeffreys p above α = ${policy.calibrationRule.alpha}` : 'Not checked',
+    },
+    { label: 'Population stability', value: policy.psiRule.enabled ? `The challenger's PSI against the reference sample below ${policy.psiRule.threshold}` : 'Not checked' },
+    {
+      label: 'Uplift over time',
+      value: policy.periodSignRule.enabled ? `ΔGini keeps its sign in every period with at least ${formatCount(policy.periodSignRule.minBads)} bads` : 'Not checked',
+    },
     { label: 'Quorum', value: policy.quorum > 0 ? `${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision` : 'None' },
   ];
 }
