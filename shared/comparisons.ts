@@ -156,9 +156,10 @@ export const comparisonHeadlineSchema = z.object({
   championGini: z.number(),
   challengerGini: z.number(),
   deltaGini: z.number(),
-  deltaGiniCi: intervalSchema,
-  pOneSided: z.number(),
-  pTwoSided: z.number(),
+  /** Null with fewer than 2 goods or 2 bads (no DeLong variance). */
+  deltaGiniCi: intervalSchema.nullable(),
+  pOneSided: z.number().nullable(),
+  pTwoSided: z.number().nullable(),
   verdict: verdictOutcomeSchema,
 });
 export type ComparisonHeadline = z.infer<typeof comparisonHeadlineSchema>;

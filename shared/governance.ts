@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { comparisonStateSchema } from './comparisons';
-import { adoptionPolicySchema } from './policy';
+import { adoptionPolicySchema, defaultSegmentRule, segmentRuleSchema } from './policy';
 import { criterionSchema, verdictOutcomeSchema } from './report';
 
 /**
@@ -130,7 +130,10 @@ export type Note = z.infer<typeof noteSchema>;
 
 // --- adoption policy ----------------------------------------------------------------------
 /** GET /api/policy (signed in) → the current version; PUT (admin) with the fields but `version` → a new version. */
-export const policyInputSchema = adoptionPolicySchema.omit({ version: true });
+export const policyInputSchema = adoptionPolicySchema.omit({ version: true }).extend({
+  /** A new version gets the segment rule on unless the input says otherwise. */
+  segmentRule: segmentRuleSchema.default(defaultSegmentRule),
+});
 export type PolicyInput = z.infer<typeof policyInputSchema>;
 /** The body of PUT /api/policy: the new fields and why they change (kept with the version). */
 export const policyUpdateSchema = policyInputSchema.extend({

@@ -172,7 +172,8 @@ const points = (value: number, digits = 1) => (value * 100).toFixed(digits);
 const signed = (value: number, digits = 1) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(digits)}`;
 const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? '—' : `[${format(ci[0])}, ${format(ci[1])}]`);
 const int = (value: number) => value.toLocaleString('en-US');
-function pValue(p: number): string {
+function pValue(p: number | null): string {
+  if (p === null) return '—';
   if (p === 0) return '< 1e-300';
   if (p >= 0.001) return p.toFixed(4);
   return p.toExponential(1);
@@ -202,7 +203,8 @@ export function summary(report: Report): string {
     `  ΔGini ${signed(difference.gini, 2)}, ${level} CI ${range(difference.giniCi, (v) => signed(v, 2))} (DeLong)` +
       (difference.giniBootstrapCi ? `, ${range(difference.giniBootstrapCi, (v) => signed(v, 2))} (bootstrap, ${int(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed})` : ', bootstrap skipped'),
   );
-  lines.push(`  DeLong z = ${difference.z.toFixed(3)}, one-sided p = ${pValue(difference.pOneSided)} (challenger better), two-sided p = ${pValue(difference.pTwoSided)}`);
+  if (difference.inference) lines.push(`  No DeLong test or interval: ${difference.inference}`);
+  lines.push(`  DeLong z = ${difference.z === null ? '—' : difference.z.toFixed(3)}, one-sided p = ${pValue(difference.pOneSided)} (challenger better), two-sided p = ${pValue(difference.pTwoSided)}`);
   lines.push(`  ΔKS ${signed(difference.ks, 2)}${difference.ksCi ? `, ${level} CI ${range(difference.ksCi, (v) => signed(v, 2))} (bootstrap)` : ''}`);
   lines.push('');
   const basis =

@@ -18,7 +18,7 @@ export function giniLine(headline: ComparisonHeadline): string {
   const signedPoints = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
   return (
     `Gini: champion ${points(headline.championGini)}, challenger ${points(headline.challengerGini)} ` +
-    `(difference ${signedPoints(headline.deltaGini)} points, one-sided ${pText(headline.pOneSided)})`
+    `(difference ${signedPoints(headline.deltaGini)} points, ${headline.pOneSided === null ? 'no DeLong test: too few goods or bads' : `one-sided ${pText(headline.pOneSided)}`})`
   );
 }
 

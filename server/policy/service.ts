@@ -14,7 +14,7 @@ import { iso, personRef } from '../governance/people';
  * changed (database triggers refuse it), so every verdict can be read back under its own rules.
  */
 
-const policyKeys = ['alpha', 'sided', 'materialityGiniPoints', 'requireIntervalAboveZero', 'swapRule', 'minBads', 'quorum'] as const;
+const policyKeys = ['alpha', 'sided', 'materialityGiniPoints', 'requireIntervalAboveZero', 'swapRule', 'minBads', 'quorum', 'segmentRule'] as const;
 
 function toPolicy(row: PolicyVersion): AdoptionPolicy {
   // Parse on the way out: a stored row always satisfies the schema the API promises.
@@ -67,6 +67,7 @@ export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUp
     swapRule: { enabled: fields.swapRule.enabled, approvalRate: fields.swapRule.approvalRate },
     minBads: fields.minBads,
     quorum: fields.quorum,
+    segmentRule: { enabled: fields.segmentRule.enabled, minBads: fields.segmentRule.minBads },
   };
   const version = await inTransaction(ctx.dataSource, async (manager) => {
     const previous = await newestRow(manager);

@@ -38,7 +38,7 @@ import { verdict } from './verdict';
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
-export const engineVersion = '1.1.0';
+export const engineVersion = '1.2.0';
 
 export interface AnalysisProgress {
   /** 0 to 1. */
@@ -132,7 +132,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   const segmentRows = segments(holdout, {
     champion: championBlocks,
     challenger: challengerBlocks,
-    sided: policy.sided,
+    policy,
     confidence: settings.confidence,
   });
   report(PROGRESS.segments, 'Verdict');
