@@ -4,6 +4,7 @@ import { ButtonLink } from '@/components/button';
 import { Section } from '@/components/card';
 import { DecisionCautions } from '@/components/decision-cautions';
 import { CriteriaList } from '@/features/comparisons/components/criteria-list';
+import { FlaggedSegments } from '@/features/comparisons/components/flagged-segments';
 import { GiniContext } from '@/features/comparisons/components/gini-context';
 import { ModelMetrics } from '@/features/comparisons/components/model-metrics';
 import { SwapGlance } from '@/features/comparisons/components/swap-glance';
@@ -28,6 +29,18 @@ export function Component() {
           <GiniContext report={report} />
         </Section>
       </div>
+      {report.segments.length > 0 ? (
+        <Section
+          title="Segments where the challenger is worse"
+          actions={
+            <ButtonLink to={paths.comparisons.segments(comparison.id)} size="sm">
+              All segments
+            </ButtonLink>
+          }
+        >
+          <FlaggedSegments report={report} />
+        </Section>
+      ) : null}
       <Section title="Both models" description={`On ${formatCount(report.rows)} accounts with ${formatCount(report.bads)} bads.`}>
         <ModelMetrics report={report} />
       </Section>
