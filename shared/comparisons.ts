@@ -2,6 +2,7 @@ import { z } from 'zod';
 import {
   analysisSettingsSchema,
   columnMappingSchema,
+  criterionSchema,
   higherIsSchema,
   intervalSchema,
   strategyCurveSchema,
@@ -164,6 +165,22 @@ export const comparisonHeadlineSchema = z.object({
 });
 export type ComparisonHeadline = z.infer<typeof comparisonHeadlineSchema>;
 
+/**
+ * The verdict every page shows: the newest verdict record of the current run (after a decision,
+ * the one the decision was made on), with the policy version it was judged under. Older records
+ * are the history (GET …/governance). Null until a run is done.
+ */
+export const currentVerdictSchema = z.object({
+  id: z.number().int(),
+  runId: z.number().int(),
+  policyVersion: z.number().int(),
+  outcome: verdictOutcomeSchema,
+  criteria: z.array(criterionSchema),
+  summary: z.string(),
+  createdAt: z.string(),
+});
+export type CurrentVerdict = z.infer<typeof currentVerdictSchema>;
+
 export const comparisonSummarySchema = z.object({
   id: z.number().int(),
   name: z.string(),
@@ -174,6 +191,7 @@ export const comparisonSummarySchema = z.object({
   holdout: z.object({ id: z.number().int(), fileName: z.string(), rowCount: z.number().int() }),
   latestRun: analysisRunSchema.pick({ id: true, status: true, progress: true, stage: true }).nullable(),
   headline: comparisonHeadlineSchema.nullable(),
+  verdict: currentVerdictSchema.nullable(),
 });
 export type ComparisonSummary = z.infer<typeof comparisonSummarySchema>;
 

@@ -16,6 +16,7 @@ import { inTransaction } from '../db/transaction';
 import { conflict, notFound } from '../errors';
 import type { EncodedColumn } from '../holdouts/columns';
 import { findHoldout, mapHoldout } from '../holdouts/service';
+import { currentVerdict, currentVerdicts } from './current-verdict';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
 import { requireState, transition } from './state';
@@ -245,7 +246,7 @@ export async function getComparisonDetail(source: DataSource | EntityManager, id
       holdoutId: true,
     },
   });
-  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs));
+  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs), await currentVerdict(source, id));
 }
 
 const sortSql: Record<ListComparisonsQuery['sort'], string> = {
@@ -305,9 +306,10 @@ export async function listComparisons(source: DataSource, query: ListComparisons
         })
       : [];
   const byId = new Map(comparisons.map((comparison) => [comparison.id, comparison]));
+  const verdicts = await currentVerdicts(source, ids);
   const items = ids.map((id) => {
     const mine = runs.filter((run) => run.comparisonId === id).sort((a, b) => b.id - a.id);
-    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null);
+    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null, verdicts.get(id) ?? null);
   });
   return { items, total, page: query.page, pageSize: query.pageSize };
 }

@@ -1,4 +1,5 @@
 import { governanceSchema, policyVersionSchema, policyVersionsSchema, verdictRecordSchema, type Governance } from '@shared/governance';
+import type { ComparisonDetail, ComparisonList } from '@shared/comparisons';
 import { defaultAdoptionPolicy } from '@shared/policy';
 import type { Report, SwapSets } from '@shared/report';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -101,6 +102,12 @@ describe('adoption policy versions', () => {
 
     const after = await governance();
     expect(after.verdicts.map((verdict) => verdict.id)).toEqual([record.id, stored.id]);
+    // One verdict everywhere (issue 13): the detail (header badge, verdict tab) and the list show
+    // the newest record with its policy version, not the run's original verdict.
+    const detail = (await analyst.get(`/api/comparisons/${id}`)).body as ComparisonDetail;
+    expect(detail.verdict).toMatchObject({ id: record.id, policyVersion: 3, outcome: record.outcome, summary: record.summary });
+    const list = (await analyst.get('/api/comparisons')).body as ComparisonList;
+    expect(list.items.find((item) => item.id === id)!.verdict).toMatchObject({ id: record.id, policyVersion: 3, outcome: record.outcome });
     expect(after.verdicts[1]).toEqual(stored);
     // The run's report keeps the verdict it was given.
     const report = (await analyst.get(`/api/comparisons/${id}/report`)).body as Report;

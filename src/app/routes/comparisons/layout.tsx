@@ -73,7 +73,8 @@ export function Component() {
   const isModeler = hasRole(user, 'modeler');
   // With no report, the body's progress or failure panel is the next step: no second callout.
   const bodySaysNextStep = !hasReport && (active || latest?.status === 'failed');
-  const verdict = report.data?.verdict.outcome ?? detail.headline?.verdict;
+  // One verdict everywhere: the comparison's current verdict record (newest, or the decided one).
+  const verdict = detail.verdict?.outcome ?? report.data?.verdict.outcome;
 
   let body;
   if (hasReport) {
