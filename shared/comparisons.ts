@@ -278,6 +278,8 @@ export const scenarioSchema = z.object({
   swapOut: z.object({ count: z.number().int(), badRate: z.number().nullable() }),
   createdBy: personRefSchema,
   createdAt: z.string(),
+  /** Saved after the committee's decision: not part of what it saw. */
+  afterDecision: z.boolean().default(false),
 });
 export type Scenario = z.infer<typeof scenarioSchema>;
 

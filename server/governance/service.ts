@@ -1,4 +1,4 @@
-import type { DecisionInput, Governance, ReviewInput, VoteInput } from '@shared/governance';
+import { MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, type DecisionInput, type Governance, type ReviewInput, type VoteChoice, type VoteInput } from '@shared/governance';
 import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
@@ -7,11 +7,11 @@ import { creatorOf } from '../comparisons/people';
 import { findComparison } from '../comparisons/service';
 import { requireState, transition } from '../comparisons/state';
 import type { AppContext } from '../context';
-import { Decision, Review, VerdictRecord, Vote, type User } from '../db/entities/index';
+import { Comparison, Decision, Review, VerdictRecord, Vote, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { conflict } from '../errors';
 import type { OutgoingMail } from '../mail/mailer';
-import { currentPolicy } from '../policy/service';
+import { currentPolicy, governingPolicy } from '../policy/service';
 import { activeUsersWithRole } from '../users/service';
 import { comparisonLink } from './links';
 import { decidedMail, returnedMail, submittedMail, validatedMail } from './mail';
@@ -56,11 +56,14 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
         );
       }
     }
+    // The policy in force now governs the review and the decision until the next submission.
+    const policy = await currentPolicy(manager);
     await transition(manager, comparison, ['analysed', 'returned'], 'in-review', {
       actor,
       action: 'comparison.submitted',
-      details: { runId: run.id, message: input.message },
+      details: { runId: run.id, message: input.message, policyVersion: policy.version },
     });
+    await manager.getRepository(Comparison).update({ id }, { governingPolicyVersion: policy.version });
     const link = comparisonLink(ctx.config.publicUrl, id, 'review');
     const authors = await authorsOf(manager, comparison);
     const analysts = (await activeUsersWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
@@ -101,6 +104,8 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
         outcome: input.outcome,
         findings: input.findings,
         reviewerId: actor.id,
+        reviewerName: actor.name,
+        reviewerEmail: actor.email,
         createdAt: now(),
       }),
     );
@@ -110,7 +115,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
       details: { reviewId: review.id, runId: run.id, findings: input.findings },
     });
     if (input.outcome === 'validated') {
-      const { quorum } = await currentPolicy(manager);
+      const { quorum } = await governingPolicy(manager, comparison);
       const link = comparisonLink(ctx.config.publicUrl, id, 'review');
       const committee = (await activeUsersWithRole(manager, 'committee')).filter((person) => !authors.has(person.id));
       await queueAll(
@@ -149,6 +154,8 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
         comparisonId: id,
         reviewId: round.id,
         voterId: actor.id,
+        voterName: actor.name,
+        voterEmail: actor.email,
         vote: input.vote,
         comment: input.comment,
         replacesId: previous?.id ?? null,
@@ -179,14 +186,37 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
     requireState(comparison, ['validated']);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
-    const policy = await currentPolicy(manager);
+    const policy = await governingPolicy(manager, comparison);
     const votes = await countingVotes(manager, round.id);
-    if (policy.quorum > 0 && votes.length < policy.quorum) {
-      throw conflict(
-        `The adoption policy (version ${policy.version}) needs ${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision can be recorded; ` +
-          `${votes.length === 0 ? 'none has' : votes.length === 1 ? 'one has' : `${votes.length} have`} been cast.`,
-        { quorum: policy.quorum, votes: votes.length },
-      );
+    const tally = tallyOf(votes);
+    const majority = majorityOf(tally);
+    const withoutQuorum = policy.quorum > 0 && votes.length < policy.quorum;
+    const againstMajority = majority !== input.outcome;
+    if (withoutQuorum || againstMajority) {
+      const why = [
+        withoutQuorum
+          ? `the adoption policy (version ${policy.version}) needs ${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} and ${votes.length === 0 ? 'none has' : votes.length === 1 ? 'one has' : `${votes.length} have`} been cast`
+          : null,
+        againstMajority
+          ? majority === null
+            ? `the votes cast (${tallyText(tally)}) show no majority for “${voteChoiceLabels[input.outcome]}”`
+            : `the majority of the votes cast (${tallyText(tally)}) is “${voteChoiceLabels[majority]}”`
+          : null,
+      ].filter((part) => part !== null);
+      if (!input.acknowledgeAgainstRecord) {
+        throw conflict(`This decision goes against the record: ${why.join('; ')}. Acknowledge that explicitly and give the reason in the rationale.`, {
+          quorum: policy.quorum,
+          votes: votes.length,
+          tally,
+          majority,
+        });
+      }
+      if (input.rationale.length < MIN_RATIONALE_AGAINST_RECORD) {
+        throw conflict(
+          `A decision against the record (${why.join('; ')}) needs a rationale of at least ${MIN_RATIONALE_AGAINST_RECORD} characters that says why; this one has ${input.rationale.length}.`,
+          { minimum: MIN_RATIONALE_AGAINST_RECORD },
+        );
+      }
     }
     const verdict = await manager.getRepository(VerdictRecord).findOne({ where: { runId: round.runId }, order: { id: 'DESC' } });
     const decision = await manager.getRepository(Decision).save(
@@ -201,10 +231,13 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         conditions: input.conditions ? input.conditions : null,
         effectiveDate: input.effectiveDate ?? null,
         decidedById: actor.id,
+        decidedByName: actor.name,
+        decidedByEmail: actor.email,
+        tally,
+        acknowledgedAgainstRecord: withoutQuorum || againstMajority,
         createdAt: now(),
       }),
     );
-    const tally = Object.fromEntries(voteChoices.map((choice) => [choice, votes.filter((vote) => vote.vote === choice).length]));
     await transition(manager, comparison, ['validated'], 'decided', {
       actor,
       action: 'comparison.decided',
@@ -219,6 +252,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         policyVersion: policy.version,
         verdictId: decision.verdictId,
         votes: tally,
+        acknowledgedAgainstRecord: decision.acknowledgedAgainstRecord,
       },
     });
     const link = comparisonLink(ctx.config.publicUrl, id, 'report');
@@ -255,8 +289,9 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
   const verdicts = await source
     .getRepository(VerdictRecord)
     .find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { createdBy: true } });
-  const policy = await currentPolicy(source);
+  const policy = await governingPolicy(source, comparison);
   const authors = await authorRefs(source, await authorsOf(source, comparison));
+  const tally = tallyOf(votes);
   return {
     state: comparison.state,
     createdBy: { id: comparison.createdBy.id, name: comparison.createdBy.name },
@@ -265,6 +300,27 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
     decision: decision ? presentDecision(decision) : null,
     verdicts: verdicts.map(presentVerdictRecord),
     quorum: policy.quorum,
+    policyVersion: policy.version,
+    tally,
+    majority: majorityOf(tally),
     authors,
   };
+}
+
+/** Votes per choice, every choice present. */
+export function tallyOf(votes: readonly Pick<Vote, 'vote'>[]): Record<VoteChoice, number> {
+  const counts = Object.fromEntries(voteChoices.map((choice) => [choice, 0])) as Record<VoteChoice, number>;
+  for (const vote of votes) counts[vote.vote] += 1;
+  return counts;
+}
+
+/** The choice with strictly the most votes; null without votes or on a tie. */
+export function majorityOf(tally: Record<VoteChoice, number>): VoteChoice | null {
+  const sorted = voteChoices.map((choice) => [choice, tally[choice]] as const).sort((a, b) => b[1] - a[1]);
+  if (sorted[0][1] === 0 || sorted[0][1] === sorted[1][1]) return null;
+  return sorted[0][0];
+}
+
+function tallyText(tally: Record<VoteChoice, number>): string {
+  return voteChoices.map((choice) => `${tally[choice]} ${choice}`).join(', ');
 }

@@ -42,6 +42,23 @@ export async function currentPolicy(source: DataSource | EntityManager): Promise
   return toPolicy(await newestRow(source));
 }
 
+/** One stored version (the current one when `version` is null). */
+export async function policyAt(source: DataSource | EntityManager, version: number | null): Promise<AdoptionPolicy> {
+  if (version === null) return currentPolicy(source);
+  const row = await source.getRepository(PolicyVersion).findOneBy({ version });
+  if (!row) throw new Error(`adoption policy version ${version} is not stored`);
+  return toPolicy(row);
+}
+
+/**
+ * The policy governing a comparison's review and decision: the version in force when it was last
+ * submitted (comparisons.governingPolicyVersion), until it is submitted again; the current one
+ * before its first submission.
+ */
+export function governingPolicy(source: DataSource | EntityManager, comparison: { governingPolicyVersion: number | null }): Promise<AdoptionPolicy> {
+  return policyAt(source, comparison.governingPolicyVersion);
+}
+
 export async function currentPolicyVersion(source: DataSource | EntityManager): Promise<PolicyVersionBody> {
   return presentPolicyVersion(await newestRow(source));
 }
