@@ -19,6 +19,7 @@ import { findHoldout, mapHoldout } from '../holdouts/service';
 import { currentVerdict, currentVerdicts } from './current-verdict';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
+import { setupStates } from '@shared/workflow';
 import { requireState, transition } from './state';
 
 /**
@@ -30,7 +31,7 @@ import { requireState, transition } from './state';
  */
 
 /** States from which a modeler may change the mapping or settings (a new run starts). */
-export const setupStates: readonly ComparisonState[] = ['draft', 'analysed', 'returned'];
+export { setupStates } from '@shared/workflow';
 
 /** The mapping in the form the CLI builds it, so that the stored report equals the CLI's. */
 export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
@@ -215,7 +216,13 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
     await transition(manager, id, setupStates, 'draft', {
       actor,
       action: 'comparison.setup',
-      details: { ...auditMapping(prepared), runId: run.id, supersededRunIds: superseded.map((r) => r.id) },
+      details: {
+        ...auditMapping(prepared),
+        runId: run.id,
+        supersededRunIds: superseded.map((r) => r.id),
+        // A set-up by another modeler than the creator is recorded and named as such (issue 13).
+        ...(actor.id !== comparison.createdById ? { byOtherThanCreator: { id: actor.id, name: actor.name }, creator: { id: comparison.createdBy.id, name: comparison.createdBy.name } } : {}),
+      },
     });
   });
   ctx.jobs.kick();

@@ -1,5 +1,6 @@
 import { MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, type DecisionInput, type Governance, type ReviewInput, type VoteChoice, type VoteInput } from '@shared/governance';
 import type { EntityManager } from 'typeorm';
+import { workflowSteps } from '@shared/workflow';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { authorsOf } from '../comparisons/authors';
@@ -37,7 +38,7 @@ async function queueAll(ctx: AppContext, manager: EntityManager, mails: Outgoing
 export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
-    requireState(comparison, ['analysed', 'returned']);
+    requireState(comparison, workflowSteps.submit.from);
     const run = await newestRun(manager, id);
     if (!run || run.status !== 'done') {
       throw conflict(
@@ -58,7 +59,7 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
     }
     // The policy in force now governs the review and the decision until the next submission.
     const policy = await currentPolicy(manager);
-    await transition(manager, comparison, ['analysed', 'returned'], 'in-review', {
+    await transition(manager, comparison, workflowSteps.submit.from, 'in-review', {
       actor,
       action: 'comparison.submitted',
       details: { runId: run.id, message: input.message, policyVersion: policy.version },
@@ -93,7 +94,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
     const comparison = await findComparison(manager, id);
     const authors = await authorsOf(manager, comparison);
     forbidOwn(authors, actor, 'review');
-    requireState(comparison, ['in-review']);
+    requireState(comparison, workflowSteps.validate.from);
     const run = await newestRun(manager, id);
     // Set-up is refused while in review, so the newest run is the done run that was submitted.
     if (!run || run.status !== 'done') throw new Error(`comparison ${id} is in review without a finished run`);
@@ -109,7 +110,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
         createdAt: now(),
       }),
     );
-    await transition(manager, comparison, ['in-review'], input.outcome, {
+    await transition(manager, comparison, workflowSteps[input.outcome === 'validated' ? 'validate' : 'return'].from, input.outcome, {
       actor,
       action: input.outcome === 'validated' ? 'comparison.validated' : 'comparison.returned',
       details: { reviewId: review.id, runId: run.id, findings: input.findings },
@@ -145,7 +146,7 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'vote on');
-    requireState(comparison, ['validated']);
+    requireState(comparison, workflowSteps.vote.from);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
     const previous = await manager.getRepository(Vote).findOne({ where: { reviewId: round.id, voterId: actor.id }, order: { id: 'DESC' } });
@@ -183,7 +184,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'decide');
-    requireState(comparison, ['validated']);
+    requireState(comparison, workflowSteps.decide.from);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
     const policy = await governingPolicy(manager, comparison);
@@ -238,7 +239,7 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         createdAt: now(),
       }),
     );
-    await transition(manager, comparison, ['validated'], 'decided', {
+    await transition(manager, comparison, workflowSteps.decide.from, 'decided', {
       actor,
       action: 'comparison.decided',
       details: {
