@@ -1,6 +1,7 @@
 import { MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, type DecisionInput, type Governance, type ReviewInput, type VoteChoice, type VoteInput } from '@shared/governance';
-import type { EntityManager } from 'typeorm';
-import { workflowSteps } from '@shared/workflow';
+import type { ComparisonState } from '@shared/comparisons';
+import { actingRoles, workflowSteps } from '@shared/workflow';
+import { In, type EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { authorsOf } from '../comparisons/authors';
@@ -8,7 +9,7 @@ import { creatorOf } from '../comparisons/people';
 import { findComparison } from '../comparisons/service';
 import { requireState, transition } from '../comparisons/state';
 import type { AppContext } from '../context';
-import { Comparison, Decision, Review, VerdictRecord, Vote, type User } from '../db/entities/index';
+import { Comparison, Decision, Review, User, VerdictRecord, Vote } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { conflict } from '../errors';
 import type { OutgoingMail } from '../mail/mailer';
@@ -29,6 +30,13 @@ import { authorRefs, countingVotes, currentRound, forbidOwn, latestReview, newes
  * rule — whoever created the comparison or uploaded its holdout cannot review, vote on or decide
  * it (403) —, then the state (409), then the step's own conditions (409).
  */
+
+/** Active people holding a role that acts in `state` (shared/workflow.ts), except `excluded`. */
+async function activeUsersActingIn(manager: EntityManager, state: ComparisonState, excluded: ReadonlySet<number>): Promise<User[]> {
+  const roles = actingRoles[state];
+  const people = await manager.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
+  return people.filter((person) => !excluded.has(person.id) && person.roles.some((role) => roles.includes(role)));
+}
 
 async function queueAll(ctx: AppContext, manager: EntityManager, mails: OutgoingMail[]): Promise<void> {
   for (const mail of mails) await ctx.mailer.queue(manager, mail);
@@ -67,7 +75,8 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
     await manager.getRepository(Comparison).update({ id }, { governingPolicyVersion: policy.version });
     const link = comparisonLink(ctx.config.publicUrl, id, 'review');
     const authors = await authorsOf(manager, comparison);
-    const analysts = (await activeUsersWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
+    // Whoever acts in review: the analysts and the policy role (shared/workflow.ts), not the authors.
+    const analysts = await activeUsersActingIn(manager, 'in-review', authors);
     await queueAll(
       ctx,
       manager,
@@ -257,10 +266,17 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
       },
     });
     const link = comparisonLink(ctx.config.publicUrl, id, 'report');
+    // Everyone on the record: the authors (creator, uploaders, set-up people, submitters), the
+    // reviewers and the voters; the decider knows.
+    const onRecord = new Set<number>(await authorsOf(manager, comparison));
+    for (const review of await manager.getRepository(Review).find({ where: { comparisonId: id }, select: { id: true, reviewerId: true } })) onRecord.add(review.reviewerId);
+    for (const vote of await manager.getRepository(Vote).find({ where: { comparisonId: id }, select: { id: true, voterId: true } })) onRecord.add(vote.voterId);
+    onRecord.delete(actor.id);
+    const recipients = await manager.getRepository(User).find({ where: { id: In([...onRecord]), active: true }, order: { id: 'ASC' } });
     await queueAll(
       ctx,
       manager,
-      (await creatorOf(manager, comparison)).map((person) =>
+      recipients.map((person) =>
         decidedMail({
           to: person.email,
           name: person.name,

@@ -59,11 +59,14 @@ describe('the review workflow, end to end', () => {
     expect(governanceSchema.parse(response.body).state).toBe('in-review');
     const mail = await t.deliveredMail({ to: 'analyst@tallowmere.test', afterId: before });
     expect(mail.subject).toBe('Ready for review: Challenger v2 on the 2025 sample');
+    // issue 13: the policy role acts at "in review" too (shared/workflow.ts), so it is e-mailed.
+    const policyMail = await t.deliveredMail({ to: 'policy@tallowmere.test', afterId: before });
+    expect(policyMail.subject).toBe('Ready for review: Challenger v2 on the 2025 sample');
     // The sink stores what came over SMTP: the link is the client's /comparisons/:id/review.
     expect(mail.receivedText).toContain(`http://scorecourt.test/comparisons/${id}/review`);
     expect(mail.receivedText).toContain('see the product segments');
     const sent = await outboxAfter(t, before);
-    expect(sent.map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    expect(sent.map((message) => message.to)).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
   });
 
   it('review "returned": in review → returned with the findings; the creator is told', async () => {
@@ -167,6 +170,10 @@ describe('the review workflow, end to end', () => {
 
     const mail = await t.deliveredMail({ to: 'modeler@tallowmere.test', afterId: before });
     expect(mail.subject).toBe('Decision recorded: Challenger v2 on the 2025 sample');
+    // issue 13: everyone on the record hears of the decision — the creator, the reviewing analyst
+    // and the other voter — not only the modeler; the decider does not mail themselves.
+    const decidedTo = (await outboxAfter(t, before)).filter((message) => message.subject.startsWith('Decision recorded')).map((message) => message.to[0]);
+    expect(decidedTo.sort()).toEqual(['analyst@tallowmere.test', 'committee2@tallowmere.test', 'modeler@tallowmere.test']);
     expect(mail.receivedText).toContain('adopt the challenger');
     expect(mail.receivedText).toContain('It applies from 2026-03-01.');
     expect(mail.receivedText).toContain('Monitor the web channel monthly.');

@@ -154,7 +154,7 @@ describe('workflow: the 403/409 matrix', () => {
     await waitForRuns(t);
     const before = await lastOutboxId(t);
     await ok(owner.post(`/api/comparisons/${id}/submit`, {}));
-    expect((await outboxAfter(t, before)).map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    expect((await outboxAfter(t, before)).map((message) => message.to)).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
     const validated = await lastOutboxId(t);
     await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, steps.validate.body));
     expect((await outboxAfter(t, validated)).map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
