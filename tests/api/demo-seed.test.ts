@@ -83,7 +83,12 @@ describe('the demo on first start', () => {
     const cards = full.segments.find((row) => row.column === brokeredCards.column && row.value === brokeredCards.value)!;
     expect(cards).toMatchObject({ n: 5392, bads: 549 });
     expect(Math.abs(cards.deltaGini! * 100 + 5.5)).toBeLessThan(0.05);
-    expect(full.verdict.outcome).toBe('supported');
+    // issue 13: the brokered cards are significantly worse (two-sided, Holm-adjusted), so the
+    // segment rule fails and names them: the verdict is not proven.
+    expect(cards.flags).toContain('significantly-worse');
+    expect(full.verdict.outcome).toBe('not-proven');
+    expect(full.verdict.criteria.find((criterion) => criterion.id === 'segments')).toMatchObject({ met: false, detail: expect.stringContaining('product_channel = credit-card/broker') });
+    expect(full.verdict.summary).toContain('it is significantly worse in product_channel = credit-card/broker');
 
     // The PD file holds the same accounts with the challenger's PD (the generator: both challenger
     // columns come from the same safety value, points rounded to whole numbers), so the two
@@ -115,7 +120,7 @@ describe('the demo on first start', () => {
     expect(governance.decision!.conditions).toMatch(/Brokered credit-card applications .* keep the champion’s decision/);
     expect(governance.decision!.conditions).toMatch(/swap-in bad rate monthly/);
     expect(governance.decision!.effectiveDate).toBe(new Date(momentOf('decision', today).getTime() + 14 * 86_400_000).toISOString().slice(0, 10));
-    expect(governance.verdicts.map((verdict) => verdict.outcome)).toEqual(['supported']);
+    expect(governance.verdicts.map((verdict) => verdict.outcome)).toEqual(['not-proven']);
 
     const { scenarios } = await listScenarios(context, id);
     expect(scenarios.map((scenario) => [scenario.name, scenario.approvalRate])).toEqual([
@@ -151,11 +156,16 @@ describe('the demo on first start', () => {
     expect(mail.map((message) => [message.to.join(', '), message.subject])).toEqual([
       ['modeler@tallowmere.test', `Analysis done: ${decided}`],
       ['analyst@tallowmere.test', `Ready for review: ${decided}`],
+      ['policy@tallowmere.test', `Ready for review: ${decided}`],
       ['committee@tallowmere.test', `Validated, waiting for the committee: ${decided}`],
       ['committee2@tallowmere.test', `Validated, waiting for the committee: ${decided}`],
+      // Everyone on the record hears of the decision (the decider does not mail themselves).
       ['modeler@tallowmere.test', `Decision recorded: ${decided}`],
+      ['analyst@tallowmere.test', `Decision recorded: ${decided}`],
+      ['committee2@tallowmere.test', `Decision recorded: ${decided}`],
       ['modeler@tallowmere.test', `Analysis done: ${pd}`],
       ['analyst@tallowmere.test', `Ready for review: ${pd}`],
+      ['policy@tallowmere.test', `Ready for review: ${pd}`],
     ]);
     for (const message of mail) {
       expect(message.status).toBe('sent');
