@@ -39,7 +39,7 @@ await new Promise<void>((resolve) => server.stdout!.on('data', (data: Buffer) =>
 const base = `http://127.0.0.1:${port}/api`;
 let cookie = '';
 let csrf = '';
-async function call(method: string, path: string, body?: BodyInit, headers: Record<string, string> = {}): Promise<Response> {
+async function call(method: string, path: string, body?: RequestInit['body'], headers: Record<string, string> = {}): Promise<Response> {
   const response = await fetch(base + path, { method, body, headers: { cookie, 'x-csrf-token': csrf, ...headers } });
   for (const set of response.headers.getSetCookie()) if (set.startsWith('scorecourt.sid=')) cookie = set.split(';')[0];
   csrf = response.headers.get('x-csrf-token') ?? csrf;

@@ -5,6 +5,7 @@ import express, { type Express, type RequestHandler } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
 import type { DataSource } from 'typeorm';
+import { auditRoutes } from './audit/router';
 import { csrfProtection } from './auth/csrf';
 import { createPassport } from './auth/passport';
 import { authRoutes } from './auth/router';
@@ -19,6 +20,8 @@ import { governanceRoutes } from './governance/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
+import { wellFormedReviver } from './http/well-formed';
+import { writeLimiter } from './http/write-limits';
 import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
 import type { Mailer } from './mail/mailer';
@@ -27,6 +30,7 @@ import { noteRoutes } from './notes/router';
 import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
+import { analysisHandlers } from './comparisons/analysis-handlers';
 
 export interface AppDeps {
   config: Config;
@@ -52,7 +56,7 @@ const sessionIdleMs = 8 * 60 * 60 * 1000;
 /** Every API route, feature by feature. A new feature adds its `…Routes(ctx)` here. */
 function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>): RouteDefinition[] {
   return [
-    ...healthRoutes(),
+    ...healthRoutes(ctx),
     ...authRoutes(ctx, passport),
     ...userRoutes(ctx),
     ...outboxRoutes(ctx),
@@ -61,6 +65,7 @@ function apiRoutes(ctx: AppContext, passport: ReturnType<typeof createPassport>)
     ...governanceRoutes(ctx),
     ...noteRoutes(ctx),
     ...policyRoutes(ctx),
+    ...auditRoutes(ctx),
   ];
 }
 
@@ -82,7 +87,13 @@ export function createApp(deps: AppDeps): Express {
   const ownJobs = deps.jobs === undefined;
   const jobs =
     deps.jobs ??
-    new JobRunner({ dataSource, databasePath: config.databasePath, concurrency: config.analysisConcurrency, log, mailer, publicUrl: config.publicUrl });
+    new JobRunner({
+      dataSource,
+      databasePath: config.databasePath,
+      concurrency: config.analysisConcurrency,
+      log,
+      handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+    });
   if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
   const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir };
 
@@ -116,7 +127,12 @@ export function createApp(deps: AppDeps): Express {
   const routes = apiRoutes(ctx, passport);
 
   const api = express.Router();
-  api.use(express.json({ limit: '1mb' }));
+  // API answers carry personal and decision data: never kept by a browser or a proxy.
+  api.use((_req, res, next) => {
+    res.setHeader('Cache-Control', 'no-store');
+    next();
+  });
+  api.use(express.json({ limit: '1mb', reviver: wellFormedReviver }));
   api.use(
     session({
       name: 'scorecourt.sid',
@@ -132,7 +148,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(passport.initialize());
   api.use(passport.session());
   api.use(csrfProtection);
-  mountRoutes(api, routes);
+  mountRoutes(api, routes, { writeLimit: writeLimiter(config.writesPerMinute) });
   api.use(apiNotFound);
   app.use('/api', api);
 

@@ -30,6 +30,8 @@ const environmentSchema = z
     TRUST_PROXY: z.string().min(1).optional(),
     /** On an empty database outside production: also add the demo's comparisons (false: only the demo people). */
     DEMO_SCENARIO: booleanFlag.default(true),
+    /** Changes (POST, PUT, PATCH, DELETE) one person, or one address when not signed in, may send a minute. */
+    WRITES_PER_MINUTE: z.coerce.number().int().min(1).max(1_000_000).default(120),
   })
   .superRefine((env, ctx) => {
     if (env.NODE_ENV !== 'production') return;
@@ -64,6 +66,8 @@ export interface Config {
   trustProxy: boolean | number | string;
   /** Whether the first start (empty database, not production) adds the demo comparisons besides the demo people. */
   demoScenario: boolean;
+  /** Changes one person (or one address, signed out) may send a minute; more → 429 (http/write-limits.ts). */
+  writesPerMinute: number;
 }
 
 export class ConfigError extends Error {
@@ -106,5 +110,6 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     logLevel: e.LOG_LEVEL,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     demoScenario: e.DEMO_SCENARIO,
+    writesPerMinute: e.WRITES_PER_MINUTE,
   };
 }

@@ -1,5 +1,6 @@
 import { errorCodes, type ApiErrorBody } from '@shared/errors';
 import type { ErrorRequestHandler, RequestHandler } from 'express';
+import { storageFailureKind, type StorageFailureKind } from './db/storage-errors';
 import type { Logger } from './log';
 
 /**
@@ -24,6 +25,21 @@ export const conflict = (message: string, details?: unknown) => new AppError(err
 export const unauthenticated = () => new AppError(errorCodes.unauthenticated, 'Sign in to continue.', 401);
 export const forbidden = (message = 'Your role does not allow this.') => new AppError(errorCodes.forbidden, message, 403);
 
+/** A storage failure (db/storage-errors.ts) as the API answers it: 507 when full, 503 otherwise. */
+export function storageError(kind: StorageFailureKind): AppError {
+  return kind === 'full'
+    ? new AppError(
+        errorCodes.storageFull,
+        'The server has no room left to store this. Nothing of it was kept; ask the administrator to free disk space, then try again.',
+        507,
+      )
+    : new AppError(
+        errorCodes.storageUnavailable,
+        'The server could not write to its storage. Nothing of this request was kept; try again later, and tell the administrator if it persists.',
+        503,
+      );
+}
+
 function body(code: string, message: string, details?: unknown): ApiErrorBody {
   return details === undefined ? { error: { code, message } } : { error: { code, message, details } };
 }
@@ -31,6 +47,9 @@ function body(code: string, message: string, details?: unknown): ApiErrorBody {
 /** Errors raised by libraries before our handlers run, mapped to the API's own words. */
 function fromLibrary(err: unknown): AppError | null {
   if (typeof err !== 'object' || err === null) return null;
+  // SQLite or the file system refused a write (disk full, I/O error): the server's fault, not the client's
+  const storage = storageFailureKind(err);
+  if (storage !== null) return storageError(storage);
   const e = err as { type?: unknown; name?: unknown; code?: unknown; status?: unknown; expose?: unknown; message?: unknown };
   // body-parser
   if (e.type === 'entity.parse.failed') return new AppError(errorCodes.badInput, 'The request body is not valid JSON.', 400);

@@ -1,5 +1,6 @@
 import type { Server } from 'node:http';
 import { comparisonStateLabels } from '@shared/comparisons';
+import { verifyWholeAuditChain } from './audit/chain-state';
 import { closeApp, createApp } from './app';
 import { ConfigError, loadConfig, type Config } from './config';
 import { openDatabase } from './db/data-source';
@@ -7,10 +8,12 @@ import { WalCheckpointer } from './db/checkpointer';
 import { storedSessionSecret } from './db/settings';
 import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
 import { JobRunner } from './jobs/runner';
-import { createLogger } from './log';
+import { createLogger, guardStandardStreams } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
+import { formatFixed } from '@shared/format';
+import { analysisHandlers } from './comparisons/analysis-handlers';
 
 /**
  * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
@@ -33,6 +36,7 @@ function readConfig(): Config {
 }
 
 async function main(): Promise<void> {
+  guardStandardStreams();
   const config = readConfig();
   const log = createLogger(config.logLevel);
 
@@ -52,8 +56,7 @@ async function main(): Promise<void> {
     databasePath: config.databasePath,
     concurrency: config.analysisConcurrency,
     log,
-    mailer,
-    publicUrl: config.publicUrl,
+    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
   });
   await jobs.start();
 
@@ -70,7 +73,7 @@ async function main(): Promise<void> {
     if (config.demoScenario) console.log('The database is empty: adding the demo people and the demo comparisons, whose analyses run now (a few seconds)…');
     try {
       seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir } : null });
-      if (seeded.comparisons.length > 0) console.log(`The demo is ready (${((performance.now() - started) / 1000).toFixed(1)} s).`);
+      if (seeded.comparisons.length > 0) console.log(`The demo is ready (${formatFixed((performance.now() - started) / 1000, 1)} s).`);
     } catch (error) {
       log.error(
         `The demo scenario could not be completed; the server starts with what was added. To try again, stop the server and remove ${config.databasePath} (and its -wal and -shm files).`,
@@ -78,6 +81,15 @@ async function main(): Promise<void> {
       );
     }
   }
+
+  // The whole audit chain once at start-up; later calls verify only the events appended since.
+  void verifyWholeAuditChain(dataSource).then(
+    (check) => {
+      if (check.ok) log.info(`audit chain verified: ${check.events} events`);
+      else log.error(`THE AUDIT CHAIN IS BROKEN at event ${check.brokenAt}: ${check.reason}. Every audit trail reports it until the chain is restored.`);
+    },
+    (error: unknown) => log.error('the audit chain could not be verified at start-up', error),
+  );
 
   const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
   const server: Server = await new Promise((resolve, reject) => {

@@ -24,6 +24,26 @@ function findRoot(start: string): string {
 /** The project folder (the one holding package.json). */
 export const projectRoot = findRoot(here);
 
+/** Set by esbuild (scripts/server-bundle.mjs) in a build made outside dist/, e.g. the tests' build. */
+declare const __SCORECOURT_BUILD_DIR__: string | undefined;
+
+/**
+ * The folder of compiled worker threads: dist/ when running compiled code, the folder a build
+ * outside dist/ was made for (the unit and API suite's, tests/setup/compile-once.ts), or null to
+ * start workers from their TypeScript sources (npm run dev).
+ */
+let buildDir: string | null =
+  typeof __SCORECOURT_BUILD_DIR__ === 'string' ? __SCORECOURT_BUILD_DIR__ : compiled ? join(projectRoot, 'dist') : null;
+
+/**
+ * Starts worker threads from the compiled files in `dir` (laid out as dist/ is) even when this
+ * code runs from sources: the unit and API suite compiles the workers once per run instead of
+ * compiling TypeScript in every thread (tests/setup/use-compiled-workers.ts).
+ */
+export function useCompiledBuild(dir: string): void {
+  buildDir = dir;
+}
+
 /**
  * The file and Node flags to start a worker thread with.
  * @param sourcePath the worker's source path from the project root without extension, e.g.
@@ -31,7 +51,7 @@ export const projectRoot = findRoot(here);
  *   server/jobs and server/stats to the same path under dist/.
  */
 export function workerEntry(sourcePath: string): { file: string; execArgv: string[] } {
-  if (compiled) return { file: join(projectRoot, 'dist', `${sourcePath}.js`), execArgv: [] };
+  if (buildDir !== null) return { file: join(buildDir, `${sourcePath}.js`), execArgv: [] };
   return { file: join(projectRoot, `${sourcePath}.ts`), execArgv: ['--import', 'tsx'] };
 }
 
@@ -43,7 +63,7 @@ export function workerEntry(sourcePath: string): { file: string; execArgv: strin
  */
 export function startWorker(sourcePath: string, options: WorkerOptions = {}): Worker {
   const { file, execArgv } = workerEntry(sourcePath);
-  if (compiled) return new Worker(file, { ...options, execArgv: [...execArgv, ...(options.execArgv ?? [])] });
+  if (buildDir !== null) return new Worker(file, { ...options, execArgv: [...execArgv, ...(options.execArgv ?? [])] });
   const target = JSON.stringify(pathToFileURL(file).href);
   const code = `import('tsx/esm/api').then(({ register }) => { register(); return import(${target}); });`;
   return new Worker(code, { ...options, eval: true });

@@ -43,6 +43,12 @@ export interface SeedOptions {
   scenario?: AppContext | null;
   /** The real date the scenario's calendar counts back from (default: now). */
   today?: Date;
+  /**
+   * Bootstrap replicates of the scenario's analyses (default: demoSettings', 2,000). The unit and
+   * API suite plays the scenario with a few, so it runs in seconds; the reliability suite and
+   * every real first start play it in full.
+   */
+  replicates?: number;
 }
 
 async function addPeople(dataSource: DataSource, passwordHash: string): Promise<User[] | null> {
@@ -100,7 +106,7 @@ export async function seedDemo(dataSource: DataSource, options: SeedOptions): Pr
   return replay(momentOf('people', today), async (advanceTo) => {
     const people = await addPeople(dataSource, passwordHash);
     if (!people) return notSeeded;
-    const comparisons = await playScenario(ctx, byRole(people), { today, at: (step) => advanceTo(momentOf(step, today)) });
+    const comparisons = await playScenario(ctx, byRole(people), { today, at: (step) => advanceTo(momentOf(step, today)), replicates: options.replicates });
     return { seeded: true, people, comparisons };
   });
 }

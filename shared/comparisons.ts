@@ -17,7 +17,7 @@ import {
  */
 
 // --- states -------------------------------------------------------------------------------
-/** DESIGN.md "Workflow and roles". */
+/** docs/design.md "Workflow and roles". */
 export const comparisonStates = ['draft', 'analysed', 'in-review', 'validated', 'returned', 'decided'] as const;
 export const comparisonStateSchema = z.enum(comparisonStates);
 export type ComparisonState = z.infer<typeof comparisonStateSchema>;
@@ -68,8 +68,10 @@ export const holdoutSchema = z.object({
   bytes: z.number().int(),
   rowCount: z.number().int(),
   columns: z.array(holdoutColumnSchema),
-  /** The first 20 data rows, as text, in column order. */
+  /** The first 20 data rows, as text, in column order: cells cut to 200 characters, 64 KB in all; empty for roles other than modeler and analyst. */
   preview: z.array(z.array(z.string())),
+  /** True when the preview was left out for the viewer's role (the column names and kinds stay). */
+  previewWithheld: z.boolean().optional(),
   guess: mappingGuessSchema,
   uploadedBy: personRefSchema,
   uploadedAt: z.string(),
@@ -84,9 +86,25 @@ export const rowErrorSchema = z.object({
 });
 export type RowError = z.infer<typeof rowErrorSchema>;
 
+/** Segment columns a mapping sent to the server may name (each adds tables per value to the report). */
+export const maxSegmentColumns = 10;
+
+/**
+ * A mapping as the API accepts it: segment columns each at most once and at most
+ * maxSegmentColumns, so checking a mapping stays bounded work (reports already stored keep the
+ * looser columnMappingSchema).
+ */
+export const mappingInputSchema = columnMappingSchema.extend({
+  segments: z
+    .array(z.string().min(1))
+    .max(maxSegmentColumns, `at most ${maxSegmentColumns} segment columns`)
+    .refine((names) => new Set(names).size === names.length, { message: 'name each segment column at most once' })
+    .optional(),
+});
+
 /** POST /api/holdouts/:id/validate { mapping, dropMissing? } → the wizard's validation report. */
 export const validateMappingInputSchema = z.object({
-  mapping: columnMappingSchema,
+  mapping: mappingInputSchema,
   dropMissing: z.boolean().default(false),
 });
 export const validationReportSchema = z.object({
@@ -99,7 +117,12 @@ export const validationReportSchema = z.object({
       rowsUsed: z.number().int(),
       goods: z.number().int(),
       bads: z.number().int(),
+      /** Bad rate of the rows with an outcome. */
       badRate: z.number(),
+      /** Rows kept without an outcome (keep-unknown); absent when every row has one. */
+      unknownRows: z.number().int().optional(),
+      /** Applicants the rows stand for (weights summed); absent without weights or unknown rows. */
+      accounts: z.number().optional(),
       rowsDroppedMissingScore: z.number().int(),
       missingByColumn: z.record(z.string(), z.number().int()),
       warnings: z.array(z.string()),
@@ -118,7 +141,7 @@ export const createComparisonInputSchema = z.object({
   name: z.string().trim().min(1, 'Give the comparison a name').max(160),
   description: z.string().trim().max(4000).optional(),
   holdoutId: z.number().int(),
-  mapping: columnMappingSchema.optional(),
+  mapping: mappingInputSchema.optional(),
   settings: analysisSettingsSchema.partial().optional(),
 });
 export type CreateComparisonInput = z.infer<typeof createComparisonInputSchema>;
@@ -129,7 +152,7 @@ export type CreateComparisonInput = z.infer<typeof createComparisonInputSchema>;
  */
 export const setupComparisonInputSchema = z.object({
   holdoutId: z.number().int().optional(),
-  mapping: columnMappingSchema,
+  mapping: mappingInputSchema,
   settings: analysisSettingsSchema.partial().optional(),
 });
 export type SetupComparisonInput = z.infer<typeof setupComparisonInputSchema>;

@@ -22,4 +22,8 @@ export const errorCodes = {
   tooLarge: 'payload_too_large',
   badInput: 'bad_input',
   internal: 'internal_error',
+  /** 507: the server's disk is full; nothing of the request was stored. */
+  storageFull: 'storage_full',
+  /** 503: the server's storage failed (I/O error, read-only); nothing of the request was stored. */
+  storageUnavailable: 'storage_unavailable',
 } as const;

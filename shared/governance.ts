@@ -191,8 +191,13 @@ export const auditEventSchema = z.object({
   prevHash: z.string().nullable(),
 });
 export type AuditEvent = z.infer<typeof auditEventSchema>;
-/** GET /api/comparisons/:id/audit → the comparison's events in order, and whether the whole chain verifies. */
-export const auditTrailSchema = z.object({ events: z.array(auditEventSchema), chainValid: z.boolean() });
+/** GET /api/comparisons/:id/audit?after&limit → the comparison's events in order, a page at a time, and whether the chain verifies. */
+export const auditTrailSchema = z.object({
+  events: z.array(auditEventSchema),
+  chainValid: z.boolean(),
+  /** Paged (shared/paging.ts): the id to ask `after` for the next page, null on the last. */
+  nextAfter: z.number().int().nullable().optional(),
+});
 
 // GET /api/comparisons/:id/evidence.json → the evidence pack: report, settings, hashes, verdicts,
 // reviews, votes, decision and the audit trail, as one JSON download.

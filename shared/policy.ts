@@ -3,7 +3,7 @@ import { z } from 'zod';
 /**
  * The adoption policy: the rules that turn a report's evidence into a recommendation.
  * Admin-editable and versioned on the server; the version is stored with every verdict.
- * Defaults: DESIGN.md ("Verdict"). Materiality of 2 Gini points, 300 bads and a quorum of two
+ * Defaults: docs/design.md ("Verdict"). Materiality of 2 Gini points, 300 bads and a quorum of two
  * committee votes are common practice, no source.
  */
 export const segmentRuleSchema = z.object({ enabled: z.boolean(), minBads: z.number().int().min(0) });
@@ -23,7 +23,15 @@ export const adoptionPolicySchema = z.object({
   /** Require the lower bound of the ΔGini interval to be above 0. */
   requireIntervalAboveZero: z.boolean(),
   /** Require the swap-in bad rate not above the swap-out bad rate at this approval rate. */
-  swapRule: z.object({ enabled: z.boolean(), approvalRate: z.number().gt(0).lt(1) }),
+  swapRule: z.object({
+    enabled: z.boolean(),
+    approvalRate: z.number().gt(0).lt(1),
+    /**
+     * Must also hold at the worst case: the swap-in's upper bound (every unknown bad) not above the
+     * swap-out's lower bound (every unknown good). Absent = false.
+     */
+    worstCase: z.boolean().optional(),
+  }),
   /** Minimum number of bads in the holdout. */
   minBads: z.number().int().min(0),
   /** Committee votes needed before a decision can be recorded; 0 = no quorum. */

@@ -93,16 +93,40 @@ export const bootstrapSchema = z.object({
 });
 export type Bootstrap = z.infer<typeof bootstrapSchema>;
 
-export const swapCellSchema = z.object({
-  count: z.number().int(),
-  /** Share of all accounts in the holdout. */
-  share: z.number(),
-  bads: z.number().int(),
+export const inferredBadsSchema = z.object({
+  method: z.enum(['parcel', 'column']),
+  /** Known bads plus the bads inferred for the unknown accounts (weighted). */
+  bads: z.number(),
+  /** bads / accounts; null for an empty cell. */
   badRate: z.number().nullable(),
-  /** Wilson score interval of the bad rate at the report's confidence. */
+});
+export type InferredBads = z.infer<typeof inferredBadsSchema>;
+
+export const swapCellSchema = z.object({
+  /** Rows of the file in the cell (all of them, with or without an outcome). */
+  count: z.number().int(),
+  /** Share of all accounts in the holdout (weighted). */
+  share: z.number(),
+  /** Bads among the accounts with a known outcome (weighted). */
+  bads: z.number(),
+  /** bads / known accounts; null when no account of the cell has a known outcome. */
+  badRate: z.number().nullable(),
+  /** Wilson score interval of the bad rate at the report's confidence (on the Kish effective size when weighted). */
   badRateCi: intervalSchema.nullable(),
-  /** Sum of the exposure column for these accounts; null when no exposure column is mapped. */
+  /** Sum of the exposure column for these accounts (weighted); null when no exposure column is mapped. */
   amount: z.number().nullable(),
+  /**
+   * Present when the holdout has weights or rows without an outcome (engine 1.2); otherwise
+   * accounts = known = count, unknown = 0 and the bounds are the bad rate itself.
+   * accounts: weighted applicants in the cell; known / unknown: of them, with / without an outcome.
+   */
+  accounts: z.number().optional(),
+  known: z.number().optional(),
+  unknown: z.number().optional(),
+  /** [every unknown good, every unknown bad]: bads / accounts and (bads + unknown) / accounts. */
+  badRateBounds: intervalSchema.nullable().optional(),
+  /** The bad rate with the unknown accounts' bads inferred, under the report's reject inference; null for known-only. */
+  inferred: inferredBadsSchema.nullable().optional(),
 });
 export type SwapCell = z.infer<typeof swapCellSchema>;
 
@@ -127,8 +151,8 @@ export const segmentSwapCellSchema = swapCellSchema.omit({ share: true });
 export type SegmentSwapCell = z.infer<typeof segmentSwapCellSchema>;
 
 export const segmentApprovalSchema = z.object({
-  /** Accounts of the segment value on the safe side of the model's cut-off. */
-  approved: z.number().int(),
+  /** Accounts of the segment value on the safe side of the model's cut-off (weighted). */
+  approved: z.number(),
   /** approved / accounts of the segment value. */
   approvalRate: z.number(),
   /** Bad rate of the accounts the model approves in the segment value; null when it approves none. */
@@ -139,8 +163,11 @@ export const segmentApprovalSchema = z.object({
 export const swapSegmentRowSchema = z.object({
   column: z.string(),
   value: z.string(),
-  accounts: z.number().int(),
-  bads: z.number().int(),
+  /** Accounts of the segment value (weighted), with or without an outcome. */
+  accounts: z.number(),
+  bads: z.number(),
+  /** Of them, accounts without an outcome (weighted); absent before engine 1.2. */
+  unknown: z.number().optional(),
   champion: segmentApprovalSchema,
   challenger: segmentApprovalSchema,
   swapIn: segmentSwapCellSchema,
@@ -181,7 +208,19 @@ export const swapMatrixSchema = z.object({
   championBands: z.array(z.object({ band: z.number().int(), scoreMin: z.number(), scoreMax: z.number() })),
   challengerBands: z.array(z.object({ band: z.number().int(), scoreMin: z.number(), scoreMax: z.number() })),
   /** cells[i][j]: champion band i+1 × challenger band j+1. */
-  cells: z.array(z.array(z.object({ count: z.number().int(), bads: z.number().int(), badRate: z.number().nullable() }))),
+  cells: z.array(
+    z.array(
+      z.object({
+        /** Accounts (weighted), with or without an outcome. */
+        count: z.number(),
+        bads: z.number(),
+        /** bads / accounts with a known outcome. */
+        badRate: z.number().nullable(),
+        /** Accounts without an outcome (weighted); absent when every outcome is known. */
+        unknown: z.number().optional(),
+      }),
+    ),
+  ),
 });
 export type SwapMatrix = z.infer<typeof swapMatrixSchema>;
 
@@ -206,12 +245,13 @@ export const strategyCurveSchema = z.object({
   /** At the report's approval rate. */
   atApprovalRate: z.object({
     approvalRate: z.number(),
-    championBads: z.number().int(),
-    challengerBads: z.number().int(),
+    /** Known bads approved (weighted). */
+    championBads: z.number(),
+    challengerBads: z.number(),
     /** Champion's approved bads minus the challenger's, at the same approval rate. */
-    badsAvoided: z.number().int(),
+    badsAvoided: z.number(),
     /** Extra approvals the challenger makes while keeping the champion's portfolio bad rate. */
-    approvalsGainedAtEqualBadRate: z.number().int().nullable(),
+    approvalsGainedAtEqualBadRate: z.number().nullable(),
   }),
 });
 export type StrategyCurve = z.infer<typeof strategyCurveSchema>;
@@ -220,9 +260,13 @@ export const bandRowSchema = z.object({
   band: z.number().int(),
   scoreMin: z.number(),
   scoreMax: z.number(),
-  count: z.number().int(),
-  goods: z.number().int(),
-  bads: z.number().int(),
+  /** Accounts in the band (weighted), with or without an outcome. */
+  count: z.number(),
+  /** Goods and bads with a known outcome (weighted); the bad rate is bads / (goods + bads). */
+  goods: z.number(),
+  bads: z.number(),
+  /** Accounts without an outcome (weighted); absent when every outcome is known. */
+  unknown: z.number().optional(),
   badRate: z.number().nullable(),
   /** Cumulative shares of all bads and of all goods, riskiest band first. */
   cumBadShare: z.number(),
@@ -246,9 +290,14 @@ export type SegmentFlag = z.infer<typeof segmentFlagSchema>;
 export const segmentRowSchema = z.object({
   column: z.string(),
   value: z.string(),
+  /** Rows with a known outcome, and of them goods and bads (unweighted: what the Gini rests on). */
   n: z.number().int(),
   goods: z.number().int(),
   bads: z.number().int(),
+  /** Applicants of the value (weighted), with or without an outcome; absent before engine 1.2. */
+  accounts: z.number().optional(),
+  /** Of them, applicants without an outcome (weighted). */
+  unknown: z.number().optional(),
   championGini: z.number().nullable(),
   challengerGini: z.number().nullable(),
   deltaGini: z.number().nullable(),
@@ -363,9 +412,36 @@ export const columnMappingSchema = z.object({
   id: z.string().min(1).nullable().optional(),
   segments: z.array(z.string().min(1)).optional(),
   exposure: z.string().min(1).nullable().optional(),
+  /** Sampling weight: a positive finite number per row, each row standing for that many applicants. */
   weight: z.string().min(1).nullable().optional(),
+  /**
+   * Keep applicants without an outcome (e.g. those the champion declined, never booked): a blank
+   * outcome, or one of `unknownValues`, marks the row unknown instead of being an error.
+   */
+  keepUnknown: z.boolean().optional(),
+  /** Coded values meaning "no outcome" (e.g. `R`, `reject`, `-1`); only with keepUnknown. */
+  unknownValues: z.array(z.string().trim().min(1)).max(20).optional(),
+  /** A column with each unknown row's probability of bad (0 to 1), for reject inference by column. */
+  inferredBad: z.string().min(1).nullable().optional(),
 });
 export type ColumnMapping = z.infer<typeof columnMappingSchema>;
+
+/**
+ * How the bad rate of applicants without an outcome is stated (reject inference):
+ * - known-only: the bad rate of the known accounts, with the bounds (every unknown good, every
+ *   unknown bad) beside it;
+ * - parcel: an unknown row in champion score band b counts min(1, K·r_b) bads, r_b the weighted
+ *   bad rate of the known rows of that band;
+ * - column: the unknown row's probability of bad from the mapped inferred-bad column.
+ */
+export const rejectInferenceMethods = ['known-only', 'parcel', 'column'] as const;
+export const rejectInferenceSchema = z.object({
+  method: z.enum(rejectInferenceMethods).default('known-only'),
+  /** K of the parcel method. */
+  parcelFactor: z.number().gt(0).max(20).default(1),
+});
+export type RejectInference = z.infer<typeof rejectInferenceSchema>;
+export const defaultRejectInference: RejectInference = { method: 'known-only', parcelFactor: 1 };
 
 export const analysisSettingsSchema = z.object({
   bootstrap: z.number().int().min(0).max(20000).default(2000),
@@ -385,8 +461,22 @@ export const analysisSettingsSchema = z.object({
     })
     .nullable()
     .default(null),
+  /** Reject inference for rows without an outcome; absent = known-only (reports before engine 1.2 have none). */
+  rejectInference: rejectInferenceSchema.optional(),
 });
 export type AnalysisSettings = z.infer<typeof analysisSettingsSchema>;
+
+/**
+ * Who is in the holdout: rows of the file and the applicants they stand for (accounts, weighted),
+ * split by whether the outcome is known. Absent in reports before engine 1.2 (see populationOf).
+ */
+export const populationSchema = z.object({
+  rows: z.number().int(),
+  accounts: z.number(),
+  known: z.object({ rows: z.number().int(), accounts: z.number(), goods: z.number(), bads: z.number() }),
+  unknown: z.object({ rows: z.number().int(), accounts: z.number() }),
+});
+export type Population = z.infer<typeof populationSchema>;
 
 export const reportSchema = z.object({
   engineVersion: z.string(),
@@ -395,10 +485,13 @@ export const reportSchema = z.object({
   settings: analysisSettingsSchema,
   /** The adoption policy the verdict was evaluated under. */
   policy: adoptionPolicySchema,
+  /** Rows with a known outcome, and of them goods and bads (unweighted). */
   rows: z.number().int(),
   goods: z.number().int(),
   bads: z.number().int(),
+  /** Bad rate of the accounts with a known outcome (weighted). */
   badRate: z.number(),
+  population: populationSchema.optional(),
   champion: modelMetricsSchema,
   challenger: modelMetricsSchema,
   difference: differenceSchema,
@@ -414,3 +507,33 @@ export const reportSchema = z.object({
   verdict: verdictSchema,
 });
 export type Report = z.infer<typeof reportSchema>;
+
+/** A report's population; reports before engine 1.2 have every outcome known and no weights. */
+export function populationOf(report: Pick<Report, 'rows' | 'goods' | 'bads' | 'population'>): Population {
+  return (
+    report.population ?? {
+      rows: report.rows,
+      accounts: report.rows,
+      known: { rows: report.rows, accounts: report.rows, goods: report.goods, bads: report.bads },
+      unknown: { rows: 0, accounts: 0 },
+    }
+  );
+}
+
+/** A swap cell with every field of engine 1.2, filled in for cells that have none (all known, unweighted). */
+export function fullSwapCell(cell: SegmentSwapCell): Required<SegmentSwapCell> {
+  const accounts = cell.accounts ?? cell.count;
+  return {
+    ...cell,
+    accounts,
+    known: cell.known ?? accounts,
+    unknown: cell.unknown ?? 0,
+    badRateBounds: cell.badRateBounds !== undefined ? cell.badRateBounds : cell.badRate === null ? null : [cell.badRate, cell.badRate],
+    inferred: cell.inferred ?? null,
+  };
+}
+
+/** The reject inference a report was computed under (known-only when none is recorded). */
+export function inferenceOf(settings: Pick<AnalysisSettings, 'rejectInference'>): RejectInference {
+  return settings.rejectInference ?? defaultRejectInference;
+}

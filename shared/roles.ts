@@ -1,6 +1,6 @@
 import { z } from 'zod';
 
-/** The five roles of DESIGN.md ("Workflow and roles"); a person may hold several. */
+/** The five roles of docs/design.md ("Workflow and roles"); a person may hold several. */
 export const roles = ['admin', 'modeler', 'analyst', 'policy', 'committee'] as const;
 export const roleSchema = z.enum(roles);
 export type Role = z.infer<typeof roleSchema>;

@@ -69,7 +69,18 @@ export const mailMessageSchema = z.object({
   lastError: z.string().nullable(),
   createdAt: z.string(),
   sentAt: z.string().nullable(),
+  /**
+   * One-time links (invitations, password resets) in the text: `withheld` when mail goes to a real
+   * SMTP server (the link is only in the e-mail), `shown` with the local sink, which stands in for
+   * everyone's mailbox; absent when the message has none.
+   */
+  oneTimeLinks: z.enum(['withheld', 'shown']).optional(),
 });
 export type MailMessage = z.infer<typeof mailMessageSchema>;
-/** GET /api/outbox?page=&pageSize= → { messages, total } (newest first) */
-export const outboxResponseSchema = z.object({ messages: z.array(mailMessageSchema), total: z.number().int() });
+/** GET /api/outbox?page=&pageSize= → { messages, total } (newest first); each read is in the audit trail. */
+export const outboxResponseSchema = z.object({
+  messages: z.array(mailMessageSchema),
+  total: z.number().int(),
+  /** True with the local sink: the messages here are the only copy, links included. */
+  localSink: z.boolean().optional(),
+});

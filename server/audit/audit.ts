@@ -67,38 +67,76 @@ export async function recordAudit(manager: EntityManager, input: AuditInput): Pr
 
 export type ChainCheck = { ok: true; events: number } | { ok: false; events: number; brokenAt: number; reason: string };
 
-/** Re-computes every hash in order; reports the first event where the chain breaks. */
-export async function verifyAuditChain(source: DataSource | EntityManager, batchSize = 1000): Promise<ChainCheck> {
+/** A verified point of the chain: the event `id` with `hash`, the `events`-th from the start. */
+export interface ChainHead {
+  id: number;
+  hash: string;
+  events: number;
+}
+
+export const chainStart: ChainHead = { id: 0, hash: genesisHash, events: 0 };
+
+/**
+ * Re-computes every hash in order after `from` (the whole chain by default); reports the first
+ * event where the chain breaks. `onBatch` runs around each batch's read (audit/chain-state.ts
+ * reads each batch in turn with the writes, so no uncommitted event is ever verified).
+ */
+export async function verifyChainFrom(
+  source: DataSource | EntityManager,
+  batchSize = 1000,
+  from: ChainHead = chainStart,
+  around: <T>(read: () => Promise<T>) => Promise<T> = (read) => read(),
+): Promise<ChainCheck & { head: ChainHead }> {
   const repository = source.getRepository(AuditEvent);
-  let prevHash = genesisHash;
-  let afterId = 0;
-  let events = 0;
+  if (from.id > 0) {
+    // The remembered head is still there, as it was (this also notices the newest events removed).
+    const head = await around(() => repository.findOneBy({ id: from.id }));
+    let intact = head !== null && head.hash === from.hash;
+    try {
+      intact &&= hashEvent(head!) === from.hash;
+    } catch {
+      intact = false;
+    }
+    if (!intact) {
+      return { ok: false, events: from.events - 1, brokenAt: from.id, reason: 'the last verified event was changed or removed', head: from };
+    }
+  }
+  let prevHash = from.hash;
+  let afterId = from.id;
+  let events = from.events;
   for (;;) {
-    const batch = await repository
-      .createQueryBuilder('event')
-      .where('event.id > :afterId', { afterId })
-      .orderBy('event.id', 'ASC')
-      .take(batchSize)
-      .getMany();
-    if (batch.length === 0) return { ok: true, events };
+    const batch = await around(() =>
+      repository.createQueryBuilder('event').where('event.id > :afterId', { afterId }).orderBy('event.id', 'ASC').take(batchSize).getMany(),
+    );
+    const head = { id: afterId, hash: prevHash, events };
+    if (batch.length === 0) return { ok: true, events, head };
     for (const event of batch) {
+      const at = { id: afterId, hash: prevHash, events };
       if (event.prevHash !== prevHash) {
-        return { ok: false, events, brokenAt: event.id, reason: 'its link to the previous event does not match (an event was removed, added or reordered)' };
+        return { ok: false, events, brokenAt: event.id, reason: 'its link to the previous event does not match (an event was removed, added or reordered)', head: at };
       }
       let expected: string;
       try {
         expected = hashEvent(event);
       } catch {
-        return { ok: false, events, brokenAt: event.id, reason: 'its details are not valid JSON' };
+        return { ok: false, events, brokenAt: event.id, reason: 'its details are not valid JSON', head: at };
       }
       if (event.hash !== expected) {
-        return { ok: false, events, brokenAt: event.id, reason: 'its content does not match its hash (the event was changed)' };
+        return { ok: false, events, brokenAt: event.id, reason: 'its content does not match its hash (the event was changed)', head: at };
       }
       prevHash = event.hash;
       afterId = event.id;
       events += 1;
     }
+    // Other requests get a turn between batches.
+    await new Promise<void>((resolve) => setImmediate(resolve));
   }
+}
+
+/** The whole chain, from its first event (the full verification). */
+export async function verifyAuditChain(source: DataSource | EntityManager, batchSize = 1000): Promise<ChainCheck> {
+  const { head: _head, ...check } = await verifyChainFrom(source, batchSize);
+  return check;
 }
 
 /** The details of a stored event, parsed. */

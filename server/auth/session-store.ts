@@ -8,6 +8,12 @@ import type { Logger } from '../log';
  * express-session store on the `sessions` table. Sessions survive restarts; each row records the
  * signed-in person (`userId`) so deactivating someone can end their sessions at once. Expired
  * rows are ignored when read and pruned every few minutes.
+ *
+ * Only signed-in sessions are written to the database. A session without a person (someone on the
+ * sign-in page who fetched a CSRF token) lives in memory, at most `anonymousMax` of them for at
+ * most two hours, oldest dropped first: asking for tokens without signing in costs no disk (5,000
+ * anonymous calls left 5,000 rows for 8 hours before). Such a session is lost on a restart; the
+ * client fetches a new token when its old one is refused.
  */
 export class SqliteSessionStore extends session.Store {
   private readonly timer: NodeJS.Timeout;
@@ -17,6 +23,10 @@ export class SqliteSessionStore extends session.Store {
    * the expiry by more than a minute, without a write statement to find that out.
    */
   private readonly storedExpiry = new Map<string, number>();
+  /** Sessions without a signed-in person, in memory only (insertion order: oldest first). */
+  private readonly anonymous = new Map<string, { data: string; expiresAt: number }>();
+  static readonly anonymousMax = 20_000;
+  static readonly anonymousTtlMs = 2 * 60 * 60_000;
 
   constructor(
     private readonly dataSource: DataSource,
@@ -50,7 +60,20 @@ export class SqliteSessionStore extends session.Store {
     this.storedExpiry.set(sid, expiresAt);
   }
 
+  private keepAnonymous(sid: string, data: session.SessionData): void {
+    this.anonymous.delete(sid);
+    if (this.anonymous.size >= SqliteSessionStore.anonymousMax) this.anonymous.delete(this.anonymous.keys().next().value!);
+    const expiresAt = Math.min(this.expiry(data).getTime(), Date.now() + SqliteSessionStore.anonymousTtlMs);
+    this.anonymous.set(sid, { data: JSON.stringify(data), expiresAt });
+  }
+
   override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
+    const kept = this.anonymous.get(sid);
+    if (kept) {
+      if (kept.expiresAt > Date.now()) return callback(null, JSON.parse(kept.data) as session.SessionData);
+      this.anonymous.delete(sid);
+      return callback(null, null);
+    }
     // A plain query: this runs on every request, and the row needs no entity.
     (this.dataSource.query('SELECT "data", "expiresAt" FROM "sessions" WHERE "sid" = ?', [sid]) as Promise<{ data: string; expiresAt: string }[]>)
       .then(([row]) => {
@@ -70,6 +93,20 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override set(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
+    if (SqliteSessionStore.userIdOf(data) === null) {
+      this.keepAnonymous(sid, data);
+      // A stored session that no longer has a person (signed out without a new id) leaves the database.
+      if (!this.storedExpiry.has(sid)) {
+        callback?.();
+        return;
+      }
+      this.storedExpiry.delete(sid);
+      withWriteLock(this.dataSource, () => this.repository.delete({ sid }))
+        .then(() => callback?.())
+        .catch((error: unknown) => callback?.(error));
+      return;
+    }
+    this.anonymous.delete(sid);
     const row = { sid, data: JSON.stringify(data), expiresAt: this.expiry(data), userId: SqliteSessionStore.userIdOf(data) };
     withWriteLock(this.dataSource, () => this.repository.upsert(row, ['sid']))
       .then(() => {
@@ -84,6 +121,11 @@ export class SqliteSessionStore extends session.Store {
    * only when its expiry would move by more than a minute.
    */
   override touch(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
+    if (this.anonymous.has(sid)) {
+      this.keepAnonymous(sid, data);
+      callback?.();
+      return;
+    }
     const expiresAt = this.expiry(data);
     const known = this.storedExpiry.get(sid);
     if (known !== undefined && expiresAt.getTime() - known < 60_000) {
@@ -100,6 +142,7 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override destroy(sid: string, callback?: (err?: unknown) => void): void {
+    this.anonymous.delete(sid);
     this.storedExpiry.delete(sid);
     withWriteLock(this.dataSource, () => this.repository.delete({ sid }))
       .then(() => callback?.())
@@ -107,6 +150,7 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override clear(callback?: (err?: unknown) => void): void {
+    this.anonymous.clear();
     this.storedExpiry.clear();
     withWriteLock(this.dataSource, () => this.repository.clear())
       .then(() => callback?.())
@@ -116,7 +160,7 @@ export class SqliteSessionStore extends session.Store {
   override length(callback: (err: unknown, length?: number) => void): void {
     this.repository
       .count()
-      .then((count) => callback(null, count))
+      .then((count) => callback(null, count + this.anonymous.size))
       .catch((error: unknown) => callback(error));
   }
 

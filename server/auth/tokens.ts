@@ -3,6 +3,7 @@ import { IsNull, type DataSource, type EntityManager } from 'typeorm';
 import type { Config } from '../config';
 import { OneTimeToken } from '../db/entities/index';
 import type { TokenPurpose } from '../db/entities/one-time-token';
+import { now as clockNow } from '../clock';
 
 /**
  * One-time links for invitations (7 days) and password resets (1 hour). The token is 32 random
@@ -29,7 +30,7 @@ export async function issueToken(
   manager: EntityManager,
   userId: number,
   purpose: TokenPurpose,
-  now = new Date(),
+  now = clockNow(),
 ): Promise<{ token: string; expiresAt: Date }> {
   const repository = manager.getRepository(OneTimeToken);
   await repository.update({ userId, purpose, usedAt: IsNull() }, { usedAt: now });
@@ -40,7 +41,7 @@ export async function issueToken(
 }
 
 /** Retires every unused link of a person; returns how many there were. */
-export async function retireTokens(manager: EntityManager, userId: number, now = new Date()): Promise<number> {
+export async function retireTokens(manager: EntityManager, userId: number, now = clockNow()): Promise<number> {
   const result = await manager.getRepository(OneTimeToken).update({ userId, usedAt: IsNull() }, { usedAt: now });
   return result.affected ?? 0;
 }
@@ -50,7 +51,7 @@ export type TokenState = 'valid' | 'used' | 'expired';
 export async function findToken(
   source: DataSource | EntityManager,
   token: string,
-  now = new Date(),
+  now = clockNow(),
 ): Promise<{ record: OneTimeToken; state: TokenState } | null> {
   if (token.length < 20 || token.length > 100) return null;
   const record = await source.getRepository(OneTimeToken).findOne({ where: { tokenHash: hashToken(token) }, relations: { user: true } });
@@ -60,7 +61,7 @@ export async function findToken(
 }
 
 /** Marks the link used; false when it was used (or retired) meanwhile. */
-export async function consumeToken(manager: EntityManager, record: OneTimeToken, now = new Date()): Promise<boolean> {
+export async function consumeToken(manager: EntityManager, record: OneTimeToken, now = clockNow()): Promise<boolean> {
   const result = await manager.getRepository(OneTimeToken).update({ id: record.id, usedAt: IsNull() }, { usedAt: now });
   return result.affected === 1;
 }

@@ -1,5 +1,17 @@
 import { parseArgs } from 'node:util';
-import { swapInRiskier, type AnalysisSettings, type ColumnMapping, type HigherIs, type Report } from '@shared/report';
+import { MISSING, formatCount, formatFixed, formatGini, formatPStatement, formatPercent, formatSignedNumber } from '@shared/format';
+import {
+  type AnalysisSettings,
+  type ColumnMapping,
+  fullSwapCell,
+  type HigherIs,
+  inferenceOf,
+  populationOf,
+  type RejectInference,
+  rejectInferenceMethods,
+  type Report,
+  swapInRiskier,
+} from '@shared/report';
 import { HoldoutInputError } from '@server/reader/errors';
 import { loadHoldout } from '@server/reader/load';
 import { buildReport } from '@server/stats/report';
@@ -30,6 +42,13 @@ Columns
   --exposure COL             exposure / amount column, summed in the swap sets
   --id COL                   account id column
   --drop-missing             leave out (and count) rows with an empty score instead of stopping
+  --weight COL               sampling weight column: a positive number per row, each row
+                             standing for that many applicants
+  --keep-unknown             keep applicants without an outcome (e.g. declined, never booked):
+                             a blank outcome marks the row unknown instead of being an error
+  --unknown-value V          an outcome value that also means "no outcome" (repeatable; e.g. R)
+  --inferred-bad COL         each unknown applicant's probability of bad, 0 to 1 (e.g. from the
+                             bureau), required on every unknown row; for --reject-inference column
 
 Analysis
   --bootstrap B              bootstrap replicates, 0 to skip (default: 2000)
@@ -38,6 +57,11 @@ Analysis
   --cutoff-champion X        champion's cut-off (accounts on the safe side, X included, are
   --cutoff-challenger Y      accepted); give both, or neither to match an approval rate
   --approval-rate R          approval rate for matched cut-offs (default: 0.7)
+  --reject-inference known-only|parcel|column
+                             how the unknown applicants' bad rate is stated in the swap sets
+                             (default known-only: known outcomes, with the bounds beside them)
+  --parcel-factor K          parcelling: an unknown applicant in champion band b counts
+                             min(1, K × the band's known bad rate) bads (default 1)
 
 Output
   --json                     the report as JSON on stdout, nothing else
@@ -73,6 +97,12 @@ const options = {
   exposure: { type: 'string' },
   id: { type: 'string' },
   'drop-missing': { type: 'boolean' },
+  weight: { type: 'string' },
+  'keep-unknown': { type: 'boolean' },
+  'unknown-value': { type: 'string', multiple: true },
+  'inferred-bad': { type: 'string' },
+  'reject-inference': { type: 'string' },
+  'parcel-factor': { type: 'string' },
   json: { type: 'boolean' },
   help: { type: 'boolean', short: 'h' },
 } as const;
@@ -141,6 +171,16 @@ export function parseCommand(argv: string[]): CompareCommand {
     segments: values.segment ?? [],
     exposure: values.exposure ?? null,
   };
+  if (values.weight !== undefined) mapping.weight = values.weight;
+  if (values['keep-unknown']) mapping.keepUnknown = true;
+  if (values['unknown-value'] !== undefined) {
+    if (!values['keep-unknown']) throw new UsageError('--unknown-value needs --keep-unknown');
+    mapping.unknownValues = values['unknown-value'];
+  }
+  if (values['inferred-bad'] !== undefined) {
+    if (!values['keep-unknown']) throw new UsageError('--inferred-bad needs --keep-unknown');
+    mapping.inferredBad = values['inferred-bad'];
+  }
   for (const [flag, value] of Object.entries({ '--outcome': mapping.outcome, '--bad-value': mapping.badValue, '--champion': mapping.champion, '--challenger': mapping.challenger })) {
     if (value.trim() === '') throw new UsageError(`${flag} must not be empty`);
   }
@@ -163,21 +203,29 @@ export function parseCommand(argv: string[]): CompareCommand {
     settings.cutoffs = { champion: cutoffChampion, challenger: cutoffChallenger };
   }
   settings.dropMissing = values['drop-missing'] ?? false;
+  const method = values['reject-inference'];
+  const parcelFactor = number(values['parcel-factor'], '--parcel-factor', (v) => v > 0 && v <= 20, 'a number above 0 and at most 20');
+  if (method !== undefined || parcelFactor !== undefined) {
+    if (method !== undefined && !rejectInferenceMethods.includes(method as RejectInference['method'])) {
+      throw new UsageError(`--reject-inference must be known-only, parcel or column, got "${method}"`);
+    }
+    const chosen = (method ?? 'known-only') as RejectInference['method'];
+    if (parcelFactor !== undefined && chosen !== 'parcel') throw new UsageError('--parcel-factor goes with --reject-inference parcel');
+    if (chosen === 'column' && mapping.inferredBad === undefined) throw new UsageError('--reject-inference column needs --inferred-bad COL');
+    settings.rejectInference = { method: chosen, parcelFactor: parcelFactor ?? 1 };
+  }
   return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings };
 }
 
 // --- the readable summary ------------------------------------------------------------------
-const pct = (value: number | null, digits = 1) => (value === null ? '—' : `${(value * 100).toFixed(digits)}%`);
-const points = (value: number, digits = 1) => (value * 100).toFixed(digits);
-const signed = (value: number, digits = 1) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(digits)}`;
-const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? '—' : `[${format(ci[0])}, ${format(ci[1])}]`);
-const int = (value: number) => value.toLocaleString('en-US');
-function pValue(p: number | null): string {
-  if (p === null) return '—';
-  if (p === 0) return '< 1e-300';
-  if (p >= 0.001) return p.toFixed(4);
-  return p.toExponential(1);
-}
+// Numbers as everywhere else (shared/format.ts): Gini and KS in points, rates as percentages,
+// differences signed with a real minus, p-values with three significant digits.
+const pct = (value: number | null, digits = 1) => formatPercent(value, digits);
+const points = (value: number) => formatGini(value);
+const signed = (value: number, digits = 1) => formatSignedNumber(value * 100, digits);
+const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? MISSING : `[${format(ci[0])}, ${format(ci[1])}]`);
+const int = (value: number) => formatCount(value);
+const pStatement = (p: number | null) => formatPStatement(p);
 const pad = (text: string, width: number) => text.padEnd(width);
 
 export function summary(report: Report): string {
@@ -186,6 +234,14 @@ export function summary(report: Report): string {
   const { champion, challenger, difference, swap } = report;
   lines.push(`Scorecourt comparison of ${report.input.fileName}`);
   lines.push(`  ${int(report.rows)} accounts, ${int(report.bads)} bads (bad rate ${pct(report.badRate, 2)}); SHA-256 ${report.input.sha256}`);
+  if (report.population) {
+    const p = populationOf(report);
+    lines.push(
+      `  ${int(p.rows)} rows standing for ${int(Math.round(p.accounts))} applicants: ${int(Math.round(p.known.accounts))} with an outcome, ${int(Math.round(p.unknown.accounts))} without (${int(p.unknown.rows)} rows); AUC, KS and bad rates use those with an outcome`,
+    );
+    const inference = inferenceOf(report.settings);
+    lines.push(`  reject inference: ${inference.method === 'parcel' ? `parcel, factor ${inference.parcelFactor}` : inference.method}`);
+  }
   lines.push(`  engine ${report.engineVersion}; orientation: champion higher = ${champion.higherIs}, challenger higher = ${challenger.higherIs}`);
   lines.push('');
   lines.push(`${pad('', 12)}${pad('Gini', 8)}${pad(`${level} CI (DeLong)`, 22)}${pad('AUC', 9)}${pad('KS', 7)}${pad(`KS ${level} CI`, 18)}KS at score`);
@@ -194,7 +250,7 @@ export function summary(report: Report): string {
     ['Challenger', challenger],
   ] as const) {
     lines.push(
-      `${pad(name, 12)}${pad(points(model.gini), 8)}${pad(range(model.giniCi, (v) => points(v)), 22)}${pad(model.auc.toFixed(4), 9)}${pad(points(model.ks), 7)}${pad(range(model.ksCi, (v) => points(v)), 18)}${model.ksScore}`,
+      `${pad(name, 12)}${pad(points(model.gini), 8)}${pad(range(model.giniCi, (v) => points(v)), 22)}${pad(formatFixed(model.auc, 4), 9)}${pad(points(model.ks), 7)}${pad(range(model.ksCi, (v) => points(v)), 18)}${model.ksScore}`,
     );
   }
   lines.push('');
@@ -204,7 +260,7 @@ export function summary(report: Report): string {
       (difference.giniBootstrapCi ? `, ${range(difference.giniBootstrapCi, (v) => signed(v, 2))} (bootstrap, ${int(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed})` : ', bootstrap skipped'),
   );
   if (difference.inference) lines.push(`  No DeLong test or interval: ${difference.inference}`);
-  lines.push(`  DeLong z = ${difference.z === null ? '—' : difference.z.toFixed(3)}, one-sided p = ${pValue(difference.pOneSided)} (challenger better), two-sided p = ${pValue(difference.pTwoSided)}`);
+  lines.push(`  DeLong z = ${difference.z === null ? MISSING : formatFixed(difference.z, 3)}, one-sided ${pStatement(difference.pOneSided)} (challenger better), two-sided ${pStatement(difference.pTwoSided)}`);
   lines.push(`  ΔKS ${signed(difference.ks, 2)}${difference.ksCi ? `, ${level} CI ${range(difference.ksCi, (v) => signed(v, 2))} (bootstrap)` : ''}`);
   lines.push('');
   const basis =
@@ -219,10 +275,18 @@ export function summary(report: Report): string {
     ['both reject', swap.bothReject],
   ] as const) {
     const amount = cell.amount === null ? '' : `, amount ${int(Math.round(cell.amount))}`;
-    lines.push(`  ${pad(label, 12)}${pad(int(cell.count), 10)}${pad(pct(cell.share), 8)}bad rate ${pct(cell.badRate, 2)} ${range(cell.badRateCi, (v) => pct(v, 2))}${amount}`);
+    if (cell.accounts === undefined) {
+      lines.push(`  ${pad(label, 12)}${pad(int(cell.count), 10)}${pad(pct(cell.share), 8)}bad rate ${pct(cell.badRate, 2)} ${range(cell.badRateCi, (v) => pct(v, 2))}${amount}`);
+    } else {
+      const full = fullSwapCell(cell);
+      const inferred = full.inferred === null ? '' : `, inferred (${full.inferred.method}) ${pct(full.inferred.badRate, 2)}`;
+      lines.push(
+        `  ${pad(label, 12)}${pad(int(Math.round(full.accounts)), 10)}${pad(pct(cell.share), 8)}${int(Math.round(full.unknown))} without outcome; known bad rate ${pct(cell.badRate, 2)} ${range(cell.badRateCi, (v) => pct(v, 2))}, bounds ${range(full.badRateBounds, (v) => pct(v, 2))}${inferred}${amount}`,
+      );
+    }
   }
   const test = swap.test;
-  lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${test.z.toFixed(3)}`}, p = ${test.p === null ? `— (${test.reason})` : pValue(test.p)}`);
+  lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${formatFixed(test.z, 3)}`}, ${test.p === null ? `p — (${test.reason})` : pStatement(test.p)}`);
   const atRate = report.strategyCurve.atApprovalRate;
   const avoided = atRate.badsAvoided;
   const badsWords = avoided === 0 ? 'as many bads as the champion' : `${int(Math.abs(avoided))} ${avoided > 0 ? 'fewer' : 'more'} bads`;
@@ -243,7 +307,7 @@ export function summary(report: Report): string {
     for (const row of swap.bySegment) {
       const approvals = `approves ${pct(row.champion.approvalRate)} → ${pct(row.challenger.approvalRate)}`;
       const badRates = `bad rate ${pct(row.champion.approvedBadRate, 2)} → ${pct(row.challenger.approvedBadRate, 2)}`;
-      const swaps = `swap-in ${int(row.swapIn.count)} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(row.swapOut.count)} (${pct(row.swapOut.badRate, 2)})`;
+      const swaps = `swap-in ${int(Math.round(row.swapIn.accounts ?? row.swapIn.count))} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(Math.round(row.swapOut.accounts ?? row.swapOut.count))} (${pct(row.swapOut.badRate, 2)})`;
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(approvals, 26)}${pad(badRates, 28)}${swaps}${swapInRiskier(row) ? '  (swap-in riskier)' : ''}`);
     }
     lines.push("  (swap-in riskier): its bad rate is above the swap-out's. Point estimates: a small value moves a lot with a few accounts (intervals in --json)");
@@ -253,7 +317,7 @@ export function summary(report: Report): string {
     lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
     const width = labelWidth(report.segments);
     for (const row of report.segments) {
-      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  p = ${pValue(row.p!)}  Holm p = ${pValue(row.pHolm!)}`;
+      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  ${pStatement(row.p!)}  Holm ${pStatement(row.pHolm!)}`;
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }

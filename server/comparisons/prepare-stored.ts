@@ -13,11 +13,11 @@ import { swapMatrix } from '../stats/swap-matrix';
 export function prepareStored(
   input: RunInput,
   mapping: ColumnMapping,
-  settings: Pick<AnalysisSettings, 'bands'>,
+  settings: Pick<AnalysisSettings, 'bands' | 'rejectInference'>,
   columns: ReadonlyMap<string, Uint8Array>,
 ): { data: PreparedHoldout; matrix: SwapMatrix } {
   const holdout = decodeHoldout({ ...input, hasIds: false }, mapping, columns);
   const orders = decodeOrders(input.n, columns);
-  const data = preparePolicyData(holdout, { bands: settings.bands, orders: orders ?? undefined });
+  const data = preparePolicyData(holdout, { bands: settings.bands, orders: orders ?? undefined, inference: settings.rejectInference });
   return { data, matrix: swapMatrix(data) };
 }

@@ -1,9 +1,9 @@
+import { isoOrNull } from '@shared/format';
 import type { AnalysisRun as AnalysisRunBody, ComparisonDetail, ComparisonSummary, CurrentVerdict } from '@shared/comparisons';
 import type { AnalysisRun, Comparison } from '../db/entities/index';
 
 /** Comparisons and runs as the API shows them (shared/comparisons.ts). Relations `createdBy` and `holdout` must be loaded. */
 
-const iso = (date: Date | null) => (date === null ? null : date.toISOString());
 
 export function presentRun(run: AnalysisRun): AnalysisRunBody {
   return {
@@ -15,8 +15,8 @@ export function presentRun(run: AnalysisRun): AnalysisRunBody {
     error: run.error,
     engineVersion: run.engineVersion,
     queuedAt: run.queuedAt.toISOString(),
-    startedAt: iso(run.startedAt),
-    finishedAt: iso(run.finishedAt),
+    startedAt: isoOrNull(run.startedAt),
+    finishedAt: isoOrNull(run.finishedAt),
   };
 }
 

@@ -1,9 +1,11 @@
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { Verdict } from '@shared/report';
-import type { EntityManager } from 'typeorm';
+import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { AnalysisRun, Comparison } from '../db/entities/index';
+import { storageFailureKind } from '../db/storage-errors';
+import { inTransaction } from '../db/transaction';
 import { comparisonLink } from '../governance/links';
 import { recordRunVerdict } from '../governance/verdicts';
 import type { Mailer } from '../mail/mailer';
@@ -102,4 +104,31 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
     }
   }
   return manager.findOneByOrFail(AnalysisRun, { id: runId });
+}
+
+/**
+ * A run whose result could not be stored (the disk is full, the database failed) is marked failed
+ * with the reason, instead of staying "running" until the next restart. The reason is short, so
+ * this small write often succeeds where the large result did not; if it fails too, the run stays
+ * as it was and start-up's recovery (jobs/runner.ts) settles it. Returns whether it was stored.
+ */
+export async function recordUnstoredRun(dataSource: DataSource, runId: number, cause: unknown, context: FinishContext = {}): Promise<boolean> {
+  const kind = storageFailureKind(cause);
+  const why =
+    kind === 'full'
+      ? 'the server had no disk space left to store its result'
+      : kind === 'unavailable'
+        ? 'the server could not write its result to storage'
+        : `its result could not be stored (${cause instanceof Error ? cause.message : String(cause)})`;
+  try {
+    await inTransaction(dataSource, async (manager) => {
+      const run = await manager.findOneBy(AnalysisRun, { id: runId });
+      if (!run || run.status !== 'running') return;
+      await recordFinishedRun(manager, runId, { status: 'failed', error: `The analysis finished, but ${why}. Nothing of the result was kept; run it again once the administrator has fixed the storage.` }, context);
+    });
+    context.mailer?.kick();
+    return true;
+  } catch {
+    return false;
+  }
 }

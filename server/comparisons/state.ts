@@ -6,7 +6,7 @@ import { Comparison } from '../db/entities/index';
 import { conflict, notFound } from '../errors';
 
 /**
- * The one way a comparison changes state (DESIGN.md "Workflow and roles"): check that it is in
+ * The one way a comparison changes state (docs/design.md "Workflow and roles"): check that it is in
  * one of the states the step starts from, change it, and write the audit event, all in the
  * caller's transaction (`inTransaction`). A wrong state is a 409 naming the current state and the
  * ones the step needs. Role rules ("not on a comparison you created") are the caller's.

@@ -1,5 +1,6 @@
 import 'reflect-metadata';
 import { DataSource } from 'typeorm';
+import { guardConnection } from './connection-guard';
 import { entities } from './entities/index';
 import { migrations } from './migrations/index';
 
@@ -29,6 +30,7 @@ export function createDataSource(databasePath: string): DataSource {
 export async function openDatabase(databasePath: string): Promise<DataSource> {
   const dataSource = createDataSource(databasePath);
   await dataSource.initialize();
+  guardConnection(dataSource);
   await dataSource.runMigrations({ transaction: 'each' });
   return dataSource;
 }

@@ -119,10 +119,13 @@ export interface ScenarioOptions {
   at: (step: CalendarStep) => void;
   /** How long to wait for one analysis (default 10 minutes). */
   analysisTimeoutMs?: number;
+  /** Bootstrap replicates of the analyses (default: demoSettings'). */
+  replicates?: number;
 }
 
 export async function playScenario(ctx: AppContext, people: DemoPeople, options: ScenarioOptions): Promise<DemoComparison[]> {
   const { at } = options;
+  const settings = { ...demoSettings, bootstrap: options.replicates ?? demoSettings.bootstrap };
   for (const name of Object.values(demoFiles)) {
     if (!existsSync(join(sampleDataDir, name))) throw new Error(`the demo scenario needs sample-data/${name}, which is missing (npm run sample-data writes it)`);
   }
@@ -149,7 +152,7 @@ export async function playScenario(ctx: AppContext, people: DemoPeople, options:
   const full = await createComparison(
     ctx,
     people.modeler,
-    createComparisonInputSchema.parse({ ...words.comparisons.decided, holdoutId: fullHoldout.id, mapping: demoMappings.full, settings: demoSettings }),
+    createComparisonInputSchema.parse({ ...words.comparisons.decided, holdoutId: fullHoldout.id, mapping: demoMappings.full, settings }),
   );
   const report = await analysed(full.id);
 
@@ -211,7 +214,7 @@ export async function playScenario(ctx: AppContext, people: DemoPeople, options:
   const pd = await createComparison(
     ctx,
     people.modeler,
-    createComparisonInputSchema.parse({ ...words.comparisons.inReview, holdoutId: pdHoldout.id, mapping: demoMappings.pd, settings: demoSettings }),
+    createComparisonInputSchema.parse({ ...words.comparisons.inReview, holdoutId: pdHoldout.id, mapping: demoMappings.pd, settings }),
   );
   await analysed(pd.id);
   at('submitPd');

@@ -1,4 +1,5 @@
 import type { Scenario } from '@shared/comparisons';
+import { formatCount, formatGini, formatGiniDelta, formatPInWords, formatPercent } from '@shared/format';
 import type { Report, SegmentRow } from '@shared/report';
 
 /**
@@ -8,14 +9,12 @@ import type { Report, SegmentRow } from '@shared/report';
  * the numbers on the pages (the seed test checks a few of them).
  */
 
-const count = (value: number) => value.toLocaleString('en-US');
-const gini = (value: number) => (value * 100).toFixed(1);
-const signed = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
-const percent = (value: number | null, digits = 1) => (value === null ? 'n/a' : `${(value * 100).toFixed(digits)}%`);
-
-function pText(p: number): string {
-  return p < 0.001 ? 'p < 0.001' : `p = ${p.toFixed(3)}`;
-}
+// Figures written as on the pages (shared/format.ts).
+const count = (value: number) => formatCount(value);
+const gini = (value: number) => formatGini(value);
+const signed = (value: number) => formatGiniDelta(value);
+const percent = (value: number | null, digits = 1) => formatPercent(value, digits);
+const pText = (p: number) => formatPInWords(p);
 
 export function segment(report: Report, column: string, value: string): SegmentRow {
   const row = report.segments.find((candidate) => candidate.column === column && candidate.value === value);

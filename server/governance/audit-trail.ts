@@ -1,6 +1,8 @@
 import type { AuditEvent as AuditEventBody } from '@shared/governance';
 import { Brackets, type DataSource, type EntityManager } from 'typeorm';
-import { auditDetails, verifyAuditChain, type ChainCheck } from '../audit/audit';
+import { pageOf, type PageQuery } from '@shared/paging';
+import { auditDetails, type ChainCheck } from '../audit/audit';
+import { auditChainStatus } from '../audit/chain-state';
 import { findComparison } from '../comparisons/service';
 import { AnalysisRun, AuditEvent, Decision, VerdictRecord } from '../db/entities/index';
 import { iso, personRef } from './people';
@@ -9,7 +11,8 @@ import { iso, personRef } from './people';
  * A comparison's audit trail: every event recorded against the comparison (creation, set-ups,
  * runs, verdicts, scenarios, notes, the workflow's steps and votes), the upload of each holdout
  * its runs read, and the changes that made the policy versions its verdicts and decision used.
- * In the order they were recorded, with whether the whole chain verifies (audit/audit.ts).
+ * In the order they were recorded, a page at a time, with whether the chain verifies (audit/audit.ts,
+ * audit/chain-state.ts).
  * Reads only: nothing here, or anywhere, changes or removes an event.
  */
 
@@ -29,7 +32,8 @@ export function presentAuditEvent(event: AuditEvent): AuditEventBody {
   };
 }
 
-export async function comparisonAuditEvents(source: Source, comparisonId: number): Promise<AuditEvent[]> {
+/** The comparison's events, oldest first; a page of them (`limit + 1` read, so the caller knows whether there is more) when `page` is given. */
+export async function comparisonAuditEvents(source: Source, comparisonId: number, page?: PageQuery): Promise<AuditEvent[]> {
   const comparison = await findComparison(source, comparisonId);
   const runs = await source.getRepository(AnalysisRun).find({ where: { comparisonId }, select: { id: true, holdoutId: true } });
   const holdoutIds = [...new Set([comparison.holdoutId, ...runs.map((run) => run.holdoutId)])].map(String);
@@ -53,15 +57,20 @@ export async function comparisonAuditEvents(source: Source, comparisonId: number
         if (versions.length > 0) where.orWhere("event.targetType = 'policy' AND event.targetId IN (:...versions)", { versions });
       }),
     )
+    .andWhere('event.id > :after', { after: page?.after ?? 0 })
     .orderBy('event.id', 'ASC')
+    .take(page ? page.limit + 1 : undefined)
     .getMany();
 }
 
 export async function comparisonAuditTrail(
   source: DataSource,
   comparisonId: number,
-): Promise<{ events: AuditEventBody[]; chainValid: boolean; chain: ChainCheck }> {
-  const events = await comparisonAuditEvents(source, comparisonId);
-  const chain = await verifyAuditChain(source);
-  return { events: events.map(presentAuditEvent), chainValid: chain.ok, chain };
+  page?: PageQuery,
+): Promise<{ events: AuditEventBody[]; chainValid: boolean; chain: ChainCheck; nextAfter: number | null }> {
+  const rows = await comparisonAuditEvents(source, comparisonId, page);
+  const { items, nextAfter } = page ? pageOf(rows, page.limit) : { items: rows, nextAfter: null };
+  // Verified incrementally: only the events appended since the last call (audit/chain-state.ts).
+  const chain = await auditChainStatus(source);
+  return { events: items.map(presentAuditEvent), chainValid: chain.ok, chain, nextAfter };
 }

@@ -16,6 +16,7 @@ import { comparisonAuditTrail } from './audit-trail';
 import { iso, personRef } from './people';
 import { presentVote } from './present';
 import { getGovernance } from './service';
+import { now } from '../clock';
 
 /**
  * The evidence pack: one JSON file a model-risk file can keep — the comparison, its input's
@@ -113,7 +114,7 @@ export async function buildEvidencePack(ctx: AppContext, actor: User, comparison
   return {
     format: 'scorecourt-evidence-pack',
     formatVersion: 1,
-    generatedAt: new Date().toISOString(),
+    generatedAt: now().toISOString(),
     generatedBy: personRef(actor),
     comparison: {
       id: comparison.id,

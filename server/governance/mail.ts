@@ -2,6 +2,7 @@ import { voteChoiceLabels, type VoteChoice } from '@shared/governance';
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { OutgoingMail } from '../mail/mailer';
 import { giniLine, signature } from '../mail/templates';
+import { formatCount } from '@shared/format';
 
 /**
  * Wording of the workflow e-mails, one per transition, to the people who act next: plain text,
@@ -10,7 +11,7 @@ import { giniLine, signature } from '../mail/templates';
 
 function headlineLine(headline: ComparisonHeadline | null): string[] {
   if (!headline) return [];
-  return [`${giniLine(headline)} on ${headline.rows.toLocaleString('en-US')} accounts.`, ''];
+  return [`${giniLine(headline)} on ${formatCount(headline.rows)} accounts.`, ''];
 }
 
 /** Long texts are quoted in full up to a point; the page has the rest. */

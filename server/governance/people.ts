@@ -5,7 +5,5 @@ export function personRef(user: Pick<User, 'id' | 'name'>): { id: number; name: 
   return { id: user.id, name: user.name };
 }
 
-/** Dates in API bodies: ISO 8601 in UTC. */
-export function iso(date: Date): string {
-  return date.toISOString();
-}
+/** Dates in API bodies: ISO 8601 in UTC (shared/format.ts). */
+export { iso } from '@shared/format';

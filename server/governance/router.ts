@@ -3,6 +3,7 @@ import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
+import { pageQuerySchema } from '@shared/paging';
 import { comparisonAuditTrail } from './audit-trail';
 import { sendEvidencePack } from './evidence';
 import { castVote, getGovernance, recordDecision, reviewComparison, submitComparison } from './service';
@@ -70,11 +71,11 @@ export function governanceRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'get',
       path: '/comparisons/:id/audit',
       access: 'signed-in',
-      summary: "The comparison's audit events in order, and whether the whole hash chain verifies",
-      validate: { params: idParams },
+      summary: "The comparison's audit events in order, a page at a time (?after&limit → nextAfter), and whether the hash chain verifies (new events checked on each call)",
+      validate: { params: idParams, query: pageQuerySchema },
       handler: async (req) => {
-        const { events, chainValid } = await comparisonAuditTrail(ctx.dataSource, req.params.id);
-        return { events, chainValid };
+        const { events, chainValid, nextAfter } = await comparisonAuditTrail(ctx.dataSource, req.params.id, req.query);
+        return { events, chainValid, nextAfter };
       },
     }),
     defineRoute({

@@ -21,7 +21,7 @@ import { presentDecision, presentReview, presentVerdictRecord, presentVote, vote
 import { authorRefs, countingVotes, currentRound, forbidOwn, latestReview, newestRun } from './records';
 
 /**
- * The review workflow (DESIGN.md "Workflow and roles"): submit (modeler), review (analyst),
+ * The review workflow (docs/design.md "Workflow and roles"): submit (modeler), review (analyst),
  * votes and the decision (committee). Each step runs in one transaction: its checks, its record,
  * the state change through `transition()` with its audit event, and the e-mails to the people
  * who act next (queued in the outbox in the same transaction, delivered after it commits).

@@ -14,6 +14,11 @@ import type { Holdout as EngineHoldout } from '../stats/holdout';
  *   exposure            Float64  when mapped
  *   segment.<i>         Uint32   codes into RunInput.segments[i].levels
  *   ids                 UTF-8    account ids joined by NUL (the reader never lets NUL through)
+ *   weight              Float64  sampling weight per row, when mapped
+ *   known               Uint8    1 = outcome known, 0 = no outcome (bad is 0 there), when the
+ *                                holdout keeps applicants without an outcome and has some
+ *   inferredBad         Float64  probability of bad from the inferred-bad column (NaN where not
+ *                                given), when mapped and some row has no outcome
  *   order.<model>       Uint32   accounts riskiest first (safety ascending), written when the
  *                                run is done, so that preparing swap sets skips the sort
  */
@@ -51,6 +56,9 @@ export function encodeHoldout(holdout: EngineHoldout): EncodedColumn[] {
   if (holdout.exposure) columns.push({ name: 'exposure', data: bytesOf(holdout.exposure) });
   holdout.segments.forEach((segment, index) => columns.push({ name: `segment.${index}`, data: bytesOf(segment.codes) }));
   if (holdout.ids) columns.push({ name: 'ids', data: Buffer.from(holdout.ids.join('\0'), 'utf8') });
+  if (holdout.weight) columns.push({ name: 'weight', data: bytesOf(holdout.weight) });
+  if (holdout.known) columns.push({ name: 'known', data: bytesOf(holdout.known) });
+  if (holdout.inferredBad) columns.push({ name: 'inferredBad', data: bytesOf(holdout.inferredBad) });
   return columns;
 }
 
@@ -66,7 +74,13 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
     if (!bytes) throw new Error(`stored column ${name} is missing`);
     return bytes;
   };
+  const weight = stored.get('weight');
+  const known = stored.get('known');
+  const inferredBad = stored.get('inferredBad');
   return {
+    ...(weight ? { weight: viewAs(Float64Array, weight, n, 'weight') } : {}),
+    ...(known ? { known: viewAs(Uint8Array, known, n, 'known') } : {}),
+    ...(inferredBad ? { inferredBad: viewAs(Float64Array, inferredBad, n, 'inferredBad') } : {}),
     n,
     bad: viewAs(Uint8Array, get('bad'), n, 'bad'),
     champion: viewAs(Float64Array, get('champion'), n, 'champion'),

@@ -5,9 +5,11 @@ import type { RequestHandler } from 'express';
 import multer from 'multer';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
+import { storageFailureKind } from '../db/storage-errors';
 import { AppError } from '../errors';
 import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
+import { ensureRoomFor } from './free-space';
 import { getHoldout, uploadHoldout, validateMapping } from './service';
 
 export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
@@ -22,8 +24,23 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
   const receive = upload.single('file');
   // busboy's own complaints about a malformed multipart body ("Malformed part header", "Unexpected
   // end of form") are the client's: a 400, not a 500. multer's limits stay as they are (413 …).
+  // A full disk while receiving (ENOSPC, or EFBIG at a file-size limit) is the server's: 507,
+  // logged by the error middleware. Before receiving, the declared size must fit (free-space.ts).
   const receiveFile: RequestHandler = (req, res, next) => {
+    const declared = Number(req.headers['content-length']);
+    if (Number.isFinite(declared) && declared > 0) {
+      try {
+        ensureRoomFor(ctx.config.databasePath, declared, 3);
+      } catch (error) {
+        next(error);
+        return;
+      }
+    }
     receive(req, res, (error?: unknown) => {
+      if (storageFailureKind(error) !== null) {
+        next(error);
+        return;
+      }
       if (error instanceof Error && !(error instanceof multer.MulterError) && !(error instanceof AppError)) {
         next(new AppError(errorCodes.badInput, `The upload could not be read as a multipart form (${error.message}).`, 400));
         return;
@@ -37,7 +54,7 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'post',
       path: '/holdouts',
       access: ['modeler'],
-      summary: 'Upload a holdout CSV (multipart field `file`) → 201 the holdout with columns, preview and guess; 400 naming row and column; 413 over the limit',
+      summary: 'Upload a holdout CSV (multipart field `file`) → 201 the holdout with columns, preview and guess; 400 naming row and column; 413 over the limit; 507 when the disk has no room for it',
       before: [receiveFile],
       handler: async (req, res) => {
         const file = (req as unknown as { file?: Express.Multer.File }).file;
@@ -55,9 +72,9 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'get',
       path: '/holdouts/:id',
       access: 'signed-in',
-      summary: 'A holdout: file name, SHA-256, size, rows, columns, preview, mapping guess',
+      summary: 'A holdout: file name, SHA-256, size, rows, columns, mapping guess; the first rows (cells cut to 200 characters, 64 KB) to modeler and analyst only',
       validate: { params: idParams },
-      handler: async (req) => getHoldout(ctx.dataSource, req.params.id),
+      handler: async (req) => getHoldout(ctx.dataSource, req.params.id, currentUser(req)),
     }),
     defineRoute({
       method: 'post',

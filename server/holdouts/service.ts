@@ -11,6 +11,7 @@ import { sanitiseFileName } from './file-name';
 import { asBadInput } from './input-error';
 import { presentHoldout } from './present';
 import { type MappedHoldout, runReaderTask } from './reading';
+import { ensureRoomFor } from './free-space';
 import { CHUNK_BYTES, storeHoldoutFile } from './storage';
 
 /**
@@ -32,6 +33,8 @@ export async function uploadHoldout(ctx: AppContext, actor: User, file: Uploaded
   const fileName = sanitiseFileName(file.originalname);
   const scan = await asBadInput(() => runReaderTask({ task: 'scan', path: file.path, fileName }));
   const chunkCount = Math.ceil(scan.bytes / CHUNK_BYTES);
+  // The received file is on disk: its chunks (in the WAL, then the database) must fit too, or 507.
+  ensureRoomFor(ctx.config.databasePath, scan.bytes, 2);
   const id = await inTransaction(ctx.dataSource, async (manager) => {
     const holdout = await manager.save(
       manager.create(Holdout, {
@@ -61,7 +64,7 @@ export async function uploadHoldout(ctx: AppContext, actor: User, file: Uploaded
     });
     return holdout.id;
   });
-  return getHoldout(ctx.dataSource, id);
+  return getHoldout(ctx.dataSource, id, actor);
 }
 
 export async function findHoldout(source: DataSource | EntityManager, id: number): Promise<Holdout> {
@@ -70,8 +73,8 @@ export async function findHoldout(source: DataSource | EntityManager, id: number
   return holdout;
 }
 
-export async function getHoldout(source: DataSource | EntityManager, id: number): Promise<HoldoutInfo> {
-  return presentHoldout(await findHoldout(source, id));
+export async function getHoldout(source: DataSource | EntityManager, id: number, viewer: Pick<User, 'roles'>): Promise<HoldoutInfo> {
+  return presentHoldout(await findHoldout(source, id), viewer);
 }
 
 /** The upload wizard's validation report: the first 50 problems, each naming its row and column, or a summary. */

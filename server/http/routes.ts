@@ -75,14 +75,16 @@ function send(handler: RouteDefinition['handler']): RequestHandler {
   };
 }
 
-/** Mounts every route on `router` as guard → validation → extra middleware → handler. */
-export function mountRoutes(router: Router, routes: readonly RouteDefinition[]): void {
+/** Mounts every route on `router` as guard → write limit (changes only) → validation → extra middleware → handler. */
+export function mountRoutes(router: Router, routes: readonly RouteDefinition[], options: { writeLimit?: RequestHandler } = {}): void {
   const seen = new Set<string>();
   for (const route of routes) {
     const key = `${route.method.toUpperCase()} ${route.path}`;
     if (seen.has(key)) throw new Error(`route declared twice: ${key}`);
     seen.add(key);
-    router[route.method](route.path, ...guard(route.access), validate(route.schemas), ...route.before, send(route.handler));
+    // Changes count against the person's budget (write-limits.ts), after the guard has found who it is.
+    const limit = route.method !== 'get' && options.writeLimit ? [options.writeLimit] : [];
+    router[route.method](route.path, ...guard(route.access), ...limit, validate(route.schemas), ...route.before, send(route.handler));
   }
 }
 

@@ -48,7 +48,7 @@ async function main(): Promise<void> {
     champion: argsortAscending(safety(holdout.champion, holdout.higherIs.champion)),
     challenger: argsortAscending(safety(holdout.challenger, holdout.higherIs.challenger)),
   };
-  const { prepared, buffers } = transferable(preparePolicyData(holdout, { bands: settings.bands, orders }));
+  const { prepared, buffers } = transferable(preparePolicyData(holdout, { bands: settings.bands, orders, inference: settings.rejectInference }));
   post(
     {
       type: 'done',

@@ -2,17 +2,11 @@ import type { ResourceLimits, Worker } from 'node:worker_threads';
 import { In, type DataSource } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
-import { preparedCacheFor } from '../comparisons/prepared-cache';
-import { recordFinishedRun, type RunOutcome } from '../comparisons/run-finished';
 import { AnalysisRun } from '../db/entities/index';
 import { inTransaction, withWriteLock } from '../db/transaction';
-import { encodeOrder, orderColumn } from '../holdouts/columns';
 import type { Logger } from '../log';
-import type { Mailer } from '../mail/mailer';
-import { currentPolicy } from '../policy/service';
 import { startWorker } from '../runtime';
-import type { PreparedHoldout } from '../stats/policy-data';
-import { engineVersion } from '../stats/report';
+import type { JobHandlers, JobOutcome } from './handlers';
 import type { AnalysisJob, WorkerMessage } from './messages';
 
 /**
@@ -21,9 +15,10 @@ import type { AnalysisJob, WorkerMessage } from './messages';
  * analysis ever runs on the thread that answers requests.
  *
  * - Progress and stage from the worker are written to the run at most every `progressEveryMs`.
- * - The result is stored by recordFinishedRun (comparisons/run-finished.ts) in one transaction
- *   with the state change and the audit event; the data the worker prepared for swap sets goes
- *   to the swap cache, its sort orders to run_columns.
+ * - What a run means is not the queue's: the handlers it is given (handlers.ts; for comparisons
+ *   comparisons/analysis-handlers.ts, passed in by app.ts and index.ts) add the worker's input
+ *   when a run is claimed, store a run that ended in one transaction, and keep what a done run
+ *   prepared.
  * - A worker that dies (an uncaught error, process.exit, out of memory, a crash) or stops without
  *   a result costs the run an attempt: it is queued again, and after `maxAttempts` attempts it is
  *   failed with the reason. An error the engine reports as the data's (a StatisticError) fails
@@ -39,9 +34,8 @@ export interface JobRunnerOptions {
   databasePath: string;
   concurrency: number;
   log: Logger;
-  /** To tell a comparison's creator that its analysis has finished. */
-  mailer?: Mailer;
-  publicUrl?: string;
+  /** What to do when a run is claimed and when it ends (handlers.ts). */
+  handlers: JobHandlers;
   /** The worker's source path (see runtime.ts workerEntry); tests substitute a faulty one. */
   workerPath?: string;
   maxAttempts?: number;
@@ -158,12 +152,10 @@ export class JobRunner {
     for (const run of left) {
       if (run.attempts >= this.maxAttempts) {
         await inTransaction(dataSource, (manager) =>
-          recordFinishedRun(
-            manager,
-            run.id,
-            { status: 'failed', error: `The server stopped while this analysis was running, on each of its ${run.attempts} attempts; it was not tried again.` },
-            this.finishContext(),
-          ),
+          this.options.handlers.finished(manager, run.id, {
+            status: 'failed',
+            error: `The server stopped while this analysis was running, on each of its ${run.attempts} attempts; it was not tried again.`,
+          }),
         );
         this.options.log.warn(`analysis run ${run.id}: interrupted on its last attempt; marked failed`);
       } else {
@@ -199,10 +191,10 @@ export class JobRunner {
       await manager.update(
         AnalysisRun,
         { id: next.id },
-        { status: 'running', attempts: attempt, startedAt: now(), progress: 0, stage: 'Starting', engineVersion },
+        { status: 'running', attempts: attempt, startedAt: now(), progress: 0, stage: 'Starting', engineVersion: this.options.handlers.engineVersion },
       );
-      const policy = await currentPolicy(manager);
-      return { runId: next.id, attempt, job: { databasePath: this.options.databasePath, runId: next.id, attempt, policy } };
+      const input = await this.options.handlers.jobInput(manager);
+      return { runId: next.id, attempt, job: { ...input, databasePath: this.options.databasePath, runId: next.id, attempt } };
     });
   }
 
@@ -210,13 +202,14 @@ export class JobRunner {
     const { log } = this.options;
     let worker: Worker;
     if (this.options.databasePath === ':memory:') {
-      this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
+      // settle() logs its own errors and is tracked in `settling` (stop() and whenIdle() wait for it).
+      void this.settle(runId, attempt, { kind: 'failed', message: 'analyses need the database in a file (DATABASE_PATH), not in memory', permanent: true });
       return;
     }
     try {
       worker = startWorker(this.workerPath, { workerData: job, resourceLimits: this.options.resourceLimits ?? defaultLimits });
     } catch (error) {
-      this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
+      void this.settle(runId, attempt, { kind: 'crashed', reason: `the analysis worker could not start (${(error as Error).message})` });
       return;
     }
     let exitedResolve: () => void = () => {};
@@ -280,16 +273,8 @@ export class JobRunner {
       await active?.progressWrite;
       if (result.kind === 'done') {
         const { message } = result;
-        const { prepared } = message;
-        const run = await this.finish(runId, {
-          status: 'done',
-          report: message.report,
-          engineVersion: message.engineVersion,
-          headline: message.headline,
-          verdict: message.verdict,
-        });
-        preparedCacheFor(this.options.dataSource).put({ runId, input: run.input, settings: run.settings, data: prepared, matrix: message.swapMatrix });
-        await this.storeOrders(runId, prepared);
+        const run = await this.finish(runId, { status: 'done', message });
+        await this.options.handlers.keepPrepared?.(run, message);
         this.options.log.info(`analysis run ${runId}: done`);
       } else if (result.kind === 'failed' && result.permanent) {
         await this.finish(runId, { status: 'failed', error: result.message });
@@ -300,7 +285,11 @@ export class JobRunner {
       }
       // Workers end by themselves once their message is posted; make sure.
       if (active) void active.worker.terminate();
-    })().catch((error: unknown) => this.options.log.error(`analysis run ${runId}: could not store its result`, error));
+    })().catch(async (error: unknown) => {
+      this.options.log.error(`analysis run ${runId}: could not store its result`, error);
+      // Marked failed with the reason (comparisons/run-finished.ts), not left "running".
+      if (await this.options.handlers.unstored?.(runId, error)) this.options.log.warn(`analysis run ${runId}: marked failed (result not stored)`);
+    });
     this.settling.add(work);
     void work.finally(() => {
       this.settling.delete(work);
@@ -309,24 +298,9 @@ export class JobRunner {
     return work;
   }
 
-  /**
-   * The sort orders, kept so that preparing swap sets after a restart skips the sort. Written
-   * after the result, one model at a time with a turn for requests between (4 MB each at
-   * 1,000,000 accounts); should the process stop before, the preparation sorts instead.
-   */
-  private async storeOrders(runId: number, prepared: PreparedHoldout): Promise<void> {
-    const { dataSource } = this.options;
-    for (const model of ['champion', 'challenger'] as const) {
-      await new Promise<void>((resolve) => setImmediate(resolve));
-      await withWriteLock(dataSource, () =>
-        dataSource.query('INSERT OR REPLACE INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [runId, orderColumn(model), encodeOrder(prepared[model].order)]),
-      );
-    }
-  }
-
-  private async finish(runId: number, outcome: RunOutcome): Promise<AnalysisRun> {
-    const run = await inTransaction(this.options.dataSource, (manager) => recordFinishedRun(manager, runId, outcome, this.finishContext()));
-    this.options.mailer?.kick();
+  private async finish(runId: number, outcome: JobOutcome): Promise<AnalysisRun> {
+    const run = await inTransaction(this.options.dataSource, (manager) => this.options.handlers.finished(manager, runId, outcome));
+    this.options.handlers.afterFinished?.();
     return run;
   }
 
@@ -348,10 +322,6 @@ export class JobRunner {
       });
     });
     this.options.log.warn(`analysis run ${runId}: attempt ${attempt} failed (${reason}); queued again`);
-  }
-
-  private finishContext() {
-    return { mailer: this.options.mailer, publicUrl: this.options.publicUrl };
   }
 }
 

@@ -57,7 +57,7 @@ export function readRun(databasePath: string, runId: number, options: { ids?: bo
  */
 export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout; buffers: ArrayBuffer[] } {
   const seen = new Map<ArrayBufferView, ArrayBufferView>();
-  for (const array of [data.bad, data.exposure, data.champion.raw, data.challenger.raw]) {
+  for (const array of [data.bad, data.exposure, data.weight, data.known, data.champion.raw, data.challenger.raw]) {
     if (array) seen.set(array, array.slice());
   }
   const own = <T extends Uint8Array | Uint32Array | Float64Array>(array: T): T => {
@@ -75,6 +75,8 @@ export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout
     order: own(m.order),
     sorted: own(m.sorted),
     badsBefore: own(m.badsBefore),
+    accountsBefore: m.accountsBefore ? own(m.accountsBefore) : null,
+    knownBefore: m.knownBefore ? own(m.knownBefore) : null,
     blockEnds: own(m.blockEnds),
     band: own(m.band),
     bandEnds: own(m.bandEnds),
@@ -83,6 +85,9 @@ export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout
     ...data,
     bad: own(data.bad),
     exposure: data.exposure ? own(data.exposure) : null,
+    weight: data.weight ? own(data.weight) : null,
+    known: data.known ? own(data.known) : null,
+    inferred: data.inferred ? { ...data.inferred, probability: own(data.inferred.probability) } : null,
     segments: data.segments.map((segment) => ({ ...segment, codes: own(segment.codes) })),
     champion: model(data.champion),
     challenger: model(data.challenger),

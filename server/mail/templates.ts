@@ -1,6 +1,6 @@
 import type { ComparisonHeadline } from '@shared/comparisons';
 import { roleLabels, type Role } from '@shared/roles';
-import { pText } from '../stats/verdict';
+import { formatGini, formatGiniDelta, formatPInWords } from '@shared/format';
 import type { OutgoingMail } from './mailer';
 
 /** The wording of Scorecourt's own e-mails: plain text, short, and saying what to do next. */
@@ -14,11 +14,9 @@ export const signature = '— Scorecourt\n\nThis message was sent automatically.
 
 /** "Gini: champion 50.6, challenger 55.0 (difference +4.4 points, one-sided p = 4.1 × 10⁻¹⁶)": a run's headline in one line. */
 export function giniLine(headline: ComparisonHeadline): string {
-  const points = (value: number) => (value * 100).toFixed(1);
-  const signedPoints = (value: number) => `${value >= 0 ? '+' : '−'}${Math.abs(value * 100).toFixed(1)}`;
   return (
-    `Gini: champion ${points(headline.championGini)}, challenger ${points(headline.challengerGini)} ` +
-    `(difference ${signedPoints(headline.deltaGini)} points, ${headline.pOneSided === null ? 'no DeLong test: too few goods or bads' : `one-sided ${pText(headline.pOneSided)}`})`
+    `Gini: champion ${formatGini(headline.championGini)}, challenger ${formatGini(headline.challengerGini)} ` +
+    `(difference ${formatGiniDelta(headline.deltaGini)} points, ${headline.pOneSided === null ? 'no DeLong test: too few goods or bads' : `one-sided ${formatPInWords(headline.pOneSided)}`})`
   );
 }
 

@@ -1,9 +1,10 @@
 import { noteInputSchema } from '@shared/governance';
+import { pageQuerySchema } from '@shared/paging';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
-import { addNote, listNotes } from './service';
+import { addNote, pageOfNotes } from './service';
 
 export function noteRoutes(ctx: AppContext): RouteDefinition[] {
   return [
@@ -11,9 +12,9 @@ export function noteRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'get',
       path: '/comparisons/:id/notes',
       access: 'signed-in',
-      summary: "The comparison's discussion and swap-set annotations, oldest first",
-      validate: { params: idParams },
-      handler: async (req) => ({ notes: await listNotes(ctx.dataSource, req.params.id) }),
+      summary: "The comparison's discussion and swap-set annotations, oldest first, a page at a time (?after&limit → nextAfter)",
+      validate: { params: idParams, query: pageQuerySchema },
+      handler: async (req) => pageOfNotes(ctx.dataSource, req.params.id, req.query),
     }),
     defineRoute({
       method: 'post',

@@ -1,6 +1,7 @@
 import { errorCodes } from '@shared/errors';
 import type { Note as NoteBody, NoteInput } from '@shared/governance';
-import type { DataSource, EntityManager } from 'typeorm';
+import { pageOf, type PageQuery } from '@shared/paging';
+import { type DataSource, type EntityManager, MoreThan } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { findComparison } from '../comparisons/service';
@@ -32,6 +33,19 @@ export async function listNotes(source: DataSource | EntityManager, comparisonId
   await findComparison(source, comparisonId);
   const notes = await source.getRepository(Note).find({ where: { comparisonId }, order: { id: 'ASC' }, relations: { author: true } });
   return notes.map(presentNote);
+}
+
+/** A page of the notes, oldest first (shared/paging.ts). */
+export async function pageOfNotes(source: DataSource | EntityManager, comparisonId: number, page: PageQuery): Promise<{ notes: NoteBody[]; nextAfter: number | null }> {
+  await findComparison(source, comparisonId);
+  const rows = await source.getRepository(Note).find({
+    where: { comparisonId, id: MoreThan(page.after) },
+    order: { id: 'ASC' },
+    relations: { author: true },
+    take: page.limit + 1,
+  });
+  const { items, nextAfter } = pageOf(rows, page.limit);
+  return { notes: items.map(presentNote), nextAfter };
 }
 
 export async function addNote(ctx: AppContext, actor: User, comparisonId: number, input: NoteInput): Promise<NoteBody> {

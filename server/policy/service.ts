@@ -6,6 +6,7 @@ import type { AppContext } from '../context';
 import { PolicyVersion, type StoredPolicy, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { iso, personRef } from '../governance/people';
+import { now } from '../clock';
 
 /**
  * The adoption policy, versioned. The newest stored version is the current one: new analyses are
@@ -90,7 +91,7 @@ export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUp
     const previous = await newestRow(manager);
     const next = previous.version + 1;
     const repository = manager.getRepository(PolicyVersion);
-    await repository.insert({ version: next, policy: stored, reason, createdById: actor.id, createdAt: new Date() });
+    await repository.insert({ version: next, policy: stored, reason, createdById: actor.id, createdAt: now() });
     const changes: Record<string, { from: unknown; to: unknown }> = {};
     for (const key of policyKeys) {
       if (!sameValue(previous.policy[key], stored[key])) changes[key] = { from: previous.policy[key], to: stored[key] };

@@ -2,6 +2,7 @@ import { createHash } from 'node:crypto';
 import { createReadStream, statSync } from 'node:fs';
 import { basename } from 'node:path';
 import { HoldoutInputError } from './errors';
+import { formatCount } from '@shared/format';
 
 /**
  * Where a holdout's bytes come from: a file on disk (the CLI, and uploads after multer has
@@ -47,7 +48,7 @@ export async function* textChunks(source: HoldoutSource, info: SourceInfo, onByt
     } catch {
       throw new HoldoutInputError(
         'not_utf8',
-        `the file is not UTF-8 text (invalid bytes within the first ${(read + chunk.length).toLocaleString('en-US')} bytes): save it as CSV in UTF-8`,
+        `the file is not UTF-8 text (invalid bytes within the first ${formatCount(read + chunk.length)} bytes): save it as CSV in UTF-8`,
       );
     }
     if (text.indexOf('\0') !== -1) {

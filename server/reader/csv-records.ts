@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
 import { type HoldoutSource, type SourceInfo, textChunks } from './byte-source';
 import { HoldoutInputError } from './errors';
+import { formatCount } from '@shared/format';
 
 /**
  * The one streaming CSV reader behind the CLI and the uploads, on papaparse's parser (its fast
@@ -133,7 +134,7 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
     if (layout!.header.length === 0) {
       const header = rows[offset].map((name) => name.trim());
       if (header.length > MAX_COLUMNS) {
-        throw new HoldoutInputError('too_many_columns', `the header has ${header.length.toLocaleString('en-US')} columns; at most ${MAX_COLUMNS} are read`, 1);
+        throw new HoldoutInputError('too_many_columns', `the header has ${formatCount(header.length)} columns; at most ${MAX_COLUMNS} are read`, 1);
       }
       layout!.header = header;
       handlers.onHeader(layout!);
@@ -142,7 +143,7 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
     if (rows.length > offset) {
       records += rows.length - offset;
       if (records > MAX_ROWS) {
-        throw new HoldoutInputError('too_many_rows', `the file has more than ${MAX_ROWS.toLocaleString('en-US')} rows`, null);
+        throw new HoldoutInputError('too_many_rows', `the file has more than ${formatCount(MAX_ROWS)} rows`, null);
       }
       handlers.onRows(offset === 0 ? rows : rows.slice(offset), offset === 0 ? lines : lines.subarray(offset, rows.length));
     }

@@ -24,6 +24,8 @@ export type HoldoutInputCode =
   | 'bad_outcome'
   | 'single_class'
   | 'missing_value'
+  | 'bad_weight'
+  | 'bad_probability'
   | 'unsupported_weight';
 
 export class HoldoutInputError extends Error {

@@ -5,6 +5,7 @@ import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
+import { formatCount } from '@shared/format';
 
 /**
  * Loads a holdout file with a column mapping into the engine's column form (typed arrays), in
@@ -14,10 +15,20 @@ import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './va
  * Rows with an empty score are an error, or, with `dropMissing`, left out and counted. Blank
  * lines are skipped. Outcome values are compared as text, and numerically when both are numbers
  * (`1.0` is the bad value `1`); the good value is the other value found in the column.
+ *
+ * Applicants without an outcome (mapping.keepUnknown): an empty outcome, or one of the coded
+ * `unknownValues` (compared as text, trimmed, and numerically when both are numbers), marks the
+ * row unknown instead of being an error; its `bad` is 0 and `known` 0. Without the option an empty
+ * outcome stays an error naming row and column. A weight column (mapping.weight) must hold a
+ * positive finite number on every row. An inferred-bad column (mapping.inferredBad) holds a
+ * probability 0 to 1; it is read on unknown rows only, where it is required with
+ * `requireInferred` (reject inference by column).
  */
 
 export interface LoadOptions {
   dropMissing?: boolean;
+  /** Every unknown row must carry the mapped inferred-bad column (default true: mapping it is using it). */
+  requireInferred?: boolean;
   /** Fraction of the file's bytes read so far, 0 to 1. */
   onProgress?: (fraction: number) => void;
 }
@@ -34,6 +45,10 @@ export interface ReadSummary {
   goodValue: string | null;
   goods: number;
   bads: number;
+  /** Rows used that have no outcome (keep-unknown); 0 otherwise. */
+  unknown: number;
+  /** Sum of the weights of the rows used; null without a weight column. */
+  weightTotal: number | null;
   delimiter: CsvLayout['delimiter'];
 }
 
@@ -93,9 +108,6 @@ interface PassResult {
 
 async function pass(source: HoldoutSource, mapping: ColumnMapping, options: LoadOptions, errorLimit: number | null): Promise<PassResult> {
   const sink = new ErrorSink(errorLimit);
-  if (mapping.weight) {
-    throw new HoldoutInputError('unsupported_weight', `column ${columnName(mapping.weight)}: sampling weights are not supported by this engine version; remove the weight from the mapping`, null, mapping.weight);
-  }
   for (const [role, name] of [
     ['champion', mapping.champion],
     ['challenger', mapping.challenger],
@@ -109,6 +121,27 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const segmentNames = mapping.segments ?? [];
   const idName = mapping.id ?? null;
   const exposureName = mapping.exposure ?? null;
+  const weightName = mapping.weight ?? null;
+  const keepUnknown = mapping.keepUnknown ?? false;
+  const inferredName = mapping.inferredBad ?? null;
+  const requireInferred = options.requireInferred ?? true;
+  if (inferredName !== null && !keepUnknown) {
+    throw new HoldoutInputError('same_column', `column ${columnName(inferredName)} is mapped as the inferred probability of bad, which needs the option to keep applicants without an outcome`, null, inferredName);
+  }
+  for (const [role, name] of [
+    ['weight', weightName],
+    ['inferred probability of bad', inferredName],
+  ] as const) {
+    if (name !== null && [mapping.outcome, mapping.champion, mapping.challenger].includes(name)) {
+      throw new HoldoutInputError('same_column', `column ${columnName(name)} is mapped both as the ${role} and as the outcome or a score`, null, name);
+    }
+  }
+  // Coded "no outcome" values: as text and, when numeric, as numbers.
+  const unknownTexts = new Set((keepUnknown ? (mapping.unknownValues ?? []) : []).map((value) => value.trim()));
+  const unknownNumbers = new Set([...unknownTexts].filter((value) => Number.isFinite(+value)).map((value) => +value));
+  if (unknownTexts.has(mapping.badValue.trim())) {
+    throw new HoldoutInputError('bad_outcome', `column ${columnName(mapping.outcome)}: ${quoteCell(mapping.badValue.trim())} is both the bad value and a value meaning no outcome`, null, mapping.outcome);
+  }
 
   let width = 0;
   let outcomeAt = -1;
@@ -116,6 +149,8 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   let challengerAt = -1;
   let idAt = -1;
   let exposureAt = -1;
+  let weightAt = -1;
+  let inferredAt = -1;
   let segmentAt: number[] = [];
   let decimalComma = false;
   let newline: CsvLayout['newline'] = '\n';
@@ -124,11 +159,16 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const champion = new Float64Column();
   const challenger = new Float64Column();
   const exposure = exposureName === null ? null : new Float64Column();
+  const weight = weightName === null ? null : new Float64Column();
+  const known = keepUnknown ? new Uint32Column() : null;
+  const inferred = inferredName === null ? null : new Float64Column();
+  let unknownRows = 0;
+  let weightTotal = 0;
   const ids: string[] | null = idName === null ? null : [];
   const segmentLevels = segmentNames.map(() => new Map<string, number>());
   const segmentCodes = segmentNames.map(() => new Uint32Column());
   const missingByColumn: Record<string, number> = {};
-  for (const name of [mapping.outcome, mapping.champion, mapping.challenger, idName, exposureName, ...segmentNames]) {
+  for (const name of [mapping.outcome, mapping.champion, mapping.challenger, idName, exposureName, weightName, inferredName, ...segmentNames]) {
     if (name !== null) missingByColumn[name] = 0;
   }
 
@@ -157,19 +197,30 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     return at;
   };
 
+  /** 1 bad, 0 good, UNKNOWN without an outcome (keep-unknown), −1 a problem (reported). */
+  const UNKNOWN = 2;
   const outcomeOf = (cell: string, line: number): number => {
     if (cell === badValue) return 1;
     if (cell === goodValue) return 0;
     const value = trimCell(cell);
     if (value === badValue) return 1;
     if (value.length === 0 || isMissing(value)) {
-      sink.report(new HoldoutInputError('missing_outcome', `${where(line, mapping.outcome)}: the outcome is empty`, line, mapping.outcome));
+      if (keepUnknown) return UNKNOWN;
+      sink.report(
+        new HoldoutInputError(
+          'missing_outcome',
+          `${where(line, mapping.outcome)}: the outcome is empty; applicants without an outcome can be kept with the keep-unknown option`,
+          line,
+          mapping.outcome,
+        ),
+      );
       return -1;
     }
     if (goodValue !== null && value === goodValue) return 0;
     const number = +value;
     const numeric = Number.isFinite(number);
     if (numeric && badNumber !== null && number === badNumber) return 1;
+    if (unknownTexts.size > 0 && (unknownTexts.has(value) || (numeric && unknownNumbers.has(number)))) return UNKNOWN;
     if (goodValue === null) {
       goodValue = value;
       goodNumber = numeric ? number : null;
@@ -221,6 +272,8 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       challengerAt = resolve(header, mapping.challenger);
       if (idName !== null) idAt = resolve(header, idName);
       if (exposureName !== null) exposureAt = resolve(header, exposureName);
+      if (weightName !== null) weightAt = resolve(header, weightName);
+      if (inferredName !== null) inferredAt = resolve(header, inferredName);
       segmentAt = segmentNames.map((name) => resolve(header, name));
     },
     onRows(rows, lines) {
@@ -252,7 +305,52 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           if (b === MISSING) missingScore = true;
           if (!scoreProblem(b, mapping.challenger, row[challengerAt], line)) ok = false;
         }
-        if (outcome < 0 && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
+        if ((outcome < 0 || outcome === UNKNOWN) && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
+
+        let rowWeight = 1;
+        if (weight !== null) {
+          const cell = row[weightAt];
+          const value = parseNumber(cell, decimalComma);
+          if (value === MISSING) {
+            missingByColumn[weightName!]++;
+            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is empty; every row needs a positive weight`, line, weightName!));
+            ok = false;
+          } else if (value === INVALID) {
+            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: ${quoteCell(cell.trim())} is not a number; a weight is a positive number`, line, weightName!));
+            ok = false;
+          } else if (!(value > 0) || !Number.isFinite(value)) {
+            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is ${cell.trim()}; a weight must be a positive number`, line, weightName!));
+            ok = false;
+          } else rowWeight = value;
+        }
+
+        let probability = NaN;
+        if (inferred !== null) {
+          const cell = row[inferredAt];
+          const value = parseNumber(cell, decimalComma);
+          if (value === MISSING) {
+            missingByColumn[inferredName!]++;
+            if (outcome === UNKNOWN && requireInferred) {
+              sink.report(
+                new HoldoutInputError(
+                  'bad_probability',
+                  `${where(line, inferredName!)}: the probability of bad is empty on a row without an outcome; reject inference by column needs it on every such row`,
+                  line,
+                  inferredName!,
+                ),
+              );
+              ok = false;
+            }
+          } else if (outcome === UNKNOWN) {
+            if (value === INVALID) {
+              sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${quoteCell(cell.trim())} is not a number; a probability of bad is 0 to 1`, line, inferredName!));
+              ok = false;
+            } else if (!(value >= 0 && value <= 1)) {
+              sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${cell.trim()} is not a probability of bad (0 to 1)`, line, inferredName!));
+              ok = false;
+            } else probability = value;
+          }
+        }
 
         let amount = 0;
         if (exposure !== null) {
@@ -277,8 +375,20 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           continue;
         }
 
-        bad.push(outcome);
-        bads += outcome;
+        if (outcome === UNKNOWN) {
+          bad.push(0);
+          known!.push(0);
+          unknownRows++;
+        } else {
+          bad.push(outcome);
+          bads += outcome;
+          if (known !== null) known.push(1);
+        }
+        if (weight !== null) {
+          weight.push(rowWeight);
+          weightTotal += rowWeight;
+        }
+        if (inferred !== null) inferred.push(probability);
         champion.push(a as number);
         challenger.push(b as number);
         if (exposure !== null) exposure.push(amount);
@@ -318,15 +428,19 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   }
 
   const n = champion.length;
+  const knownRows = n - unknownRows;
   if (sink.errors.length === 0) {
     if (rowsRead === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
-    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${dropped.toLocaleString('en-US')} rows left out)`);
-    if (bads === 0 || bads === n) {
+    if (n === 0) throw new HoldoutInputError('no_rows', `every row has a missing score (${formatCount(dropped)} rows left out)`);
+    if (knownRows === 0) {
+      throw new HoldoutInputError('single_class', `column ${columnName(mapping.outcome)}: no row has an outcome; a comparison needs goods and bads with a known outcome`, null, mapping.outcome);
+    }
+    if (bads === 0 || bads === knownRows) {
       const only = bads === 0 ? `the good value ${quoteCell(goodValue ?? '')}` : `the bad value ${quoteCell(badValue)}`;
       const hint = bads === 0 ? `; no row has the bad value ${quoteCell(badValue)} (is the bad value right?)` : '';
       throw new HoldoutInputError(
         'single_class',
-        `column ${columnName(mapping.outcome)}: every row used has ${only}${hint}; a comparison needs both goods and bads`,
+        `column ${columnName(mapping.outcome)}: every row used${unknownRows > 0 ? ' with an outcome' : ''} has ${only}${hint}; a comparison needs both goods and bads`,
         null,
         mapping.outcome,
       );
@@ -351,6 +465,13 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     ids,
     segments,
   };
+  if (weight !== null) holdout.weight = weight.finish();
+  if (known !== null && unknownRows > 0) {
+    const flags = new Uint8Array(n);
+    for (let i = 0; i < n; i++) flags[i] = known.data[i];
+    holdout.known = flags;
+  }
+  if (inferred !== null && unknownRows > 0) holdout.inferredBad = inferred.finish();
   return {
     loaded: {
       holdout,
@@ -362,8 +483,10 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
         missingByColumn,
         badValue,
         goodValue,
-        goods: n - bads,
+        goods: knownRows - bads,
         bads,
+        unknown: unknownRows,
+        weightTotal: weight === null ? null : weightTotal,
         delimiter: layout.delimiter,
       },
     },
@@ -389,7 +512,12 @@ export async function validateHoldout(
     const { read } = loaded;
     const warnings: string[] = [];
     if (read.rowsDroppedMissingScore > 0) {
-      warnings.push(`${read.rowsDroppedMissingScore.toLocaleString('en-US')} rows with a missing score left out`);
+      warnings.push(`${formatCount(read.rowsDroppedMissingScore)} rows with a missing score left out`);
+    }
+    if (read.unknown > 0) {
+      warnings.push(
+        `${formatCount(read.unknown)} rows have no outcome: they count in approval rates, cut-offs and swap sets, not in AUC, KS or bad rates`,
+      );
     }
     return {
       ok: true,
@@ -399,7 +527,8 @@ export async function validateHoldout(
         rowsUsed: read.rowsUsed,
         goods: read.goods,
         bads: read.bads,
-        badRate: read.bads / read.rowsUsed,
+        badRate: read.bads / (read.rowsUsed - read.unknown),
+        ...(read.unknown > 0 || read.weightTotal !== null ? { unknownRows: read.unknown, accounts: read.weightTotal ?? read.rowsUsed } : {}),
         rowsDroppedMissingScore: read.rowsDroppedMissingScore,
         missingByColumn: read.missingByColumn,
         warnings,

@@ -1,11 +1,13 @@
-import type { MappingGuess } from '@shared/comparisons';
+import { type MappingGuess, maxSegmentColumns } from '@shared/comparisons';
 import type { ColumnMapping, HigherIs } from '@shared/report';
 import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout, readCsv } from './csv-records';
 import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
+import { boundPreview, PREVIEW_CELL_CHARS } from './preview-bounds';
 import { INVALID, MISSING, parseNumber } from './values';
+import { formatAuc, formatCount } from '@shared/format';
 
 /**
  * A first look at a holdout file, before any mapping: its columns (what their values look like),
@@ -40,7 +42,7 @@ export interface HoldoutScan {
   delimiter: CsvLayout['delimiter'];
   rowCount: number;
   columns: ScannedColumn[];
-  /** The first 20 data rows, as text, in column order. */
+  /** The first 20 data rows, as text, in column order, within the bounds of preview-bounds.ts (cells cut to 200 characters, 64 KB in all). */
   preview: string[][];
   guess: MappingGuess;
   /** Rows whose field count differs from the header's (the first MAX_PROBLEMS); they are left
@@ -126,7 +128,8 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
           continue;
         }
         statRows++;
-        if (preview.length < PREVIEW_ROWS) preview.push(row.slice());
+        // A long cell is copied cut (through a Buffer: a plain slice would keep the whole field alive).
+        if (preview.length < PREVIEW_ROWS) preview.push(row.map((cell) => (cell.length > PREVIEW_CELL_CHARS ? Buffer.from(cell.slice(0, PREVIEW_CELL_CHARS + 1)).toString() : cell)));
         const sampled = sampleRows < sampleLimit;
         for (let c = 0; c < row.length; c++) {
           const cell = row[c];
@@ -181,7 +184,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     delimiter: layout.delimiter,
     rowCount,
     columns,
-    preview,
+    preview: boundPreview(preview),
     guess,
     problems,
   };
@@ -254,7 +257,8 @@ function guessMapping(
 
   const segments = indices
     .filter((c) => !used.has(c) && columns[c].kind === 'categorical' && columns[c].distinct >= 2)
-    .map((c) => header[c]);
+    .map((c) => header[c])
+    .slice(0, maxSegmentColumns);
 
   const orientation = (at: number | undefined): { higherIs: HigherIs | null; hint: string | null } => {
     if (at === undefined) return { higherIs: null, hint: null };
@@ -273,11 +277,11 @@ function guessMapping(
     } catch {
       return { higherIs: byName, hint: 'only one outcome in the first rows; guessed from the name' };
     }
-    const shown = (Math.max(value, 1 - value)).toFixed(3);
-    const base = `on the first ${rows.length.toLocaleString('en-US')} rows`;
+    const shown = formatAuc(Math.max(value, 1 - value));
+    const base = `on the first ${formatCount(rows.length)} rows`;
     if (value > 0.51) return { higherIs: 'safer', hint: `bads have lower scores: AUC ${shown} taking higher = safer, ${base}` };
     if (value < 0.49) return { higherIs: 'riskier', hint: `bads have higher scores: AUC ${shown} taking higher = riskier, ${base}` };
-    return { higherIs: byName, hint: `the data barely separate (AUC ${value.toFixed(3)}); guessed from the name` };
+    return { higherIs: byName, hint: `the data barely separate (AUC ${formatAuc(value)}); guessed from the name` };
   };
   const championOrientation = orientation(championAt);
   const challengerOrientation = orientation(challengerAt);

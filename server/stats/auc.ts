@@ -1,5 +1,6 @@
 import type { ScoreBlocks } from './order';
 import { StatisticError } from './statistic-error';
+import { weightedAuc } from './weighted-auc';
 
 /**
  * AUC: the Mann–Whitney probability that a good account scores safer than a bad one, ties
@@ -11,10 +12,16 @@ import { StatisticError } from './statistic-error';
  * All counts and products are float64 integers (exact below 2^53, i.e. for any holdout under
  * 94 million rows); nothing is formed in 32-bit integers. Clamped to [0, 1].
  * Cost: O(blocks) after the sort in scoreBlocks (O(n log n), or O(n) for points).
+ *
+ * With sampling weights (blocks.weights) the counts become summed weights: the weighted
+ * Mann–Whitney statistic, each pair counting w_good·w_bad, ties one half, over W_good·W_bad
+ * (weighted-auc.ts). With every weight 1 the sums are the same float64 integers, so the value is
+ * the unweighted one to the last bit.
  */
 export function auc(blocks: ScoreBlocks): number {
   const { count, goods, bads, nGood, nBad } = blocks;
   if (nGood === 0 || nBad === 0) throw new StatisticError('auc requires at least one good and one bad');
+  if (blocks.weights) return weightedAuc(blocks.weights, count);
   let below = 0;
   let wins = 0;
   for (let k = 0; k < count; k++) {

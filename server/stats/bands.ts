@@ -1,12 +1,15 @@
 import type { BandTable } from '@shared/report';
 import type { ModelName } from './holdout';
-import { rawRange, type PreparedHoldout } from './policy-data';
+import { accountsAt, knownAt, rawRange, type PreparedHoldout } from './policy-data';
 
 /**
  * Quantile band (gains) table of one model: per band, riskiest first, the score range, counts,
  * goods, bads, bad rate, cumulative shares of bads and goods, KS at the end of the band
  * (cumBadShare − cumGoodShare) and good:bad odds (null when a band has no bads). Bands follow the
  * rule in policy-data.ts: each block of equal scores goes wholly to the band its middle falls in.
+ * With weights and applicants without an outcome: count is the band's accounts (summed weights,
+ * every row), goods and bads those with a known outcome, the bad rate bads / (goods + bads), and
+ * `unknown` the accounts without an outcome; shares, KS and Gini are of known accounts.
  * Common practice, no source.
  *
  * The trapezoid Gini over the table, riskiest band first, with B_i and G_i the cumulative bad and
@@ -28,9 +31,10 @@ export function bandTable(data: PreparedHoldout, name: ModelName): BandTable {
   let area = 0; // Σ (B_i − B_{i−1})(G_i + G_{i−1}), accumulated in counts to divide once
   for (let b = 0; b < model.bandEnds.length; b++) {
     const end = model.bandEnds[b];
-    const count = end - start;
+    const count = accountsAt(model, end) - accountsAt(model, start);
+    const known = knownAt(model, end) - knownAt(model, start);
     const bads = model.badsBefore[end] - model.badsBefore[start];
-    const goods = count - bads;
+    const goods = known - bads;
     area += bads * (2 * cumGoods + goods);
     cumBads += bads;
     cumGoods += goods;
@@ -42,7 +46,8 @@ export function bandTable(data: PreparedHoldout, name: ModelName): BandTable {
       count,
       goods,
       bads,
-      badRate: count > 0 ? bads / count : null,
+      ...(data.known !== null ? { unknown: Math.max(0, count - known) } : {}),
+      badRate: known > 0 ? bads / known : null,
       cumBadShare,
       cumGoodShare,
       ks: cumBadShare - cumGoodShare,

@@ -24,6 +24,12 @@ import type { ScoreBlocks } from './order';
  * inversion of a tabulated cdf (with a 32-entry guide table; probabilities resolved to 2^-32,
  * tails beyond 1e-17 cut); larger m as a sum of Poisson(64) and a remainder.
  *
+ * Sampling weights: a row is resampled with its weight (the stratified draws are still n_good goods
+ * and n_bad bads, rows chosen uniformly), so rows with different weights never share a cell: the
+ * cells are (champion score, challenger score, outcome, weight) combinations, and each replicate's
+ * AUC and KS are computed from the cell counts times the cell's weight, over the replicate's own
+ * total weights (scoreCellsWeighted). Without weights nothing of this runs.
+ *
  * Random numbers: xoshiro128** (Blackman & Vigna, "Scrambled linear pseudorandom number
  * generators", ACM TOMS 47(4), 2021; the reference is from memory), inlined; its state for replicate r is four 32-bit words from seedrandom's ARC4
  * keyed with `${seed}:${r}`. Each replicate has its own stream, so the result does not depend on
@@ -59,6 +65,9 @@ export interface BootstrapPlan {
   /** For each good (bad) account, its cell: the urn uniform draws pick from. */
   goodCells: Uint32Array;
   badCells: Uint32Array;
+  /** The weight of each cell's rows, in champion order and in challenger order; null without weights. */
+  weightChampion: Float64Array | null;
+  weightChallenger: Float64Array | null;
 }
 
 function shared<T extends Uint8Array | Uint32Array | Float64Array>(Kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number }, length: number): T {
@@ -83,12 +92,29 @@ function sortByKey(items: Uint32Array, key: (item: number) => number, range: num
 }
 
 /** Groups the accounts into cells. O(n). */
-export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array): BootstrapPlan {
+export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array, weight: Float64Array | null = null): BootstrapPlan {
   const n = bad.length;
   const rankA = ranks(champion, n);
   const rankB = ranks(challenger, n);
-  // Rows by (champion block, challenger block, outcome): two stable counting sorts.
-  const byB = sortByKey(challenger.order, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
+  // Weighted: each distinct weight's code, so that rows of different weights never share a cell.
+  let weightCode: Uint32Array | null = null;
+  let base = challenger.order;
+  if (weight !== null) {
+    weightCode = new Uint32Array(n);
+    const codes = new Map<number, number>();
+    for (let i = 0; i < n; i++) {
+      let code = codes.get(weight[i]);
+      if (code === undefined) {
+        code = codes.size;
+        codes.set(weight[i], code);
+      }
+      weightCode[i] = code;
+    }
+    const byWeight = weightCode;
+    base = sortByKey(challenger.order, (row) => byWeight[row], codes.size);
+  }
+  // Rows by (champion block, challenger block, outcome[, weight]): stable counting sorts.
+  const byB = sortByKey(base, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
   const rows = sortByKey(byB, (row) => rankA[row], champion.count);
 
   // A new cell where the combination changes, or where the current one is full.
@@ -96,7 +122,12 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
     if (k === 0 || run === MAX_CELL) return true;
     const row = rows[k];
     const previous = rows[k - 1];
-    return rankA[row] !== rankA[previous] || rankB[row] !== rankB[previous] || bad[row] !== bad[previous];
+    return (
+      rankA[row] !== rankA[previous] ||
+      rankB[row] !== rankB[previous] ||
+      bad[row] !== bad[previous] ||
+      (weightCode !== null && weightCode[row] !== weightCode[previous])
+    );
   };
   let cells = 0;
   let run = 0;
@@ -113,6 +144,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   const cellRankB = new Uint32Array(cells);
   const goodCells = shared(Uint32Array, champion.nGood);
   const badCells = shared(Uint32Array, champion.nBad);
+  const weightChampion = weight === null ? null : shared(Float64Array, cells);
   let c = -1;
   let goodAt = 0;
   let badAt = 0;
@@ -125,6 +157,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
       cellRankA[c] = rankA[row];
       cellRankB[c] = rankB[row];
       flagsChampion[c] = bad[row];
+      if (weightChampion !== null) weightChampion[c] = weight![row];
     }
     run++;
     size[c]++;
@@ -139,9 +172,11 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   const byChallenger = sortByKey(identity, (cell) => cellRankB[cell], challenger.count);
   const positionChallenger = shared(Uint32Array, cells);
   const flagsChallenger = shared(Uint8Array, cells);
+  const weightChallenger = weightChampion === null ? null : shared(Float64Array, cells);
   for (let j = 0; j < cells; j++) {
     const cell = byChallenger[j];
     positionChallenger[cell] = j;
+    if (weightChallenger !== null) weightChallenger[j] = weightChampion![cell];
     flagsChallenger[j] = (flagsChampion[cell] & 1) | (j === cells - 1 || cellRankB[byChallenger[j + 1]] !== cellRankB[cell] ? 2 : 0);
   }
   return {
@@ -154,6 +189,8 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
     flagsChallenger,
     goodCells,
     badCells,
+    weightChampion,
+    weightChallenger,
   };
 }
 
@@ -297,10 +334,12 @@ export function runReplicates(
     adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
     if (inspect) inspect(r, counts);
     // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
-    scoreCells(counts, flagsChampion, cells, nGood, nBad, scores);
+    if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores);
+    else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores);
     out.aucChampion[r - offset] = scores[0];
     out.ksChampion[r - offset] = scores[1];
-    scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores);
+    if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores);
+    else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores);
     out.aucChallenger[r - offset] = scores[0];
     out.ksChallenger[r - offset] = scores[1];
   }
@@ -459,6 +498,45 @@ function scoreCells(counts: Uint16Array, flags: Uint8Array, cells: number, nGood
     }
   }
   const pairs = nGood * nBad;
+  scores[0] = wins / pairs;
+  scores[1] = gap / pairs;
+}
+
+/**
+ * scoreCells with weights: each cell counts count × its rows' weight; the replicate's total good
+ * and bad weights (which vary from replicate to replicate) are summed first.
+ */
+function scoreCellsWeighted(counts: Uint16Array, flags: Uint8Array, weight: Float64Array, cells: number, scores: Float64Array): void {
+  let totalGood = 0;
+  let totalBad = 0;
+  for (let c = 0; c < cells; c++) {
+    const w = counts[c] * weight[c];
+    if (flags[c] & 1) totalBad += w;
+    else totalGood += w;
+  }
+  let goods = 0;
+  let bads = 0;
+  let cumGood = 0;
+  let cumBad = 0;
+  let wins = 0;
+  let gap = 0;
+  for (let c = 0; c < cells; c++) {
+    const w = counts[c] * weight[c];
+    const f = flags[c];
+    if (f & 1) bads += w;
+    else goods += w;
+    if (f & 2) {
+      wins += goods * (cumBad + bads * 0.5);
+      cumBad += bads;
+      cumGood += goods;
+      const d = cumBad * totalGood - cumGood * totalBad;
+      const absolute = d < 0 ? -d : d;
+      if (absolute > gap) gap = absolute;
+      goods = 0;
+      bads = 0;
+    }
+  }
+  const pairs = totalGood * totalBad;
   scores[0] = wins / pairs;
   scores[1] = gap / pairs;
 }

@@ -24,6 +24,10 @@ import { StatisticError } from './statistic-error';
  * model's order, blocks of equal scores taken whole. Cost per replicate O(cells + √n); the
  * replicates run on worker threads (bootstrap-worker.ts), in fixed blocks, each replicate with
  * its own seeded stream: the same seed gives identical output for any number of threads.
+ *
+ * Sampling weights (the blocks carry them): the same paired, stratified resampling of rows, each
+ * drawn row keeping its weight; AUC and KS of a replicate are the weighted ones
+ * (bootstrap-kernel.ts).
  */
 
 export interface BootstrapOptions {
@@ -156,7 +160,7 @@ export async function bootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, 
   }
   if (champion.nGood === 0 || champion.nBad === 0) throw new StatisticError('the bootstrap requires at least one good and one bad');
 
-  const plan = planBootstrap(champion, challenger, bad);
+  const plan = planBootstrap(champion, challenger, bad, champion.weights?.row ?? null);
   const out = allocate(replicates);
   const cores = Math.max(1, availableParallelism());
   const threads = options.threads ?? (plan.cells * replicates >= THREAD_THRESHOLD ? cores : 0);

@@ -1,5 +1,5 @@
 import type { Curves } from '@shared/report';
-import type { PreparedHoldout, PreparedModel } from './policy-data';
+import { accountsAt, knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 
 /**
  * ROC, CAP and KS-chart points of both models, walking the accounts riskiest first and taking a
@@ -14,6 +14,7 @@ import type { PreparedHoldout, PreparedModel } from './policy-data';
  * evenly spaced x values the first point at or beyond it (x is the share of goods declined for
  * ROC and the share of accounts declined for CAP and the KS chart, so outlying scores do not
  * starve the bulk of points). The whole range is covered; nothing is dropped from the tail.
+ * Weighted: shares of summed weights (the engine passes data of the rows with a known outcome).
  * Cost: O(distinct scores) per model on prepared data.
  */
 
@@ -31,7 +32,8 @@ export function curves(data: PreparedHoldout): Curves {
 }
 
 function modelCurves(data: PreparedHoldout, model: PreparedModel) {
-  const { n, bads, goods } = data;
+  const { bads, goods } = data;
+  const total = data.accounts;
   const m = model.blockEnds.length;
   // Point j (0 … m) is after the first j blocks: position P_j, P_0 = 0.
   const position = new Float64Array(m + 1);
@@ -44,8 +46,8 @@ function modelCurves(data: PreparedHoldout, model: PreparedModel) {
   for (let j = 0; j <= m; j++) {
     const cumBad = model.badsBefore[position[j]];
     badShare[j] = cumBad / bads;
-    goodShare[j] = (position[j] - cumBad) / goods;
-    populationShare[j] = position[j] / n;
+    goodShare[j] = (knownAt(model, position[j]) - cumBad) / goods;
+    populationShare[j] = accountsAt(model, position[j]) / total;
     const gap = Math.abs(badShare[j] - goodShare[j]);
     if (gap > ksGap) {
       ksGap = gap;

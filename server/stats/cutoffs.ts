@@ -1,5 +1,5 @@
 import type { CutoffPosition, HigherIs } from '@shared/report';
-import type { PreparedModel } from './policy-data';
+import { accountsAt, type PreparedModel } from './policy-data';
 
 /**
  * Cut-offs and approval rates. Common practice, no source.
@@ -16,6 +16,9 @@ import type { PreparedModel } from './policy-data';
  * reported beside the target. (r·n within 1e-7 of an integer counts as that integer, so that
  * 0.7 · 10 is 7, not 8.) r = 0 accepts nobody: the cut-off is then the nearest number beyond the
  * safest score. r = 1 accepts everybody: the cut-off is the riskiest score.
+ * With sampling weights approval rates are of accounts (summed weights): the cut-off for r is the
+ * score of the safest position p whose book [p, n) holds at least r·W − 1e-7 accounts, ties again accepted together; with every weight 1
+ * this is the rule above. Rows without an outcome count like every other row.
  * Cost: O(log n) per cut-off on prepared data (a binary search over the sorted scores).
  */
 
@@ -28,8 +31,10 @@ export interface LocatedCutoff {
   safetyCut: number;
   /** First accepted position in the model's sorted order; accepted accounts are [start, n). */
   start: number;
-  /** Number of accepted accounts, n − start. */
+  /** Number of accepted rows, n − start. */
   accepted: number;
+  /** Accepted accounts (summed weights; = accepted without weights). */
+  acceptedAccounts: number;
 }
 
 export function locateCutoff(model: PreparedModel, request: CutoffRequest): LocatedCutoff {
@@ -42,16 +47,34 @@ export function locateCutoff(model: PreparedModel, request: CutoffRequest): Loca
   } else {
     const r = request.approvalRate;
     if (!(r >= 0 && r <= 1)) throw new Error(`approval rate must be between 0 and 1, got ${r}`);
-    const k = Math.min(n, Math.max(0, Math.ceil(r * n - 1e-7)));
-    safetyCut = k === 0 ? nextUp(sorted[n - 1]) : sorted[n - k];
+    if (model.accountsBefore === null) {
+      const k = Math.min(n, Math.max(0, Math.ceil(r * n - 1e-7)));
+      safetyCut = k === 0 ? nextUp(sorted[n - 1]) : sorted[n - k];
+    } else {
+      // The largest p whose book [p, n) holds at least r·W − 1e-7 accounts (with weights 1: the
+      // rule above, the same comparisons in the same integers).
+      const before = model.accountsBefore;
+      const total = before[n];
+      const need = r * total - 1e-7;
+      let lo = 0;
+      let hi = n;
+      while (lo < hi) {
+        const mid = (lo + hi + 1) >>> 1;
+        if (total - before[mid] >= need) lo = mid;
+        else hi = mid - 1;
+      }
+      safetyCut = lo >= n ? nextUp(sorted[n - 1]) : sorted[lo];
+    }
   }
   const start = lowerBound(sorted, safetyCut);
   const accepted = n - start;
+  const acceptedAccounts = model.accountsBefore === null ? accepted : accountsAt(model, n) - accountsAt(model, start);
   return {
-    position: { cutoff: toSafety(safetyCut, model.higherIs), approvalRate: accepted / n },
+    position: { cutoff: toSafety(safetyCut, model.higherIs), approvalRate: model.accountsBefore === null ? accepted / n : acceptedAccounts / accountsAt(model, n) },
     safetyCut,
     start,
     accepted,
+    acceptedAccounts,
   };
 }
 

@@ -1,6 +1,7 @@
 import type { DataQuality } from '@shared/report';
 import type { Holdout } from './holdout';
-import type { PreparedHoldout, PreparedModel } from './policy-data';
+import { knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
+import { formatAuc, formatCount } from '@shared/format';
 
 /**
  * Data-quality summary of a holdout: rows read / used / dropped, empty cells per mapped column
@@ -47,7 +48,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
       const auc = aucOf(model, bads, goods);
       if (auc < 0.5) {
         warnings.push(
-          `The ${label}'s AUC is ${auc.toFixed(3)} with higher = ${model.higherIs}: it ranks bads as safer than goods; check the orientation.`,
+          `The ${label}'s AUC is ${formatAuc(auc)} with higher = ${model.higherIs}: it ranks bads as safer than goods; check the orientation.`,
         );
       }
     }
@@ -117,7 +118,7 @@ function aucOf(model: PreparedModel, bads: number, goods: number): number {
   for (let b = 0; b < model.blockEnds.length; b++) {
     const end = model.blockEnds[b];
     const blockBads = model.badsBefore[end] - model.badsBefore[start];
-    const blockGoods = end - start - blockBads;
+    const blockGoods = knownAt(model, end) - knownAt(model, start) - blockBads;
     numerator += blockGoods * (model.badsBefore[start] + blockBads / 2);
     start = end;
   }
@@ -170,5 +171,5 @@ function sameValues(x: Float64Array, y: Float64Array): boolean {
 }
 
 function plural(n: number, one: string, many: string): string {
-  return `${n.toLocaleString('en-US')} ${n === 1 ? one : many}`;
+  return `${formatCount(n)} ${n === 1 ? one : many}`;
 }

@@ -1,6 +1,6 @@
 import type { AnalysisSettings, Economics } from '@shared/report';
 import { locateCutoff } from './cutoffs';
-import type { PreparedHoldout, PreparedModel } from './policy-data';
+import { accountsAt, knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 
 /**
  * Expected profit by cut-off for each model: profit = profitPerGood × approved goods − loss on
@@ -10,6 +10,8 @@ import type { PreparedHoldout, PreparedModel } from './policy-data';
  * every score value of the model (each block of equal scores), so it is exact, not the best of
  * the curve. On equal profit the higher approval rate wins. Accepting nobody is not a cut-off and
  * is not considered, so the best profit can be negative.
+ * Weighted: goods, bads and losses are summed weights (the engine passes data of the rows with a
+ * known outcome).
  * Common practice, no source.
  * Cost: O(n) per model for the exposure sums when an LGD is used, otherwise O(distinct scores +
  * 100 · log n), on prepared data.
@@ -48,14 +50,14 @@ function modelEconomics(
     lossBefore = new Float64Array(n + 1);
     for (let k = 0; k < n; k++) {
       const row = order[k];
-      lossBefore[k + 1] = lossBefore[k] + (bad[row] ? lgd * exposure[row] : 0);
+      lossBefore[k + 1] = lossBefore[k] + (bad[row] ? lgd * exposure[row] * (data.weight === null ? 1 : data.weight[row]) : 0);
     }
     totalLoss = lossBefore[n];
   } else {
     totalLoss = lossPerBad * data.bads;
   }
   const profit = (start: number): number => {
-    const accepted = n - start;
+    const accepted = knownAt(model, n) - knownAt(model, start);
     const bads = data.bads - badsBefore[start];
     const loss = lossBefore ? totalLoss - lossBefore[start] : lossPerBad * bads;
     return profitPerGood * (accepted - bads) - loss;
@@ -81,7 +83,7 @@ function modelEconomics(
   }
   return {
     bestCutoff: model.higherIs === 'safer' ? bestScore : -bestScore,
-    bestApprovalRate: (n - bestStart) / n,
+    bestApprovalRate: (accountsAt(model, n) - accountsAt(model, bestStart)) / data.accounts,
     bestProfit,
     curve,
   };

@@ -18,6 +18,12 @@ export interface Holdout {
   ids: string[] | null;
   /** Categorical columns: the distinct values and each account's index into them. */
   segments: SegmentColumn[];
+  /** Sampling weight per row (positive, finite): the applicants the row stands for; absent = 1 each. */
+  weight?: Float64Array | null;
+  /** 1 = the outcome is known, 0 = no outcome (kept with keep-unknown; bad is 0 there); absent = all known. */
+  known?: Uint8Array | null;
+  /** Probability of bad from the mapped inferred-bad column (NaN where not given); absent when not mapped. */
+  inferredBad?: Float64Array | null;
 }
 
 export interface SegmentColumn {

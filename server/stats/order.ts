@@ -191,6 +191,46 @@ export interface ScoreBlocks {
   bads: Uint32Array;
   nGood: number;
   nBad: number;
+  /** Sampling weights, when the holdout has them (see weighBlocks); absent = every row counts once. */
+  weights?: BlockWeights;
+}
+
+/** The weighted counterpart of a ScoreBlocks' counts. */
+export interface BlockWeights {
+  /** Weight of each row, indexed like the rows in `order`. */
+  row: Float64Array;
+  /** Summed weight of the goods and of the bads of each block. */
+  goods: Float64Array;
+  bads: Float64Array;
+  /** Total weight of the goods and of the bads. */
+  good: number;
+  bad: number;
+}
+
+/**
+ * The blocks with the sampling weights of their rows summed per block and class (`weight[row]`
+ * for every row in `order`). Sums run in sorted order, block by block. O(n).
+ */
+export function weighBlocks(blocks: ScoreBlocks, weight: Float64Array): ScoreBlocks {
+  const { order, sortedBad, count, start } = blocks;
+  const goods = new Float64Array(count);
+  const bads = new Float64Array(count);
+  let good = 0;
+  let bad = 0;
+  for (let k = 0; k < count; k++) {
+    let g = 0;
+    let b = 0;
+    for (let at = start[k]; at < start[k + 1]; at++) {
+      const w = weight[order[at]];
+      if (sortedBad[at]) b += w;
+      else g += w;
+    }
+    goods[k] = g;
+    bads[k] = b;
+    good += g;
+    bad += b;
+  }
+  return { ...blocks, weights: { row: weight, goods, bads, good, bad } };
 }
 
 /**

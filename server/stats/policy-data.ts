@@ -1,6 +1,7 @@
-import type { HigherIs } from '@shared/report';
+import type { HigherIs, RejectInference } from '@shared/report';
 import type { Holdout, ModelName, SegmentColumn } from './holdout';
 import { argsortAscending, safety } from './order';
+import { inferBads } from './reject-inference';
 
 /**
  * The one-off preparation behind the decision-facing statistics (cut-offs, swap sets, swap
@@ -17,6 +18,12 @@ import { argsortAscending, safety } from './order';
  * the block falls. Bands that no block falls in are dropped and the rest renumbered 1, 2, …, so a
  * model with fewer distinct scores than B, or with heavy ties, has fewer than B bands (a constant
  * score has one). Band 1 is the riskiest.
+ *
+ * Weights and rows without an outcome (holdout.weight, holdout.known): positions become
+ * cumulative accounts (summed weights, `accountsBefore`) for approval rates, cut-offs and the band
+ * rule (the middle of a block in accounts, over all rows); `badsBefore` sums the weights of the
+ * known bads and `knownBefore` those of the known rows, so that bad rates are of known accounts.
+ * Without either, those arrays are null and every position counts once, as before.
  */
 
 export interface PreparedModel {
@@ -30,8 +37,12 @@ export interface PreparedModel {
   order: Uint32Array;
   /** safety[order[k]]: the safety scores ascending. */
   sorted: Float64Array;
-  /** badsBefore[k]: bads among the k riskiest accounts (positions 0 … k − 1); length n + 1. */
-  badsBefore: Uint32Array;
+  /** badsBefore[k]: bads among the k riskiest accounts (positions 0 … k − 1); length n + 1. Weighted (Float64) with weights. */
+  badsBefore: Uint32Array | Float64Array;
+  /** Accounts (summed weights) among the k riskiest rows; null without weights (then k). */
+  accountsBefore: Float64Array | null;
+  /** Accounts with a known outcome among the k riskiest rows; null when every outcome is known (then accountsBefore). */
+  knownBefore: Float64Array | null;
   /** Exclusive end position of each block of equal scores, ascending; the last is n. */
   blockEnds: Uint32Array;
   /** Band of each account, 0-based (0 = riskiest). */
@@ -42,8 +53,17 @@ export interface PreparedModel {
 
 export interface PreparedHoldout {
   n: number;
+  /** Known bads and goods (summed weights when weighted). */
   bads: number;
   goods: number;
+  /** All accounts (summed weights; n without weights) and those with a known outcome. */
+  accounts: number;
+  knownAccounts: number;
+  /** Sampling weights (null = 1 each) and outcome-known flags (null = all known). */
+  weight: Float64Array | null;
+  known: Uint8Array | null;
+  /** Inferred probability of bad per row (0 on known rows) under the reject inference; null for known-only or when every outcome is known. */
+  inferred: { method: 'parcel' | 'column'; probability: Float64Array } | null;
   /** 1 = bad, 0 = good, per account. */
   bad: Uint8Array;
   exposure: Float64Array | null;
@@ -63,6 +83,8 @@ export interface PrepareOptions {
    * stage); they are checked, not trusted blindly. Without them the data are sorted here.
    */
   orders?: Partial<Record<ModelName, Uint32Array>>;
+  /** Reject inference for rows without an outcome (default known-only). */
+  inference?: RejectInference;
 }
 
 export function preparePolicyData(holdout: Holdout, options: PrepareOptions): PreparedHoldout {
@@ -78,19 +100,46 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
   if (!Number.isInteger(options.bands) || options.bands < 2 || options.bands > 50) {
     throw new Error(`bands must be an integer from 2 to 50, got ${options.bands}`);
   }
+  const weight = holdout.weight ?? null;
+  const known = holdout.known ?? null;
+  if (weight && weight.length !== n) throw new Error('weight must have one entry per account');
+  if (known && known.length !== n) throw new Error('known must have one entry per account');
   let bads = 0;
-  for (let i = 0; i < n; i++) bads += bad[i];
+  let accounts = n;
+  let knownAccounts = n;
+  if (weight === null && known === null) {
+    for (let i = 0; i < n; i++) bads += bad[i];
+  } else {
+    accounts = 0;
+    knownAccounts = 0;
+    for (let i = 0; i < n; i++) {
+      const w = weight === null ? 1 : weight[i];
+      accounts += w;
+      if (known === null || known[i]) {
+        knownAccounts += w;
+        if (bad[i]) bads += w;
+      }
+    }
+  }
   const model = (name: ModelName): PreparedModel =>
-    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.orders?.[name]);
+    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.orders?.[name], weight, known);
+  const champion = model('champion');
+  const inference = options.inference ?? { method: 'known-only', parcelFactor: 1 };
+  const probability = inferBads(inference, { n, bad, known, weight, inferredBad: holdout.inferredBad ?? null }, champion);
   return {
     n,
     bads,
-    goods: n - bads,
+    goods: knownAccounts - bads,
+    accounts,
+    knownAccounts,
+    weight,
+    known,
+    inferred: probability === null || inference.method === 'known-only' ? null : { method: inference.method, probability },
     bad,
     exposure: holdout.exposure,
     segments: holdout.segments,
     requestedBands: options.bands,
-    champion: model('champion'),
+    champion,
     challenger: model('challenger'),
   };
 }
@@ -102,6 +151,8 @@ function prepareModel(
   bad: Uint8Array,
   bands: number,
   givenOrder: Uint32Array | undefined,
+  weight: Float64Array | null,
+  known: Uint8Array | null,
 ): PreparedModel {
   const n = raw.length;
   for (let i = 0; i < n; i++) {
@@ -112,13 +163,22 @@ function prepareModel(
   if (order.length !== n) throw new Error(`${name} order must have one entry per account`);
 
   const sorted = new Float64Array(n);
-  const badsBefore = new Uint32Array(n + 1);
+  const plain = weight === null && known === null;
+  const badsBefore = plain ? new Uint32Array(n + 1) : new Float64Array(n + 1);
+  const accountsBefore = weight === null ? null : new Float64Array(n + 1);
+  const knownBefore = known === null ? null : new Float64Array(n + 1);
   const ends = new Uint32Array(n);
   let blocks = 0;
   for (let k = 0; k < n; k++) {
     const row = order[k];
     sorted[k] = safe[row];
-    badsBefore[k + 1] = badsBefore[k] + bad[row];
+    if (plain) badsBefore[k + 1] = badsBefore[k] + bad[row];
+    else {
+      const w = weight === null ? 1 : weight[row];
+      badsBefore[k + 1] = badsBefore[k] + (bad[row] ? w : 0);
+      if (accountsBefore !== null) accountsBefore[k + 1] = accountsBefore[k] + w;
+      if (knownBefore !== null) knownBefore[k + 1] = knownBefore[k] + (known![row] ? w : 0);
+    }
     if (k > 0) {
       if (sorted[k] < sorted[k - 1]) throw new Error(`${name} order is not ascending by safety at position ${k}`);
       if (sorted[k] !== sorted[k - 1]) ends[blocks++] = k;
@@ -132,9 +192,13 @@ function prepareModel(
   const bandEndList: number[] = [];
   let current = -1;
   let start = 0;
+  const total = accountsBefore === null ? n : accountsBefore[n];
   for (let b = 0; b < blocks; b++) {
     const end = blockEnds[b];
-    const ideal = Math.floor(((start + end) * bands) / (2 * n));
+    const ideal =
+      accountsBefore === null
+        ? Math.floor(((start + end) * bands) / (2 * n))
+        : Math.min(bands - 1, Math.floor(((accountsBefore[start] + accountsBefore[end]) * bands) / (2 * total)));
     if (ideal !== current) {
       if (current >= 0) bandEndList.push(start);
       current = ideal;
@@ -153,6 +217,8 @@ function prepareModel(
     order,
     sorted,
     badsBefore,
+    accountsBefore,
+    knownBefore,
     blockEnds,
     band,
     bandEnds: Uint32Array.from(bandEndList),
@@ -164,4 +230,14 @@ export function rawRange(model: PreparedModel, start: number, end: number): { sc
   const low = model.sorted[start];
   const high = model.sorted[end - 1];
   return model.higherIs === 'safer' ? { scoreMin: low, scoreMax: high } : { scoreMin: -high, scoreMax: -low };
+}
+
+/** Accounts (summed weights) among the first k positions of a model's order. */
+export function accountsAt(model: PreparedModel, k: number): number {
+  return model.accountsBefore === null ? k : model.accountsBefore[k];
+}
+
+/** Accounts with a known outcome among the first k positions of a model's order. */
+export function knownAt(model: PreparedModel, k: number): number {
+  return model.knownBefore !== null ? model.knownBefore[k] : accountsAt(model, k);
 }

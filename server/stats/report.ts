@@ -1,8 +1,11 @@
 import type { z } from 'zod';
+import { formatCount } from '@shared/format';
 import { type AdoptionPolicy, defaultAdoptionPolicy } from '@shared/policy';
 import {
   analysisSettingsSchema,
   type ColumnMapping,
+  defaultRejectInference,
+  type SegmentRow,
   type Difference,
   type ModelMetrics,
   type Report,
@@ -15,8 +18,10 @@ import { dataQuality } from './data-quality';
 import { pairedDelong } from './delong';
 import { economics } from './economics';
 import type { Holdout } from './holdout';
+import { levelOrder } from './holdout';
+import { knownRows, population } from './known-rows';
 import { ks } from './ks';
-import { safety, scoreBlocks } from './order';
+import { safety, scoreBlocks, weighBlocks } from './order';
 import { preparePolicyData } from './policy-data';
 import { segments } from './segments';
 import { StatisticError } from './statistic-error';
@@ -35,6 +40,13 @@ import { verdict } from './verdict';
  * strategy curve, band tables, curves, economics and data quality on data prepared from the same
  * orders (policy-data.ts and its consumers) → segments (segments.ts) → the verdict under the
  * adoption policy (verdict.ts). Cost: O(n log n) + O(replicates · cells).
+ *
+ * Sampling weights and applicants without an outcome (holdout.weight, holdout.known): AUC, KS,
+ * DeLong, the bootstrap, curves, economics and the segments' Ginis use the rows with a known
+ * outcome (known-rows.ts), weighted; approval rates, cut-offs, swap sets, the swap matrix, the
+ * strategy curve and the band tables use every row, weighted, with bad rates of the known
+ * accounts and the reject inference of the settings (policy-data.ts, swap-sets-weighted.ts). The
+ * report then carries `population`. Without either, the report is as before to the byte.
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
@@ -62,7 +74,7 @@ export interface BuildReportInput {
   threads?: number;
 }
 
-const count = (value: number) => value.toLocaleString('en-US');
+const count = (value: number) => formatCount(value);
 
 // Share of the progress bar each stage ends at.
 const PROGRESS = { ranked: 0.04, delong: 0.06, bootstrap: 0.9, policy: 0.96, segments: 0.99 } as const;
@@ -76,16 +88,23 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     last = Math.max(last, Math.min(1, fraction));
     request.onProgress?.({ fraction: last, stage });
   };
-  const { n, bad } = holdout;
+  const plain = !holdout.weight && !holdout.known;
+  const knownHoldout = knownRows(holdout);
+  const { n, bad } = knownHoldout;
   let bads = 0;
   for (let i = 0; i < n; i++) bads += bad[i];
   if (bads === 0 || bads === n) throw new StatisticError('a comparison requires at least one good and one bad', 'single_class');
+  const inference = settings.rejectInference ?? defaultRejectInference;
 
   report(0, 'Ranking both models');
-  const championSafety = safety(holdout.champion, holdout.higherIs.champion);
-  const challengerSafety = safety(holdout.challenger, holdout.higherIs.challenger);
-  const championBlocks = scoreBlocks(championSafety, bad);
-  const challengerBlocks = scoreBlocks(challengerSafety, bad);
+  const championSafety = safety(knownHoldout.champion, knownHoldout.higherIs.champion);
+  const challengerSafety = safety(knownHoldout.challenger, knownHoldout.higherIs.challenger);
+  let championBlocks = scoreBlocks(championSafety, bad);
+  let challengerBlocks = scoreBlocks(challengerSafety, bad);
+  if (knownHoldout.weight) {
+    championBlocks = weighBlocks(championBlocks, knownHoldout.weight);
+    challengerBlocks = weighBlocks(challengerBlocks, knownHoldout.weight);
+  }
   report(PROGRESS.ranked, 'AUC, DeLong and KS');
 
   const delong = pairedDelong(championBlocks, challengerBlocks, bad, settings.confidence);
@@ -103,10 +122,14 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   });
   report(PROGRESS.bootstrap, 'Swap sets, strategy curve and bands');
 
+  const knownOrders = { champion: championBlocks.order, challenger: challengerBlocks.order };
   const data = preparePolicyData(holdout, {
     bands: settings.bands,
-    orders: { champion: championBlocks.order, challenger: challengerBlocks.order },
+    orders: knownHoldout === holdout ? knownOrders : undefined,
+    inference,
   });
+  // Curves and economics need an outcome: the rows with one (the same data when all are known).
+  const knownData = knownHoldout === holdout ? data : preparePolicyData(knownHoldout, { bands: settings.bands, orders: knownOrders });
   const swap = swapSets(
     data,
     settings.cutoffs === null
@@ -124,17 +147,18 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   const matrix = swapMatrix(data);
   const strategy = strategyCurve(data, settings.approvalRate);
   const bands = { champion: bandTable(data, 'champion'), challenger: bandTable(data, 'challenger') };
-  const curvePoints = curves(data);
-  const profit = settings.economics === null ? null : economics(data, settings.economics);
+  const curvePoints = curves(knownData);
+  const profit = settings.economics === null ? null : economics(knownData, settings.economics);
   const quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
   report(PROGRESS.policy, 'Segments');
 
-  const segmentRows = segments(holdout, {
+  const segmentRows = segments(knownHoldout, {
     champion: championBlocks,
     challenger: challengerBlocks,
     policy,
     confidence: settings.confidence,
   });
+  if (!plain) addSegmentPopulation(segmentRows, holdout);
   report(PROGRESS.segments, 'Verdict');
 
   const model = (name: 'champion' | 'challenger', ksResult: { ks: number; score: number }, ksCi: [number, number] | null): ModelMetrics => {
@@ -156,7 +180,8 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     rows: n,
     goods: n - bads,
     bads,
-    badRate: bads / n,
+    badRate: plain ? bads / n : data.bads / data.knownAccounts,
+    ...(plain ? {} : { population: population(holdout) }),
     champion: model('champion', championKs, boot.championKsCi),
     challenger: model('challenger', challengerKs, boot.challengerKsCi),
     difference,
@@ -174,4 +199,26 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   result.verdict = verdict(result, policy, swapAtPolicyRate);
   report(1, 'Done');
   return result;
+}
+
+/** Each segment row's applicants (weighted, every row) and those without an outcome. O(n) per column. */
+function addSegmentPopulation(rows: SegmentRow[], holdout: Holdout): void {
+  const weight = holdout.weight ?? null;
+  const known = holdout.known ?? null;
+  for (const column of holdout.segments) {
+    const accounts = new Float64Array(column.levels.length);
+    const unknown = new Float64Array(column.levels.length);
+    for (let i = 0; i < holdout.n; i++) {
+      const w = weight === null ? 1 : weight[i];
+      accounts[column.codes[i]] += w;
+      if (known !== null && !known[i]) unknown[column.codes[i]] += w;
+    }
+    for (const level of levelOrder(column.levels)) {
+      const row = rows.find((candidate) => candidate.column === column.column && candidate.value === column.levels[level]);
+      if (row) {
+        row.accounts = accounts[level];
+        row.unknown = unknown[level];
+      }
+    }
+  }
 }

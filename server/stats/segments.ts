@@ -3,7 +3,7 @@ import type { SegmentRow } from '@shared/report';
 import { pairedDelong } from './delong';
 import { levelOrder, type Holdout } from './holdout';
 import { holm } from './holm';
-import { blocksFromSorted, type ScoreBlocks } from './order';
+import { blocksFromSorted, type ScoreBlocks, weighBlocks } from './order';
 import { segmentFlags, tooFewBads } from './segment-flags';
 
 /**
@@ -16,6 +16,9 @@ import { segmentFlags, tooFewBads } from './segment-flags';
  * A segment with fewer bads than the policy's segment threshold is marked tooFewBads and left out
  * of the segment rule (its Gini moves a lot with a handful of accounts). A segment with one class
  * only has no Gini, and one with fewer than 2 goods or 2 bads no test; its row says why.
+ *
+ * Sampling weights (holdout.weight): each segment's Ginis and DeLong are the weighted ones
+ * (weighted-auc.ts, delong.ts); the engine passes the rows with a known outcome only.
  *
  * Cost: O(n) per segment column after the two whole-holdout sorts: each segment's blocks are the
  * whole holdout's blocks filtered, in one pass per model; then O(n) for DeLong.
@@ -75,6 +78,16 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
     for (let i = 0; i < holdout.n; i++) badByLevel[offsets[codes[i]] + levelAndLocal[2 * i + 1]] = bad[i];
     const champion = blocksByLevel(options.champion, levelAndLocal, offsets, levels);
     const challenger = blocksByLevel(options.challenger, levelAndLocal, offsets, levels);
+    const weight = holdout.weight ?? null;
+    if (weight !== null) {
+      const weightByLevel = new Float64Array(holdout.n);
+      for (let i = 0; i < holdout.n; i++) weightByLevel[offsets[codes[i]] + levelAndLocal[2 * i + 1]] = weight[i];
+      for (let level = 0; level < levels; level++) {
+        const local = weightByLevel.subarray(offsets[level], offsets[level + 1]);
+        champion[level] = weighBlocks(champion[level], local);
+        challenger[level] = weighBlocks(challenger[level], local);
+      }
+    }
 
     for (const level of levelOrder(column.levels)) {
       const n = size[level];

@@ -1,6 +1,6 @@
 import type { StrategyCurve } from '@shared/report';
 import { locateCutoff } from './cutoffs';
-import type { PreparedHoldout, PreparedModel } from './policy-data';
+import { accountsAt, knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 
 /**
  * Strategy curve: for approval rates 1%, 2%, …, 100% (and the report's approval rate), each
@@ -11,6 +11,8 @@ import type { PreparedHoldout, PreparedModel } from './policy-data';
  * challenger's), and the approvals the challenger gains at equal bad rate: the largest book the
  * challenger can approve (always whole blocks of equal scores) whose portfolio bad rate is at most
  * the champion's at that rate, minus the champion's book; null when no such book exists.
+ * With weights and applicants without an outcome: approval rates and approvals in accounts
+ * (summed weights), bad rates and bads of the accounts with a known outcome (policy-data.ts).
  * Common practice, no source.
  * Cost: O(points · log n) for the curve and O(distinct challenger scores) for the equal-bad-rate
  * search, on prepared data.
@@ -24,19 +26,22 @@ export function strategyCurve(data: PreparedHoldout, approvalRate: number): Stra
     rates.sort((x, y) => x - y);
   }
 
+  const { n } = data;
   const previous = { champion: { accepted: 0, bads: 0 }, challenger: { accepted: 0, bads: 0 } };
   const point = (model: PreparedModel, rate: number) => {
     const located = locateCutoff(model, { approvalRate: rate });
     const bads = data.bads - model.badsBefore[located.start];
+    // Accepted accounts with a known outcome (= accepted rows without weights or unknown rows).
+    const accepted = knownAt(model, n) - knownAt(model, located.start);
     const last = previous[model.name];
-    const added = located.accepted - last.accepted;
+    const added = accepted - last.accepted;
     const result = {
       cutoff: located.position.cutoff,
       achievedApprovalRate: located.position.approvalRate,
-      portfolioBadRate: located.accepted > 0 ? bads / located.accepted : null,
+      portfolioBadRate: accepted > 0 ? bads / accepted : null,
       marginalBadRate: added > 0 ? (bads - last.bads) / added : null,
     };
-    previous[model.name] = { accepted: located.accepted, bads };
+    previous[model.name] = { accepted, bads };
     return result;
   };
   const points = rates.map((rate) => ({
@@ -56,24 +61,31 @@ export function strategyCurve(data: PreparedHoldout, approvalRate: number): Stra
       championBads,
       challengerBads,
       badsAvoided: championBads - challengerBads,
-      approvalsGainedAtEqualBadRate: approvalsGained(data, champion.accepted, championBads),
+      approvalsGainedAtEqualBadRate: approvalsGained(data, champion.start, championBads),
     },
   };
 }
 
-/** Largest challenger book with bad rate ≤ championBads / championAccepted, minus championAccepted. */
-function approvalsGained(data: PreparedHoldout, championAccepted: number, championBads: number): number | null {
-  if (championAccepted === 0) return null;
+/**
+ * Largest challenger book with bad rate ≤ the champion's (known accounts), minus the champion's
+ * book, in accounts.
+ */
+function approvalsGained(data: PreparedHoldout, championStart: number, championBads: number): number | null {
   const { n } = data;
-  const { blockEnds, badsBefore } = data.challenger;
-  // Books are [start, n) for every block start; compare rates exactly in integers:
-  // bads / accepted ≤ championBads / championAccepted ⇔ bads · championAccepted ≤ championBads · accepted.
+  const championModel = data.champion;
+  const championAccepted = accountsAt(championModel, n) - accountsAt(championModel, championStart);
+  const championKnown = knownAt(championModel, n) - knownAt(championModel, championStart);
+  if (championAccepted === 0) return null;
+  const model = data.challenger;
+  const { blockEnds, badsBefore } = model;
+  // Books are [start, n) for every block start; compare rates exactly in integers (without weights):
+  // bads / known ≤ championBads / championKnown ⇔ bads · championKnown ≤ championBads · known.
   let best = -1;
   for (let b = 0; b < blockEnds.length && best < 0; b++) {
     const start = b === 0 ? 0 : blockEnds[b - 1];
-    const accepted = n - start;
+    const known = knownAt(model, n) - knownAt(model, start);
     const bads = data.bads - badsBefore[start];
-    if (bads * championAccepted <= championBads * accepted) best = accepted;
+    if (bads * championKnown <= championBads * known) best = accountsAt(model, n) - accountsAt(model, start);
   }
   return best < 0 ? null : best - championAccepted;
 }

@@ -3,6 +3,7 @@ import { locateCutoff, type LocatedCutoff } from './cutoffs';
 import { levelOrder } from './holdout';
 import type { PreparedHoldout } from './policy-data';
 import { swapTest } from './swap-test';
+import { weightedSwapSets } from './swap-sets-weighted';
 import { wilsonInterval } from './wilson';
 
 /**
@@ -16,6 +17,12 @@ import { wilsonInterval } from './wilson';
  * bad rate of what it approves, and the swap-in and swap-out cells, at the same cut-offs, values
  * in the order of the report's segment rows.
  * Common practice, no source.
+ *
+ * Weights and applicants without an outcome (swap-sets-weighted.ts): when the holdout has either,
+ * every cell also carries accounts (summed weights), known and unknown accounts, bads and the bad
+ * rate of the known accounts with Wilson's interval on the Kish effective size, the bounds
+ * [every unknown good, every unknown bad], and the inferred bad rate under the report's reject
+ * inference; without them the cells are exactly as before.
  * Cost: O(log n) to place the cut-offs, one O(n) pass over typed arrays on prepared data, and one
  * more per segment column.
  */
@@ -25,12 +32,18 @@ export type SwapRequest =
   | { basis: 'approval-rate'; approvalRate: number };
 
 // Cell index: bit 0 = champion accepts, bit 1 = challenger accepts.
-const BOTH_REJECT = 0;
-const SWAP_OUT = 1;
-const SWAP_IN = 2;
-const BOTH_ACCEPT = 3;
+export const BOTH_REJECT = 0;
+export const SWAP_OUT = 1;
+export const SWAP_IN = 2;
+export const BOTH_ACCEPT = 3;
 
 export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence: number): SwapSets {
+  const { champion, challenger } = locateBoth(data, request);
+  if (data.weight !== null || data.known !== null) return weightedSwapSets(data, request, champion, challenger, confidence);
+  return plainSwapSets(data, request, champion, challenger, confidence);
+}
+
+export function locateBoth(data: PreparedHoldout, request: SwapRequest): { champion: LocatedCutoff; challenger: LocatedCutoff } {
   let champion: LocatedCutoff;
   let challenger: LocatedCutoff;
   if (request.basis === 'cutoffs') {
@@ -40,7 +53,10 @@ export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence
     champion = locateCutoff(data.champion, { approvalRate: request.approvalRate });
     challenger = locateCutoff(data.challenger, { approvalRate: request.approvalRate });
   }
+  return { champion, challenger };
+}
 
+function plainSwapSets(data: PreparedHoldout, request: SwapRequest, champion: LocatedCutoff, challenger: LocatedCutoff, confidence: number): SwapSets {
   const { n, bad, exposure } = data;
   const a = data.champion.safety;
   const b = data.challenger.safety;

@@ -1,7 +1,9 @@
+import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } from '@shared/format';
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion, Report, SegmentRow, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
 import { segmentFlags, tooFewBads } from './segment-flags';
+import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
  * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
@@ -16,7 +18,7 @@ import { segmentFlags, tooFewBads } from './segment-flags';
  * significance and interval criteria are not met and say why, so the outcome is not-proven.
  * The segment criterion (on unless the policy version predates it) fails when a segment value with
  * enough bads is significantly worse (segment-flags.ts), and names those values here and in the
- * summary. Defaults and thresholds: DESIGN.md "Verdict" (materiality and minimum bads are common
+ * summary. Defaults and thresholds: docs/design.md "Verdict" (materiality and minimum bads are common
  * practice, no source). The criteria use the report's ΔGini interval at the report's confidence.
  *
  * A pure function of the report, the policy, and the swap sets at the policy's approval rate
@@ -73,7 +75,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
     id: 'materiality',
     label: 'Material uplift',
     met: material,
-    detail: `ΔGini = ${signedPoints(giniPoints, digits)} points, ${material ? 'at least' : 'below'} the ${required.toFixed(digits)} points required`,
+    detail: `ΔGini = ${signedPoints(giniPoints, digits)} points, ${material ? 'at least' : 'below'} the ${formatFixed(required, digits)} points required`,
   });
 
   if (policy.requireIntervalAboveZero) {
@@ -93,7 +95,11 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   }
 
   const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
-  if (policy.swapRule.enabled) criteria.push(swapCriterion(swap, policy.swapRule.approvalRate));
+  if (policy.swapRule.enabled) {
+    // Swap sets with applicants without an outcome: judged under the reject inference, and named so.
+    const unknowns = swap !== null && [swap.bothAccept, swap.swapIn, swap.swapOut, swap.bothReject].some((cell) => (cell.unknown ?? 0) > 0);
+    criteria.push(unknowns ? swapCriterionWithUnknowns(swap, policy, report.settings) : swapCriterion(swap, policy.swapRule.approvalRate));
+  }
 
   const enoughBads = report.bads >= policy.minBads;
   criteria.push({
@@ -186,28 +192,30 @@ function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
   if (!swap) {
     return { ...base, met: false, detail: `swap sets ${at} were not computed for this report, so the rule cannot be checked` };
   }
-  const { swapIn, swapOut, test } = swap;
+  const { swapOut, test } = swap;
+  const swapIn = swap.swapIn;
   if (swapIn.count === 0 && swapOut.count === 0) {
     return { ...base, met: true, detail: `${at} both models accept the same accounts: there is no swap-in and no swap-out` };
   }
   if (swapIn.count === 0) {
-    return { ...base, met: true, detail: `${at} there is no swap-in; the swap-out is ${group(swapOut.count, swapOut.badRate)}` };
+    return { ...base, met: true, detail: `${at} there is no swap-in; the swap-out is ${group(accountsOf(swapOut), swapOut.badRate)}` };
   }
   if (swapOut.count === 0) {
     return {
       ...base,
       met: false,
-      detail: `${at} there is no swap-out to compare the swap-in (${group(swapIn.count, swapIn.badRate)}) with`,
+      detail: `${at} there is no swap-out to compare the swap-in (${group(accountsOf(swapIn), swapIn.badRate)}) with`,
     };
   }
-  // swapIn.bads / swapIn.count ≤ swapOut.bads / swapOut.count, compared exactly in integers.
-  const met = swapIn.bads * swapOut.count <= swapOut.bads * swapIn.count;
+  // swapIn.bads / swapIn.count ≤ swapOut.bads / swapOut.count, compared exactly in integers
+  // (in accounts with weights: summed weights, every outcome known here).
+  const met = swapIn.bads * (swapOut.accounts ?? swapOut.count) <= swapOut.bads * (swapIn.accounts ?? swapIn.count);
   const testText =
     test.p === null ? '' : ` (two-sided ${pText(test.p)}, ${test.method === 'fisher-exact' ? "Fisher's exact test" : 'two-proportion z test'})`;
   return {
     ...base,
     met,
-    detail: `${at} the swap-in is ${group(swapIn.count, swapIn.badRate)} and the swap-out ${group(swapOut.count, swapOut.badRate)}: the swap-in bad rate is ${
+    detail: `${at} the swap-in is ${group(accountsOf(swapIn), swapIn.badRate)} and the swap-out ${group(accountsOf(swapOut), swapOut.badRate)}: the swap-in bad rate is ${
       met ? 'not above' : 'above'
     } the swap-out's${testText}`,
   };
@@ -217,9 +225,18 @@ function swapSummary(swap: SwapSets, rate: number): string {
   const at = `at the policy's ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;
   if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
-  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(swapIn.count)} with a ${rateText(swapIn.badRate)} bad rate`;
-  const outText = swapOut.count === 0 ? 'none' : `${count(swapOut.count)} with a ${rateText(swapOut.badRate)} bad rate`;
+  // Weighted holdouts: applicants (rounded), the bad rate of those with an outcome.
+  const inAccounts = Math.round(swapIn.accounts ?? swapIn.count);
+  const outAccounts = Math.round(swapOut.accounts ?? swapOut.count);
+  const known = (swapIn.unknown ?? 0) + (swapOut.unknown ?? 0) > 0 ? ' known' : '';
+  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(inAccounts)} with a ${rateText(swapIn.badRate)}${known} bad rate`;
+  const outText = swapOut.count === 0 ? 'none' : `${count(outAccounts)} with a ${rateText(swapOut.badRate)}${known} bad rate`;
   return `${at} it swaps in ${inText} for ${outText}`;
+}
+
+/** A swap cell's accounts: summed weights (rounded) with weights, else its rows. */
+function accountsOf(cell: SwapSets['swapIn']): number {
+  return Math.round(cell.accounts ?? cell.count);
 }
 
 function group(n: number, badRate: number | null): string {
@@ -230,55 +247,21 @@ function accounts(n: number): string {
   return `${count(n)} ${n === 1 ? 'account' : 'accounts'}`;
 }
 
-function count(n: number): string {
-  return n.toLocaleString('en-US');
-}
+const count = (n: number) => formatCount(n);
 
 function rateText(rate: number | null): string {
-  return rate === null ? 'undefined' : `${(rate * 100).toFixed(1)}%`;
+  return rate === null ? 'undefined' : formatPercent(rate);
 }
 
 /** 0.7 → "70%", 0.725 → "72.5%". */
-function percent(fraction: number): string {
-  return `${Number((fraction * 100).toFixed(1))}%`;
-}
+const percent = (fraction: number) => formatShare(fraction);
 
-function signedPoints(points: number, digits = 1): string {
-  const text = points.toFixed(digits);
-  return Number(text) === 0 ? (0).toFixed(digits) : text.replace('-', '−');
-}
+/** Gini points with a real minus sign, no "+": 4.1, −3.0, 0.0. */
+const signedPoints = (points: number, digits = 1) => formatFixed(points, digits);
 
 function unsignedPoints(points: number): string {
   return signedPoints(Math.abs(points));
 }
 
-const SUPERSCRIPT: Record<string, string> = {
-  '-': '⁻',
-  '0': '⁰',
-  '1': '¹',
-  '2': '²',
-  '3': '³',
-  '4': '⁴',
-  '5': '⁵',
-  '6': '⁶',
-  '7': '⁷',
-  '8': '⁸',
-  '9': '⁹',
-};
-
-/**
- * "p = 0.012", "p = 3.0 × 10⁻⁴" below 0.001, "p < 1 × 10⁻³⁰⁰" when it underflowed: the p-values in
- * the verdict's words and in the workflow e-mails.
- */
-export function pText(p: number): string {
-  if (p <= 0) return 'p < 1 × 10⁻³⁰⁰';
-  if (p < 0.001) {
-    const [mantissa, exponent] = p.toExponential(1).split('e');
-    const power = String(Number(exponent))
-      .split('')
-      .map((ch) => SUPERSCRIPT[ch])
-      .join('');
-    return `p = ${mantissa} × 10${power}`;
-  }
-  return `p = ${Number(p.toPrecision(2))}`;
-}
+/** "p = 0.012", "p = 3.0 × 10⁻⁴", "p < 1 × 10⁻³⁰⁰": shared/format.ts's rule for p-values in sentences. */
+const pText = (p: number) => formatPInWords(p);

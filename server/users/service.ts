@@ -9,6 +9,7 @@ import { inTransaction } from '../db/transaction';
 import { conflict, notFound } from '../errors';
 import { invitationMail } from '../mail/templates';
 import { normaliseRoles } from './present';
+import { now } from '../clock';
 
 /** People: the admin's rules for inviting, changing and deactivating them. */
 
@@ -30,7 +31,7 @@ export async function inviteUser(ctx: AppContext, actor: User, input: InviteInpu
       throw conflict(`${input.email} already has a Scorecourt account.`, { field: 'email' });
     }
     const created = await users.save(
-      users.create({ email: input.email, name: input.name, passwordHash: null, roles: normaliseRoles(input.roles), active: false, createdAt: new Date() }),
+      users.create({ email: input.email, name: input.name, passwordHash: null, roles: normaliseRoles(input.roles), active: false, createdAt: now() }),
     );
     const { token, expiresAt } = await issueToken(manager, created.id, 'invitation');
     await ctx.mailer.queue(

@@ -1,7 +1,7 @@
 import { Callout } from '@/components/callout';
 
 /**
- * The cautions DESIGN.md asks for wherever a decision is made: significance is not approval, a
+ * The cautions docs/design.md asks for wherever a decision is made: significance is not approval, a
  * new model changes who is approved and declined, and the institution's own rules come first.
  */
 export function DecisionCautions({ className, compact = false }: { className?: string; compact?: boolean }) {

@@ -1,7 +1,7 @@
 import { type Role } from '@shared/roles';
 
 /**
- * What each role lets a person do, in plain words (DESIGN.md, "Workflow and roles"). `summary` is
+ * What each role lets a person do, in plain words (docs/design.md, "Workflow and roles"). `summary` is
  * one line for forms that grant roles; `duties` lists the work for the welcome page.
  */
 export const roleGuide: Record<Role, { summary: string; duties: string[] }> = {

@@ -1,8 +1,9 @@
 import { MutationCache, QueryCache, QueryClient } from '@tanstack/react-query';
 import { ApiError } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** The query key of the signed-in person (lib/auth.ts); a 401 anywhere clears it. */
-export const meQueryKey = ['auth', 'me'] as const;
+export const meQueryKey = queryKeys.auth.me;
 
 function isClientError(error: unknown): boolean {
   return error instanceof ApiError && error.status >= 400 && error.status < 500;

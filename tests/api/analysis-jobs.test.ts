@@ -7,6 +7,7 @@ import { createLogger } from '@server/log';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
+import { analysisHandlers } from '@server/comparisons/analysis-handlers';
 
 /**
  * The analysis queue: restarts, dying workers, concurrency. Runs are real (the 2,000-row demo
@@ -28,7 +29,14 @@ afterAll(async () => {
 });
 
 function runner(options: Partial<JobRunnerOptions> = {}): JobRunner {
-  return new JobRunner({ dataSource: t.dataSource, databasePath: t.config.databasePath, concurrency: 1, log: createLogger('silent'), ...options });
+  return new JobRunner({
+    dataSource: t.dataSource,
+    databasePath: t.config.databasePath,
+    concurrency: 1,
+    log: createLogger('silent'),
+    handlers: analysisHandlers({ dataSource: t.dataSource }),
+    ...options,
+  });
 }
 
 /** Runs the test's work with the app's own queue stopped and `replacement` in its place. */

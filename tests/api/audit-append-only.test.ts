@@ -14,7 +14,8 @@ import { analysedComparison } from './helpers/governance';
  * The audit trail is append-only: calling every route of the registry, as anonymous and as every
  * role, on real comparisons (one decided, one analysed), adds events but never changes or removes
  * one; the database refuses UPDATE and DELETE; no server code writes to audit_events except by
- * inserting; and a changed event is reported by the chain check the API serves.
+ * inserting; and a changed event is reported by the chain checks the API serves (the full one,
+ * and the incremental one for the newest event).
  */
 
 let t: TestApp;
@@ -122,8 +123,33 @@ describe('the audit trail is append-only', () => {
     await t.dataSource.query('DROP TRIGGER "audit_events_no_update"');
     const decided = clean.events.find((event) => event.action === 'comparison.decided')!;
     await t.dataSource.query(`UPDATE "audit_events" SET "details" = ? WHERE "id" = ?`, [JSON.stringify({ ...decided.details, outcome: 'keep' }), decided.id]);
+    // Each audit call verifies only the events appended since the last verified one (the chain's
+    // head), so an edit to an old event is found by the full verification: at start-up, and the
+    // admin's action. After it, every trail reports the chain broken.
+    expect(await verifyAuditChain(t.dataSource)).toMatchObject({ ok: false, brokenAt: decided.id });
+    const refused = await analyst.post('/api/audit/verify', {});
+    expect(refused.status).toBe(403);
+    const admin = clients.get('admin')!;
+    await admin.signIn('admin@tallowmere.test');
+    const full = await admin.post('/api/audit/verify', {});
+    expect(full.status).toBe(200);
+    expect(full.body).toMatchObject({ ok: false, brokenAt: decided.id, reason: expect.stringMatching(/changed/) });
     const tampered = auditTrailSchema.parse((await analyst.get(`/api/comparisons/${decidedId}/audit`)).body);
     expect(tampered.chainValid).toBe(false);
-    expect(await verifyAuditChain(t.dataSource)).toMatchObject({ ok: false, brokenAt: decided.id });
+  });
+
+  it('notices at once an edit to the newest verified event, without a full verification', async () => {
+    const fresh = await buildTestApp();
+    try {
+      const modeler = await signedInAs(fresh.app, 'modeler');
+      const id = await analysedComparison(fresh, modeler, { name: 'Head' });
+      expect((await modeler.post(`/api/comparisons/${id}/notes`, { body: 'The newest event.' })).status).toBe(201);
+      expect(auditTrailSchema.parse((await modeler.get(`/api/comparisons/${id}/audit`)).body).chainValid).toBe(true);
+      await fresh.dataSource.query('DROP TRIGGER "audit_events_no_update"');
+      await fresh.dataSource.query(`UPDATE "audit_events" SET "details" = '{"body":"edited"}' WHERE "id" = (SELECT MAX("id") FROM "audit_events")`);
+      expect(auditTrailSchema.parse((await modeler.get(`/api/comparisons/${id}/audit`)).body).chainValid).toBe(false);
+    } finally {
+      await fresh.close();
+    }
   });
 });

@@ -23,6 +23,14 @@ describe('health', () => {
   });
 });
 
+describe('caching', () => {
+  it('marks every API answer no-store: successes, errors and unknown routes', async () => {
+    const client = await signedInAs(t.app, 'analyst');
+    const answers = { health: await request(t.app).get('/api/health'), list: await client.get('/api/comparisons'), me: await request(t.app).get('/api/auth/me'), unknown: await request(t.app).get('/api/nothing') };
+    for (const [name, response] of Object.entries(answers)) expect(response.headers['cache-control'], name).toBe('no-store');
+  });
+});
+
 describe('error shape', () => {
   it('answers an unknown API route with JSON 404, for GET and for mutations', async () => {
     const get = await request(t.app).get('/api/no-such-thing?x=1').expect(404);

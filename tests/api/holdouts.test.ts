@@ -97,6 +97,54 @@ describe('uploading a holdout', () => {
   });
 });
 
+describe('the preview', () => {
+  it('cuts long cells to 200 characters and keeps the whole preview within 64 KB (a file of 200 KB fields)', async () => {
+    // 21 rows of five 200,000-character fields: 20 MB of preview before the bound.
+    const field = (row: number, column: number) => `${row}-${column}-${'ü'.repeat(200_000)}`;
+    const lines = ['id,a,b,c,d', ...Array.from({ length: 21 }, (_, row) => Array.from({ length: 5 }, (_, column) => field(row, column)).join(','))];
+    const limited = await buildTestApp({ config: { uploadLimitMb: 64 } });
+    try {
+      const uploader = await signedInAs(limited.app, 'modeler');
+      const response = await uploadFile(uploader, lines.join('\n') + '\n', 'wide.csv');
+      expect(response.status, JSON.stringify(response.body).slice(0, 300)).toBe(201);
+      const holdout = holdoutSchema.parse(response.body);
+      const bytes = Buffer.byteLength(JSON.stringify(holdout.preview));
+      const unbounded = Buffer.byteLength(JSON.stringify(lines.slice(1, 21).map((line) => line.split(','))));
+      expect(bytes).toBeLessThanOrEqual(64 * 1024);
+      expect(holdout.preview.length).toBeGreaterThan(0);
+      for (const row of holdout.preview) {
+        expect(row).toHaveLength(5);
+        for (const cell of row) expect(cell.length).toBeLessThanOrEqual(200);
+      }
+      expect(holdout.preview[0][0]).toMatch(/^0-0-ü+…$/);
+      // What is stored is bounded too, not only the answer.
+      const [stored] = (await limited.dataSource.query('SELECT LENGTH(CAST("preview" AS BLOB)) AS n FROM "holdouts" WHERE "id" = ?', [holdout.id])) as { n: number }[];
+      console.log(`[preview] a file of 200,000-character fields: ${unbounded} bytes in its first 20 rows; preview stored ${stored.n} bytes, answered ${bytes} bytes in ${holdout.preview.length} rows`);
+      expect(stored.n).toBeLessThanOrEqual(64 * 1024);
+    } finally {
+      await limited.close();
+    }
+  }, 120_000);
+
+  it('shows the rows to modeler and analyst; other roles see the column names and kinds only', async () => {
+    const uploaded = holdoutSchema.parse((await uploadFile(modeler, sample2k(), 'roles.csv')).body);
+    for (const role of ['analyst'] as const) {
+      const seen = holdoutSchema.parse((await (await signedInAs(t.app, role)).get(`/api/holdouts/${uploaded.id}`)).body);
+      expect(seen.preview, role).toHaveLength(20);
+      expect(seen.previewWithheld).toBeUndefined();
+    }
+    for (const role of ['policy', 'committee', 'admin'] as const) {
+      const response = await (await signedInAs(t.app, role)).get(`/api/holdouts/${uploaded.id}`);
+      expect(response.status, role).toBe(200);
+      const seen = holdoutSchema.parse(response.body);
+      expect(seen.preview, role).toEqual([]);
+      expect(seen.previewWithheld, role).toBe(true);
+      expect(seen.columns.map((column) => column.name)).toEqual(uploaded.columns.map((column) => column.name));
+      expect(JSON.stringify(response.body)).not.toContain('TCC-25-000001');
+    }
+  });
+});
+
 describe('refused uploads leave nothing behind', () => {
   // Each case: the bytes, and what the 400 must name (the file's line number, header = line 1).
   const cases: { name: string; bytes: Buffer; row: number | null; message: RegExp }[] = [
@@ -166,6 +214,23 @@ describe('validating a mapping', () => {
     ]);
     for (const error of report.errors) expect(error.message).toMatch(new RegExp(`^row ${error.row}`));
     expect(report.errors[2].message).toBe('row 102 has 7 fields, the header has 9');
+  });
+
+  it('refuses repeated segment columns, or more than 10, at once (bounded work)', async () => {
+    const upload = await uploadFile(modeler, sample2k(), 'segments.csv');
+    const started = performance.now();
+    const repeated = await modeler.post(`/api/holdouts/${upload.body.id}/validate`, { mapping: { ...sampleMapping, segments: Array.from({ length: 100_000 }, () => 'channel') } });
+    const repeatedMs = performance.now() - started;
+    expect(repeated.status).toBe(400);
+    expect(repeated.body.error.message).toBe('mapping.segments: at most 10 segment columns');
+    const twice = await modeler.post(`/api/holdouts/${upload.body.id}/validate`, { mapping: { ...sampleMapping, segments: ['channel', 'product', 'channel'] } });
+    expect(twice.status).toBe(400);
+    expect(twice.body.error.message).toBe('mapping.segments: name each segment column at most once');
+    const created = await modeler.post('/api/comparisons', { name: 'Repeated segments', holdoutId: upload.body.id, mapping: { ...sampleMapping, segments: ['channel', 'channel'] } });
+    expect(created.status).toBe(400);
+    // Before the bound, 100,000 repeated columns took minutes to check on 2,000 rows.
+    console.log(`[segments] 100,000 repeated segment columns refused in ${Math.round(repeatedMs)} ms`);
+    expect(repeatedMs).toBeLessThan(20_000);
   });
 
   it('summarises a good mapping: rows, goods, bads, bad rate', async () => {

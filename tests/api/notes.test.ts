@@ -64,4 +64,50 @@ describe('notes', () => {
     expect(notes.map((event) => event.details.anchor)).toEqual(['discussion', 'discussion', 'swap-out']);
     expect(notes[2].details).toMatchObject({ body: 'Swap-out is mostly thin-file applicants.' });
   });
+
+  it('pages the notes and the audit trail (?after&limit → nextAfter), at most 500 a page', async () => {
+    for (let i = 1; i <= 7; i++) expect((await modeler.post(`/api/comparisons/${otherId}/notes`, { body: `Note ${i}` })).status).toBe(201);
+    const bodies: string[] = [];
+    const sizes: number[] = [];
+    let after: number | null = 0;
+    while (after !== null) {
+      const page = (await committee.get(`/api/comparisons/${otherId}/notes?after=${after}&limit=3`)).body as { notes: Note[]; nextAfter: number | null };
+      bodies.push(...page.notes.map((note) => note.body));
+      sizes.push(page.notes.length);
+      after = page.nextAfter;
+    }
+    expect(sizes).toEqual([3, 3, 1]);
+    expect(bodies).toEqual(['Note 1', 'Note 2', 'Note 3', 'Note 4', 'Note 5', 'Note 6', 'Note 7']);
+    const tooMany = await committee.get(`/api/comparisons/${otherId}/notes?limit=501`);
+    expect(tooMany.status).toBe(400);
+    expect(tooMany.body.error.message).toMatch(/limit: at most 500/);
+
+    const whole = (await committee.get(`/api/comparisons/${otherId}/audit?limit=500`)).body as { events: { id: number }[]; nextAfter: number | null };
+    expect(whole.nextAfter).toBeNull();
+    const paged: number[] = [];
+    let next: number | null = 0;
+    while (next !== null) {
+      const page = (await committee.get(`/api/comparisons/${otherId}/audit?after=${next}&limit=2`)).body as { events: { id: number }[]; nextAfter: number | null; chainValid: boolean };
+      expect(page.chainValid).toBe(true);
+      paged.push(...page.events.map((event) => event.id));
+      next = page.nextAfter;
+    }
+    expect(paged).toEqual(whole.events.map((event) => event.id));
+  });
+
+  it('stores a note with a lone surrogate the same in the note and in its audit record', async () => {
+    const raw = JSON.stringify({ body: 'Lone \ud800 and paired \ud83d\ude00 here' }).replace('\\ud800', '\\ud800');
+    const response = await committee.agent
+      .post(`/api/comparisons/${otherId}/notes`)
+      .set('X-CSRF-Token', committee.csrf ?? (await committee.fetchCsrf()))
+      .set('Content-Type', 'application/json')
+      .send(raw);
+    expect(response.status).toBe(201);
+    const note = noteSchema.parse(response.body);
+    expect(note.body).toBe('Lone \ufffd and paired \ud83d\ude00 here');
+    const [stored] = (await t.dataSource.query('SELECT "body" FROM "notes" WHERE "id" = ?', [note.id])) as { body: string }[];
+    const [event] = (await t.dataSource.query(`SELECT "details" FROM "audit_events" WHERE "action" = 'note.added' ORDER BY "id" DESC LIMIT 1`)) as { details: string }[];
+    expect(stored.body).toBe(note.body);
+    expect((JSON.parse(event.details) as { body: string }).body).toBe(stored.body);
+  });
 });

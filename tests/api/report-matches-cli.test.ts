@@ -8,17 +8,18 @@ import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { sampleDir, sampleMapping, uploadFile } from './helpers/holdouts';
 import { readFileSync } from 'node:fs';
+import { compiledEntry } from '../setup/compiled';
 
 /**
  * The API's report is the CLI's: the same file and settings through `server/cli/compare.ts --json`
- * (spawned, as a pipeline would run it) and through upload → comparison → analysis worker give
+ * (compiled and spawned, as a pipeline runs `npm run compare`) and through upload → comparison → analysis worker give
  * the same JSON, number for number.
  */
 
 const run = promisify(execFile);
 
 async function cli(args: string[]): Promise<unknown> {
-  const { stdout } = await run(process.execPath, ['--import', 'tsx', join(projectRoot, 'server/cli/compare.ts'), ...args, '--json'], {
+  const { stdout } = await run(process.execPath, [compiledEntry('server/cli/compare'), ...args, '--json'], {
     cwd: projectRoot,
     maxBuffer: 64 * 1024 * 1024,
   });

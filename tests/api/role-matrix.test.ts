@@ -14,7 +14,7 @@ import { TestClient, signedInAs } from './helpers/client';
  */
 
 /**
- * Who may call what, written out by hand from DESIGN.md ("Workflow and roles"). The registry must
+ * Who may call what, written out by hand from docs/design.md ("Workflow and roles"). The registry must
  * match it exactly: a new route, or a changed rule, fails here until this table says so too.
  */
 const intendedAccess: Record<string, string> = {
@@ -58,6 +58,8 @@ const intendedAccess: Record<string, string> = {
   'GET /policy': 'signed-in',
   'PUT /policy': 'admin',
   'GET /policy/versions': 'signed-in',
+  // The full verification of the audit chain (the routes above check only new events).
+  'POST /audit/verify': 'admin',
 };
 
 let t: TestApp;

@@ -3,9 +3,10 @@ import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { compiledEntry } from '../setup/compiled';
 
 /**
- * server/index.ts as `npm start` runs it (here through tsx, so no build is needed): an empty
+ * server/index.ts as `npm start` runs it (compiled, from this run's build: tests/setup/compile-once.ts): an empty
  * database is migrated and seeded, the URL and demo sign-ins are printed, SIGTERM stops it
  * cleanly, and a restart on the same database keeps the session. Only the demo people are added
  * here (DEMO_SCENARIO=false): tests/api/demo-seed.test.ts runs the demo scenario, and the browser
@@ -27,7 +28,7 @@ interface Running {
 }
 
 function start(): Promise<Running> {
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, [compiledEntry('server/index')], {
     env: { ...process.env, NODE_ENV: 'development', PORT: '0', DATABASE_PATH: join(directory, 'db.sqlite'), BCRYPT_COST: '4', SMTP_URL: '', LOG_LEVEL: 'warn', DEMO_SCENARIO: 'false' },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -61,14 +61,32 @@ describe('swap sets on demand', () => {
     });
   });
 
-  it('at given cut-offs, equal the swap sets of a report run with those cut-offs', async () => {
-    // An independent computation: a second comparison on the same holdout whose analysis worker
-    // builds its report with settings.cutoffs, against the first comparison's swap sets on demand.
+  it('at given cut-offs, count the accounts as a plain pass over the file does, and equal a report run with those cut-offs', async () => {
     const cutoffs = { champion: 600, challenger: 610 };
-    const second = await analysed(holdoutId, { bootstrap: 0, seed: 2, cutoffs });
-    expect(second.report.swap.basis).toBe('cutoffs');
     const response = await modeler.post(`/api/comparisons/${comparisonId}/swap`, { cutoffs });
     const result = swapResultSchema.parse(response.body);
+    // Independent of the engine: the 2×2 counted here row by row from the CSV text (both scores
+    // higher = safer, so a model approves at or above its cut-off), counts, bads and amounts.
+    const [header, ...lines] = sample2k().toString('utf8').trim().split('\n');
+    const column = (name: string) => header.split(',').indexOf(name);
+    const [championAt, challengerAt, badAt, amountAt] = ['champion_points', 'challenger_points', 'bad_12m', 'loan_amount'].map(column);
+    const counted = { bothAccept: [0, 0, 0], swapIn: [0, 0, 0], swapOut: [0, 0, 0], bothReject: [0, 0, 0] };
+    for (const line of lines) {
+      const cells = line.split(',');
+      const champion = Number(cells[championAt]) >= cutoffs.champion;
+      const challenger = Number(cells[challengerAt]) >= cutoffs.challenger;
+      const cell = counted[champion ? (challenger ? 'bothAccept' : 'swapOut') : challenger ? 'swapIn' : 'bothReject'];
+      cell[0] += 1;
+      cell[1] += cells[badAt] === '1' ? 1 : 0;
+      cell[2] += Number(cells[amountAt]);
+    }
+    for (const name of ['bothAccept', 'swapIn', 'swapOut', 'bothReject'] as const) {
+      expect([result.swap[name].count, result.swap[name].bads, result.swap[name].amount], name).toEqual(counted[name]);
+    }
+    // The same function on another path: a second comparison whose analysis worker builds its
+    // report with settings.cutoffs gives the same swap sets as the first one's on demand.
+    const second = await analysed(holdoutId, { bootstrap: 0, seed: 2, cutoffs });
+    expect(second.report.swap.basis).toBe('cutoffs');
     expect(result.swap).toEqual(second.report.swap);
     // Champion approves at 600 and above, the challenger at 610 and above (both higher = safer):
     // the 2×2 adds up to the holdout.

@@ -73,11 +73,26 @@ describe('SQLite session store', () => {
   });
 
   it('ignores and prunes expired sessions', async () => {
-    await call((cb) => store.set('old', sessionFor(new Date(Date.now() - 1000)), cb));
-    await call((cb) => store.set('new', sessionFor(new Date(Date.now() + 60_000)), cb));
+    await call((cb) => store.set('old', sessionFor(new Date(Date.now() - 1000), 1), cb));
+    await call((cb) => store.set('new', sessionFor(new Date(Date.now() + 60_000), 1), cb));
     expect(await call((cb) => store.get('old', cb))).toBeNull();
-    await call((cb) => store.set('old2', sessionFor(new Date(Date.now() - 1000)), cb));
+    await call((cb) => store.set('old2', sessionFor(new Date(Date.now() - 1000), 1), cb));
     expect(await store.prune()).toBe(1);
     expect(await call((cb) => store.get('new', cb))).not.toBeNull();
+  });
+
+  it('keeps sessions without a signed-in person in memory only, and moves a signed-out one out of the database', async () => {
+    const later = new Date(Date.now() + 60_000);
+    const rows = () => dataSource.getRepository(Session).count();
+    const before = await rows();
+    for (let i = 0; i < 100; i++) await call((cb) => store.set(`anonymous-${i}`, sessionFor(later), cb));
+    expect(await rows()).toBe(before);
+    expect(await call((cb) => store.get('anonymous-7', cb))).not.toBeNull();
+    await call((cb) => store.set('person', sessionFor(later, 1), cb));
+    expect(await rows()).toBe(before + 1);
+    await call((cb) => store.set('person', sessionFor(later), cb));
+    expect(await rows()).toBe(before);
+    await call((cb) => store.destroy('anonymous-7', cb));
+    expect(await call((cb) => store.get('anonymous-7', cb))).toBeNull();
   });
 });

@@ -5,6 +5,7 @@ import type { Express } from 'express';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
 import { closeApp, createApp } from '@server/app';
+import { analysisHandlers } from '@server/comparisons/analysis-handlers';
 import { loadConfig, type Config } from '@server/config';
 import { openDatabase } from '@server/db/data-source';
 import { MailMessage } from '@server/db/entities/index';
@@ -63,8 +64,7 @@ export async function buildTestApp(
     databasePath: config.databasePath,
     concurrency: config.analysisConcurrency,
     log,
-    mailer,
-    publicUrl: config.publicUrl,
+    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
     ...options.jobs,
   });
   await jobs.start();

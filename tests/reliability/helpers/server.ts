@@ -23,8 +23,11 @@ export interface CompiledServer {
   output: () => string;
   /** Sends the signal and waits for the process to end; resolves with its exit code or signal. */
   kill: (signal?: NodeJS.Signals) => Promise<{ code: number | null; signal: NodeJS.Signals | null }>;
-  /** Starts the server again on the same database and port (after kill or stop). */
-  restart: (env?: Record<string, string>) => Promise<void>;
+  /**
+   * Starts the server again on the same database and port (after kill or stop); `fileSizeLimitBytes`
+   * (null: none) caps every file the process writes, as a full disk would (ulimit -f).
+   */
+  restart: (env?: Record<string, string>, limits?: { fileSizeLimitBytes?: number | null }) => Promise<void>;
   /** SIGTERM (SIGKILL after 10 s) and, unless `keep`, removes the folder. */
   stop: (options?: { keep?: boolean }) => Promise<void>;
 }
@@ -35,6 +38,18 @@ export interface StartOptions {
   nodeArgs?: string[];
   dir?: string;
   timeoutMs?: number;
+  /**
+   * The largest file the server may write (RLIMIT_FSIZE through `ulimit -f`, with SIGXFSZ ignored
+   * so a write past it fails with EFBIG as on a full disk, instead of killing the process).
+   */
+  fileSizeLimitBytes?: number | null;
+}
+
+/** The command that starts node, under a file-size limit when one is given. */
+function command(args: string[], fileSizeLimitBytes: number | null | undefined): [string, string[]] {
+  if (fileSizeLimitBytes === null || fileSizeLimitBytes === undefined) return [process.execPath, args];
+  const quoted = [process.execPath, ...args].map((arg) => `'${arg.replaceAll("'", `'\\''`)}'`).join(' ');
+  return ['/bin/sh', ['-c', `trap '' XFSZ; ulimit -f ${Math.ceil(fileSizeLimitBytes / 512)} && exec ${quoted}`]];
 }
 
 function exited(child: ChildProcess): Promise<{ code: number | null; signal: NodeJS.Signals | null }> {
@@ -59,6 +74,8 @@ function baseEnv(port: number, databasePath: string, extra: Record<string, strin
     SERVE_CLIENT: 'false',
     // The demo people only, not the demo's comparisons (as the browser tests' server helper).
     DEMO_SCENARIO: 'false',
+    // The suites send thousands of changes as one person; the limit itself is tested in tests/api/write-limits.test.ts.
+    WRITES_PER_MINUTE: '1000000',
     ...extra,
   };
   for (const [key, value] of Object.entries(env)) if (value === undefined || value === '') delete env[key];
@@ -74,10 +91,12 @@ export async function startCompiled(options: StartOptions = {}): Promise<Compile
   let child: ChildProcess | null = null;
   const url = `http://127.0.0.1:${port}`;
   let env = options.env ?? {};
+  let fileSizeLimitBytes = options.fileSizeLimitBytes ?? null;
 
   const launch = async () => {
     log += `\n--- start (pid pending) ---\n`;
-    child = spawn(process.execPath, [...(options.nodeArgs ?? []), entry], { cwd: projectRoot, env: baseEnv(port, databasePath, env), stdio: ['ignore', 'pipe', 'pipe'] });
+    const [file, args] = command([...(options.nodeArgs ?? []), entry], fileSizeLimitBytes);
+    child = spawn(file, args, { cwd: projectRoot, env: baseEnv(port, databasePath, env), stdio: ['ignore', 'pipe', 'pipe'] });
     child.stdout?.on('data', (chunk: Buffer) => (log += chunk.toString()));
     child.stderr?.on('data', (chunk: Buffer) => (log += chunk.toString()));
     const deadline = Date.now() + (options.timeoutMs ?? 30_000);
@@ -112,8 +131,9 @@ export async function startCompiled(options: StartOptions = {}): Promise<Compile
       current.kill(signal);
       return exited(current);
     },
-    restart: async (extra) => {
+    restart: async (extra, limits) => {
       if (extra) env = { ...env, ...extra };
+      if (limits && limits.fileSizeLimitBytes !== undefined) fileSizeLimitBytes = limits.fileSizeLimitBytes;
       await launch();
     },
     stop: async ({ keep = false } = {}) => {

@@ -7,6 +7,7 @@ import { type ColumnMapping, type Report, reportSchema } from '@shared/report';
 import { parseCommand, runCompare, usage } from '@server/cli/compare';
 import { loadHoldout } from '@server/reader/load';
 import { buildReport } from '@server/stats/report';
+import { compiledEntry } from '../../setup/compiled';
 
 const root = new URL('../../../', import.meta.url).pathname;
 const demo = join(root, 'sample-data/tallowmere-holdout-2025-sample-2k.csv');
@@ -165,8 +166,8 @@ describe('compare CLI', () => {
     expect(report.rows).toBe(181);
   });
 
-  it('runs as a process: exit status 2 and no stack trace on bad input', () => {
-    const result = spawnSync(process.execPath, ['--import', 'tsx', join(root, 'server/cli/compare.ts'), broken, ...demoFlags], { encoding: 'utf8', cwd: root });
+  it('runs as a process (the compiled CLI, as `npm run compare` runs it): exit status 2 and no stack trace on bad input', () => {
+    const result = spawnSync(process.execPath, [compiledEntry('server/cli/compare'), broken, ...demoFlags], { encoding: 'utf8', cwd: root });
     expect(result.status).toBe(2);
     expect(result.stdout).toBe('');
     expect(result.stderr.trim().split('\n')).toHaveLength(1);

@@ -3,7 +3,7 @@ import { type ComparisonState } from '@shared/comparisons';
 import { type Role } from '@shared/roles';
 import { type NextStepInput, nextStep, nextSteps } from '@/features/comparisons/lib/next-step';
 
-// Expected steps follow DESIGN.md "Workflow and roles": draft → analysed (modeler submits) → in
+// Expected steps follow docs/design.md "Workflow and roles": draft → analysed (modeler submits) → in
 // review (analyst validates or returns) → validated (committee decides, never the creator) →
 // decided; returned goes back to the modeler.
 

@@ -64,7 +64,9 @@ describe('CSV cells', () => {
   it('escape text that a spreadsheet would run as a formula, and leave numbers as numbers', () => {
     // OWASP "CSV Injection": =, +, -, @, tab and carriage return start a formula.
     for (const text of ['=1+1', '+1', '-1+1', '@SUM(A1)', '\t=1', '\r=1']) expect(safeCell(text)).toBe(`'${text}`);
-    for (const text of ['plain', "'already", ' =1', '1-1', 'a=b']) expect(safeCell(text)).toBe(text);
+    for (const text of ['plain', "'already", '1-1', 'a=b', 'Ｘ＝1', '５']) expect(safeCell(text)).toBe(text);
+    // Look-alike and hidden starts: full-width ＝＋－＠, the small ﹦, the minus sign, blanks and invisible characters before.
+    for (const text of ['＝1+1', '＋1', '－1+1', '＠SUM(A1)', '﹦1', '−1+1', ' =1', '\u3000=1', '\u200b=1', '\ufeff=1', '\n=1']) expect(safeCell(text), JSON.stringify(text)).toBe(`'${text}`);
     expect(safeCell(-0.25)).toBe(-0.25);
     expect(safeCell(null)).toBe('');
     expect(safeCell(Number.NaN)).toBe('');

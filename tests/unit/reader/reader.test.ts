@@ -135,7 +135,9 @@ describe('bad input', () => {
   it('names an outcome outside the two values', async () => {
     const error = await failure('bad,champion,challenger\n0,600,0.1\n1,550,0.4\n2,500,0.2\n');
     expect(error.message).toBe('row 4, column "bad": "2" is neither the bad value "1" nor the good value "0"');
-    expect((await failure('bad,champion,challenger\n0,600,0.1\n,550,0.4\n')).message).toBe('row 3, column "bad": the outcome is empty');
+    expect((await failure('bad,champion,challenger\n0,600,0.1\n,550,0.4\n')).message).toBe(
+      'row 3, column "bad": the outcome is empty; applicants without an outcome can be kept with the keep-unknown option',
+    );
   });
 
   it('names a missing column and lists the columns found', async () => {
@@ -174,8 +176,8 @@ describe('bad input', () => {
     expect(error.message).toContain('is a quote left open?');
   });
 
-  it('refuses a sampling weight and an outcome mapped as a score', async () => {
-    expect((await failure(basic, { weight: 'w' })).code).toBe('unsupported_weight');
+  it('refuses a weight column that is not in the file and an outcome mapped as a score', async () => {
+    expect(await failure(basic, { weight: 'w' })).toMatchObject({ code: 'missing_column', column: 'w' });
     expect((await failure(basic, { champion: 'bad' })).code).toBe('same_column');
   });
 });

@@ -25,7 +25,7 @@ const pairedArbitrary = fc
 
 describe('paired DeLong', () => {
   it('gives Δ = 0, se = 0, z = 0, p = 1 (one-sided 0.5) for identical models', () => {
-    // DESIGN.md: identical models → Δ = 0, se = 0 → z = 0, p = 1; one-sided P(Z > 0) = 0.5.
+    // docs/design.md: identical models → Δ = 0, se = 0 → z = 0, p = 1; one-sided P(Z > 0) = 0.5.
     const scores = [1, 2, 2, 3, 5, 8, 8, 9];
     const bad = [1, 1, 0, 1, 0, 0, 1, 0];
     const result = run(scores, scores, bad);

@@ -116,7 +116,7 @@ describe('verdict', () => {
   });
 
   it('treats identical models as not proven, never as champion-better', () => {
-    // Δ = 0, se = 0 → z = 0, p = 1 (DESIGN.md numerical care).
+    // Δ = 0, se = 0 → z = 0, p = 1 (docs/design.md numerical care).
     const same = verdict(evidence({ gini: 0, ci: [0, 0], z: 0, pOne: 1, pTwo: 1 }), defaultAdoptionPolicy);
     expect(same.outcome).toBe('not-proven');
     expect(same.summary).toMatch(/^The challenger's Gini is the same as the champion's to one decimal \(95% interval 0\.0 to 0\.0, one-sided p = 1\)/);

@@ -19,6 +19,7 @@ import { reportQueryOptions, useReport } from '@/features/comparisons/api/get-re
 import { AnalysisFailed, AnalysisProgress } from '@/features/comparisons/components/analysis-progress';
 import { NextStepCallout } from '@/features/comparisons/components/next-step-callout';
 import { nextSteps } from '@/features/comparisons/lib/next-step';
+import { bodyShowsNextStep, comparisonPageState } from '@/features/comparisons/lib/page-state';
 import { stateLabel, stateTones, verdictLabels, verdictTones } from '@/features/comparisons/lib/state-tone';
 import { requireUser } from '@/app/guards';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
@@ -61,7 +62,12 @@ export function Component() {
 
   const latest = detail.runs[0] ?? null;
   const active = isRunActive(detail);
-  const hasReport = !!report.data;
+  const pageInput = {
+    comparison: detail,
+    active,
+    report: { loaded: !!report.data, pending: report.isPending, errorStatus: isApiError(report.error) ? report.error.status : null },
+  };
+  const state = comparisonPageState(pageInput);
   const steps = nextSteps({ state: detail.state, latestRun: latest, hasReport: detail.currentRunId !== null, createdById: detail.createdBy.id, authorIds: detail.authorIds, user });
   const actionFor = (target: NonNullable<typeof steps.primary.action>) => {
     const url = stepTargetUrl(target.target, id);
@@ -72,16 +78,15 @@ export function Component() {
     ) : null;
   };
   const isModeler = hasRole(user, 'modeler');
-  // With no report, the body's progress or failure panel is the next step: no second callout.
-  const bodySaysNextStep = !hasReport && (active || latest?.status === 'failed');
+  const bodySaysNextStep = bodyShowsNextStep(pageInput);
   // One verdict everywhere: the comparison's current verdict record (newest, or the decided one).
   const verdict = detail.verdict?.outcome ?? report.data?.verdict.outcome;
 
   let body;
-  if (hasReport) {
+  if (state.kind === 'report' && report.data) {
     body = (
       <>
-        {active && latest ? (
+        {state.newRunActive && latest ? (
           <Callout tone="info" title="A new analysis is running" className="mb-5">
             <p>
               {latest.stage ?? 'Working'} ({Math.round(latest.progress * 100)}%). These pages show the previous run until it finishes.
@@ -91,13 +96,13 @@ export function Component() {
         <Outlet context={{ comparison: detail, report: report.data } satisfies ComparisonPageContext} />
       </>
     );
-  } else if (active && latest) {
+  } else if (state.kind === 'running' && latest) {
     body = (
       <AnalysisProgress run={latest}>
-        {detail.currentRunId === null && detail.runs.length === 1 ? <Steps steps={wizardSteps} current="run" label="New comparison steps" /> : null}
+        {state.firstRun ? <Steps steps={wizardSteps} current="run" label="New comparison steps" /> : null}
       </AnalysisProgress>
     );
-  } else if (latest?.status === 'failed' && detail.currentRunId === null) {
+  } else if (state.kind === 'failed' && latest) {
     body = (
       <AnalysisFailed
         run={latest}
@@ -110,15 +115,15 @@ export function Component() {
         }
       />
     );
-  } else if (detail.runs.length === 0) {
+  } else if (state.kind === 'not-mapped') {
     body = (
       <Callout tone="info" title="No analysis yet">
         <p>The columns of this holdout have not been mapped yet. The evidence appears here once a modeler runs the analysis.</p>
       </Callout>
     );
-  } else if (report.isPending) {
+  } else if (state.kind === 'loading-report') {
     body = <LoadingState label="Loading the report…" variant="skeleton" />;
-  } else if (report.isError && isApiError(report.error) && report.error.status === 409) {
+  } else if (state.kind === 'no-finished-report') {
     body = (
       <Callout tone="info" title="No finished analysis yet" actions={<ButtonLink to={paths.comparisons.detail(id)} size="sm">Check again</ButtonLink>}>
         <p>The server has no finished report for this comparison yet.</p>

@@ -33,6 +33,7 @@ import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/comp
 import { scenariosQueryOptions, useScenarios } from '@/features/swap-sets/api/get-scenarios';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
+import { policyInOneSentence } from '@/features/policy/components/policy-words';
 
 export const loader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   const id = comparisonIdFrom(params);
@@ -184,12 +185,7 @@ export function Component() {
             nowrap={[1]}
             rows={verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail])}
           />
-          <p className="text-xs text-ink-soft">
-            Policy version {report.policy.version}: α = {report.policy.alpha} ({report.policy.sided}), materiality {report.policy.materialityGiniPoints} Gini
-            points, interval above zero {report.policy.requireIntervalAboveZero ? 'required' : 'not required'}, swap rule{' '}
-            {report.policy.swapRule.enabled ? `at a ${formatPercent(report.policy.swapRule.approvalRate, 1)} approval rate` : 'off'}, at least{' '}
-            {report.policy.minBads} bads, quorum {report.policy.quorum || 'none'}.
-          </p>
+          <p className="text-xs text-ink-soft">{policyInOneSentence(report.policy)}</p>
         </ReportBlock>
         <ReportBlock title="Verdict records" note="Every verdict given, newest first, each under the policy version it used; a stored verdict never changes.">
           <VerdictRecords comparisonId={id} records={g.verdicts} currentRunId={comparison.currentRunId} canReEvaluate={false} />

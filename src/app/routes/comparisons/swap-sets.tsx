@@ -23,7 +23,8 @@ import { SwapMatrixTable } from '@/features/swap-sets/components/swap-matrix-tab
 import { SwapSegmentsTable } from '@/features/swap-sets/components/swap-segments-table';
 import { SwapTable } from '@/features/swap-sets/components/swap-table';
 import { SwapTest } from '@/features/swap-sets/components/swap-test';
-import { reportSwapQuery, sameSwapQuery, swapQueryFromParams, swapQueryToParams } from '@/features/swap-sets/lib/swap-controls';
+import { reportSwapQuery, swapQueryFromParams } from '@/features/swap-sets/lib/swap-controls';
+import { isUpdating, needsServer, reportSwapResult, scenarioQuery, swapSearchParams } from '@/features/swap-sets/lib/swap-page';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
 
 /**
@@ -40,41 +41,27 @@ export function Component() {
   const fromReport = useMemo(() => reportSwapQuery(report.swap), [report.swap]);
   const [draft, setDraft] = useState<SwapQuery>(() => swapQueryFromParams(params) ?? fromReport);
   const settled = useDebounced(draft, 300);
-  const needsServer = !sameSwapQuery(settled, fromReport);
-  const swap = useSwap(comparison.id, comparison.currentRunId, needsServer ? settled : null);
+  const fromServer = needsServer(settled, fromReport);
+  const swap = useSwap(comparison.id, comparison.currentRunId, fromServer ? settled : null);
+  const updating = isUpdating({ draft, settled, fromReport, fetching: swap.isFetching });
   const [saving, setSaving] = useState(false);
   const [notice, setNotice] = useState<string | null>(null);
   const scenarios = useScenarios(comparison.id);
 
-  const reportResult: SwapResult = useMemo(
-    () => ({
-      swap: report.swap,
-      swapMatrix: report.swapMatrix,
-      strategyPosition: {
-        ...report.strategyCurve.atApprovalRate,
-        championApprovalRate: report.swap.champion.approvalRate,
-        challengerApprovalRate: report.swap.challenger.approvalRate,
-      },
-    }),
-    [report],
-  );
-  const result = needsServer ? swap.data : reportResult;
+  const reportResult: SwapResult = useMemo(() => reportSwapResult(report), [report]);
+  const result = fromServer ? swap.data : reportResult;
 
   const change = useCallback(
     (query: SwapQuery) => {
       setDraft(query);
       setNotice(null);
-      setParams(sameSwapQuery(query, fromReport) ? {} : swapQueryToParams(query), { replace: true, preventScrollReset: true });
+      setParams(swapSearchParams(query, fromReport), { replace: true, preventScrollReset: true });
     },
     [fromReport, setParams],
   );
-  const onShow = useCallback(
-    (scenario: Scenario) => change(scenario.approvalRate !== null ? { approvalRate: scenario.approvalRate } : { cutoffs: scenario.cutoffs }),
-    [change],
-  );
+  const onShow = useCallback((scenario: Scenario) => change(scenarioQuery(scenario)), [change]);
 
   const confidence = formatPercent(report.settings.confidence, 0);
-  const updating = !sameSwapQuery(draft, settled) || (needsServer && swap.isFetching);
   const hasAmount = !!report.mapping.exposure;
 
   return (
@@ -96,7 +83,7 @@ export function Component() {
             <>
               <Spinner className="size-4 text-court-500" /> Recomputing the swap sets…
             </>
-          ) : swap.isError && needsServer ? null : (
+          ) : swap.isError && fromServer ? null : (
             'Up to date.'
           )}
         </p>
@@ -108,7 +95,7 @@ export function Component() {
         </Alert>
       ) : null}
 
-      {needsServer && swap.isError ? (
+      {fromServer && swap.isError ? (
         <ErrorState title="The swap sets could not be recomputed" error={swap.error} onRetry={() => swap.refetch()} retrying={swap.isFetching} />
       ) : null}
 

@@ -3,6 +3,7 @@ import { type z } from 'zod';
 import { type User, type acceptTokenInputSchema, userResponseSchema } from '@shared/users';
 import { api } from '@/lib/api-client';
 import { useSignedIn } from '@/lib/auth';
+import { queryKeys } from '@/lib/query-keys';
 
 export type AcceptTokenInput = z.input<typeof acceptTokenInputSchema>;
 
@@ -20,7 +21,7 @@ export function useAcceptToken(token: string) {
       signedIn(user);
       // The link is spent: mark what it said as stale for the next visit, without refetching now
       // (a refetch would answer 410 and flash "link used" before the page moves on).
-      void queryClient.invalidateQueries({ queryKey: ['auth', 'tokens', token], refetchType: 'none' });
+      void queryClient.invalidateQueries({ queryKey: queryKeys.auth.token(token), refetchType: 'none' });
     },
   });
 }

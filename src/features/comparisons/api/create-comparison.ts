@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { type CreateComparisonInput, comparisonStateSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 const createdSchema = z.object({ id: z.number().int(), state: comparisonStateSchema });
 
@@ -17,6 +18,6 @@ export function useCreateComparison() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createComparison,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ['comparisons', 'list'] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.lists() }),
   });
 }

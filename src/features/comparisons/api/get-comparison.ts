@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type ComparisonDetail, comparisonDetailSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** GET /api/comparisons/:id → the comparison with its runs, newest first (any signed-in person). */
 export async function getComparison(id: number): Promise<ComparisonDetail> {
@@ -18,7 +19,7 @@ export const ANALYSIS_POLL_MS = 1000;
 
 export const comparisonQueryOptions = (id: number) =>
   queryOptions({
-    queryKey: ['comparisons', 'detail', id],
+    queryKey: queryKeys.comparisons.detail(id),
     queryFn: () => getComparison(id),
     refetchInterval: (query) => (isRunActive(query.state.data) ? ANALYSIS_POLL_MS : false),
     // A background tab keeps following the run, so the verdict is there when the person returns.

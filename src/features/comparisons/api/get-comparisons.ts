@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { type ComparisonList, type ListComparisonsQuery, comparisonListSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 export type ComparisonListParams = Pick<ListComparisonsQuery, 'page' | 'pageSize' | 'sort'> & Partial<Pick<ListComparisonsQuery, 'state' | 'q'>>;
 
@@ -17,7 +18,7 @@ const isActive = (list: ComparisonList | undefined) =>
 
 export const comparisonsQueryOptions = (params: ComparisonListParams) =>
   queryOptions({
-    queryKey: ['comparisons', 'list', params],
+    queryKey: queryKeys.comparisons.list(params),
     queryFn: () => getComparisons(params),
     placeholderData: keepPreviousData,
     // While an analysis in the list runs, its progress and headline numbers follow.

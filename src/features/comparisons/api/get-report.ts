@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type Report, reportSchema } from '@shared/report';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /**
  * GET /api/comparisons/:id/report → the Report of the comparison's current run; 409 while no run
@@ -12,7 +13,7 @@ export async function getReport(id: number): Promise<Report> {
 
 export const reportQueryOptions = (id: number, runId: number | null) =>
   queryOptions({
-    queryKey: ['comparisons', 'detail', id, 'report', runId],
+    queryKey: queryKeys.comparisons.report(id, runId),
     queryFn: () => getReport(id),
     enabled: runId !== null,
     staleTime: Infinity,

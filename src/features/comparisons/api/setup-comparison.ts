@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { type ComparisonDetail, type SetupComparisonInput, comparisonDetailSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /**
  * PUT /api/comparisons/:id/setup (modeler; draft, analysed or returned) { mapping, settings?,
@@ -15,8 +16,8 @@ export function useSetupComparison() {
   return useMutation({
     mutationFn: setupComparison,
     onSuccess: (detail) => {
-      queryClient.setQueryData(['comparisons', 'detail', detail.id], detail);
-      return queryClient.invalidateQueries({ queryKey: ['comparisons', 'list'] });
+      queryClient.setQueryData(queryKeys.comparisons.detail(detail.id), detail);
+      return queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.lists() });
     },
   });
 }

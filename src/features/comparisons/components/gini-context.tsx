@@ -2,7 +2,7 @@ import { type Report } from '@shared/report';
 import { formatGini } from '@/lib/format';
 
 /**
- * The usual reading of a Gini (DESIGN.md; common practice, no source): for application scoring
+ * The usual reading of a Gini (docs/design.md; common practice, no source): for application scoring
  * above roughly 50 is considered good; for behavioural scoring below roughly 60 is considered weak.
  */
 export function GiniContext({ report }: { report: Report }) {

@@ -4,7 +4,7 @@ import { workflowSteps } from '@shared/workflow';
 
 /**
  * The next step for the person looking at a comparison, from its state, its newest run and the
- * person's roles (DESIGN.md, "Workflow and roles"). Pure, so it is tested on its own. A person
+ * person's roles (docs/design.md, "Workflow and roles"). Pure, so it is tested on its own. A person
  * with several roles gets the step of the role that can act now; the others' steps are listed too.
  */
 

@@ -2,6 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { type z } from 'zod';
 import { type Note, type noteInputSchema, noteSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 type Input = z.input<typeof noteInputSchema>;
 
@@ -15,10 +16,10 @@ export function useAddNote(id: number) {
   return useMutation({
     mutationFn: (input: Input) => addNote({ id, ...input }),
     onSuccess: (note) => {
-      queryClient.setQueryData<Note[]>(['comparisons', 'detail', id, 'notes'], (notes) => (notes ? [...notes, note] : notes));
+      queryClient.setQueryData<Note[]>(queryKeys.comparisons.notes(id), (notes) => (notes ? [...notes, note] : notes));
       return Promise.all([
-        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'notes'] }),
-        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'audit'] }),
+        queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.notes(id) }),
+        queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.audit(id) }),
       ]);
     },
   });

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type Governance, governanceSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** GET /api/comparisons/:id/governance → state, reviews, the current round's votes, the decision, verdict records, quorum. */
 export async function getGovernance(id: number): Promise<Governance> {
@@ -8,7 +9,7 @@ export async function getGovernance(id: number): Promise<Governance> {
 }
 
 export const governanceQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['comparisons', 'detail', id, 'governance'], queryFn: () => getGovernance(id) });
+  queryOptions({ queryKey: queryKeys.comparisons.governance(id), queryFn: () => getGovernance(id) });
 
 export function useGovernance(id: number) {
   return useQuery(governanceQueryOptions(id));

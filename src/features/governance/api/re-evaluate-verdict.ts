@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { type VerdictRecord, verdictRecordSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** POST /api/comparisons/:id/verdicts (analyst, committee or admin): the current run under the current policy → a new verdict record. */
 export async function reEvaluateVerdict(id: number): Promise<VerdictRecord> {
@@ -13,8 +14,8 @@ export function useReEvaluateVerdict(id: number) {
     mutationFn: () => reEvaluateVerdict(id),
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'governance'] }),
-        queryClient.invalidateQueries({ queryKey: ['comparisons', 'detail', id, 'audit'] }),
+        queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.governance(id) }),
+        queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.audit(id) }),
       ]),
   });
 }

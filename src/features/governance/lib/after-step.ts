@@ -1,5 +1,6 @@
 import { type QueryClient } from '@tanstack/react-query';
 import { type Governance } from '@shared/governance';
+import { comparisonPart, queryKeys } from '@/lib/query-keys';
 
 /**
  * After a workflow step: the answer is the new governance state; everything else under the
@@ -7,12 +8,12 @@ import { type Governance } from '@shared/governance';
  * A step never changes a run's report, which keeps its cached copy.
  */
 export function afterStep(queryClient: QueryClient, id: number, governance: Governance): Promise<unknown> {
-  queryClient.setQueryData(['comparisons', 'detail', id, 'governance'], governance);
+  queryClient.setQueryData(queryKeys.comparisons.governance(id), governance);
   return Promise.all([
     queryClient.invalidateQueries({
-      queryKey: ['comparisons', 'detail', id],
-      predicate: (query) => query.queryKey[3] !== 'report' && query.queryKey[3] !== 'governance',
+      queryKey: queryKeys.comparisons.detail(id),
+      predicate: (query) => !['report', 'governance'].includes(comparisonPart(query.queryKey) ?? ''),
     }),
-    queryClient.invalidateQueries({ queryKey: ['comparisons', 'list'] }),
+    queryClient.invalidateQueries({ queryKey: queryKeys.comparisons.lists() }),
   ]);
 }

@@ -1,4 +1,5 @@
 import { type AuditEvent } from '@shared/governance';
+import { formatCount } from '@/lib/format';
 
 /**
  * An audit event in plain words for the timeline: what happened, and the details that matter.
@@ -48,7 +49,7 @@ export function auditSummary(event: AuditEvent): string | null {
   const d = event.details;
   switch (event.action) {
     case 'holdout.uploaded':
-      return [text(d.fileName), typeof d.rowCount === 'number' ? `${d.rowCount.toLocaleString('en-US')} rows` : null].filter(Boolean).join(', ') || null;
+      return [text(d.fileName), typeof d.rowCount === 'number' ? `${formatCount(d.rowCount)} rows` : null].filter(Boolean).join(', ') || null;
     case 'verdict.recorded':
       return `${outcomeWords[String(d.outcome)] ?? String(d.outcome)} under policy version ${String(d.policyVersion)}${d.reason === 're-evaluation' ? ' (re-evaluation)' : ''}, run ${String(d.runId)}`;
     case 'analysis.done':

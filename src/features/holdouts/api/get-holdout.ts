@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type HoldoutInfo, holdoutSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** GET /api/holdouts/:id → the holdout: columns, preview rows and the guessed mapping. */
 export async function getHoldout(id: number): Promise<HoldoutInfo> {
@@ -9,7 +10,7 @@ export async function getHoldout(id: number): Promise<HoldoutInfo> {
 
 export const holdoutQueryOptions = (id: number) =>
   // A stored holdout never changes.
-  queryOptions({ queryKey: ['holdouts', 'detail', id], queryFn: () => getHoldout(id), staleTime: Infinity });
+  queryOptions({ queryKey: queryKeys.holdouts.detail(id), queryFn: () => getHoldout(id), staleTime: Infinity });
 
 export function useHoldout(id: number) {
   return useQuery(holdoutQueryOptions(id));

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { type HoldoutInfo, holdoutSchema } from '@shared/comparisons';
 import { type UploadProgress, upload } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 export interface UploadHoldoutInput {
   file: File;
@@ -22,6 +23,6 @@ export function useUploadHoldout() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: uploadHoldout,
-    onSuccess: (holdout) => queryClient.setQueryData(['holdouts', 'detail', holdout.id], holdout),
+    onSuccess: (holdout) => queryClient.setQueryData(queryKeys.holdouts.detail(holdout.id), holdout),
   });
 }

@@ -16,7 +16,9 @@ const kindWords = { numeric: 'numbers', categorical: 'categories', text: 'text' 
 export function HoldoutPreviewTable({ holdout, roles }: { holdout: HoldoutInfo; roles: Record<string, string> }) {
   const rows = useMemo(() => holdout.preview.map((cells, index) => ({ line: index + 2, cells })), [holdout.preview]);
   const columns = useMemo(() => {
-    const list: ColumnDef<PreviewRow, string | number>[] = [
+    // Columns of different value types in one list, as DataTable takes them (`ColumnDef<T, any>`).
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any
+    const list: ColumnDef<PreviewRow, any>[] = [
       column.accessor('line', {
         header: 'Line',
         meta: { numeric: true, rowHeader: true, cellClassName: 'text-ink-soft font-normal' },

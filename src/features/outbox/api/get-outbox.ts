@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { outboxResponseSchema } from '@shared/users';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 export interface OutboxPage {
   /** 1-based page number. */
@@ -17,7 +18,7 @@ export async function getOutbox({ page, pageSize }: OutboxPage) {
 
 export const outboxQueryOptions = (params: OutboxPage) =>
   queryOptions({
-    queryKey: ['outbox', 'list', params],
+    queryKey: queryKeys.outbox.list(params),
     queryFn: () => getOutbox(params),
     // The outbox is a live log: always check on opening, and keep checking while mail is queued.
     staleTime: 0,

@@ -2,6 +2,7 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { z } from 'zod';
 import { type Scenario, scenarioSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 const scenariosResponseSchema = z.object({ scenarios: z.array(scenarioSchema) });
 
@@ -11,7 +12,7 @@ export async function getScenarios(id: number): Promise<Scenario[]> {
 }
 
 export const scenariosQueryOptions = (id: number) =>
-  queryOptions({ queryKey: ['comparisons', 'detail', id, 'scenarios'], queryFn: () => getScenarios(id) });
+  queryOptions({ queryKey: queryKeys.comparisons.scenarios(id), queryFn: () => getScenarios(id) });
 
 export function useScenarios(id: number) {
   return useQuery(scenariosQueryOptions(id));

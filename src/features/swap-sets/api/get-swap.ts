@@ -1,6 +1,7 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { type SwapQuery, type SwapResult, swapResultSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /**
  * POST /api/comparisons/:id/swap { cutoffs } | { approvalRate } → swap sets, swap matrix and the
@@ -13,7 +14,7 @@ export async function getSwap(id: number, query: SwapQuery, signal?: AbortSignal
 
 export const swapQueryOptions = (id: number, runId: number | null, query: SwapQuery | null) =>
   queryOptions({
-    queryKey: ['comparisons', 'detail', id, 'swap', runId, query],
+    queryKey: queryKeys.comparisons.swap(id, runId, query),
     queryFn: ({ signal }) => getSwap(id, query!, signal),
     enabled: query !== null && runId !== null,
     // Moving a slider keeps the last table on screen until the new one arrives.

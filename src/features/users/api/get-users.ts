@@ -1,13 +1,14 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { type User, usersResponseSchema } from '@shared/users';
 import { api } from '@/lib/api-client';
+import { queryKeys } from '@/lib/query-keys';
 
 /** GET /api/users → { users } (admin). */
 export async function getUsers(): Promise<User[]> {
   return (await api.get('/api/users', { schema: usersResponseSchema })).users;
 }
 
-export const usersQueryOptions = () => queryOptions({ queryKey: ['users', 'list'], queryFn: getUsers });
+export const usersQueryOptions = () => queryOptions({ queryKey: queryKeys.users.list(), queryFn: getUsers });
 
 export function useUsers() {
   return useQuery(usersQueryOptions());

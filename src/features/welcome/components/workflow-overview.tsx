@@ -1,7 +1,7 @@
 import { type Role, roleLabels } from '@shared/roles';
 import { StatusBadge } from '@/components/status-badge';
 
-// The life of a comparison (DESIGN.md, "Workflow and roles"): each state, and who moves it on.
+// The life of a comparison (docs/design.md, "Workflow and roles"): each state, and who moves it on.
 const steps: { state: string; what: string; actors: Role[] }[] = [
   { state: 'Draft', what: 'A holdout is uploaded and its columns are mapped to outcome, scores, segments and amounts.', actors: ['modeler'] },
   { state: 'Analysed', what: 'The analysis has run: Gini, AUC and KS of both models, the DeLong test, bootstrap intervals, swap sets and segments. The modeler submits it for review.', actors: ['modeler'] },

@@ -8,6 +8,7 @@ import {
   formatCount,
   formatDate,
   formatDateTime,
+  formatFixed,
   formatGini,
   formatGiniDelta,
   formatInterval,
@@ -15,15 +16,21 @@ import {
   formatKsDelta,
   formatMoney,
   formatNumber,
+  formatPInWords,
   formatPStatement,
   formatPValue,
   formatPercent,
   formatPercentPointsDelta,
   formatScore,
+  formatShare,
   formatSignedNumber,
-} from '@/lib/format';
+  iso,
+  isoDateTime,
+  isoOrNull,
+} from '@shared/format';
 
-// Expected strings are the project's own display rules (src/lib/format.ts header), worked by hand.
+// Expected strings are the project's own display rules (shared/format.ts header; docs/design.md,
+// "How numbers are written"), worked by hand.
 
 describe('missing values', () => {
   it('shows null, undefined, NaN and infinities as an em dash, never NaN', () => {
@@ -193,5 +200,59 @@ describe('dates and times', () => {
     expect(formatDate(null)).toBe(MISSING);
     expect(formatDate('not a date')).toBe(MISSING);
     expect(formatDateTime('')).toBe(MISSING);
+  });
+});
+
+// --- the rules the server uses too (shared/format.ts): sentences, settings, fixed decimals, ISO dates ---
+
+describe('p-values in sentences', () => {
+  it('writes two significant digits without trailing zeros, as the verdict and the e-mails do', () => {
+    // Computed by hand: 0.01834 → 0.018; 0.5 → "0.5" (not "0.50"); 0.996 rounds to 1.0 → "1".
+    expect(formatPInWords(0.01834)).toBe('p = 0.018');
+    expect(formatPInWords(0.5)).toBe('p = 0.5');
+    expect(formatPInWords(0.996)).toBe('p = 1');
+    expect(formatPInWords(1)).toBe('p = 1');
+  });
+
+  it('uses the same scientific notation and floor as the tables', () => {
+    expect(formatPInWords(0.0003)).toBe('p = 3.0 × 10⁻⁴');
+    expect(formatPInWords(4.1e-16)).toBe('p = 4.1 × 10⁻¹⁶');
+    expect(formatPInWords(0)).toBe('p < 1 × 10⁻³⁰⁰');
+    // A p computed as a tiny negative by rounding is an underflow, not "not a p-value".
+    expect(formatPInWords(-1e-320)).toBe('p < 1 × 10⁻³⁰⁰');
+  });
+
+  it('takes the number of significant digits and the trimming as a style', () => {
+    expect(formatPValue(0.04213, { significant: 2 })).toBe('0.042');
+    expect(formatPValue(0.5, { significant: 2 })).toBe('0.50');
+    expect(formatPValue(0.5, { significant: 2, trimZeros: true })).toBe('0.5');
+    expect(formatPStatement(0.0421)).toBe('p = 0.0421');
+  });
+});
+
+describe('settings given as shares, fixed decimals', () => {
+  it('writes a share without trailing zeros: 0.7 → 70%, 0.725 → 72.5%', () => {
+    expect(formatShare(0.7)).toBe('70%');
+    expect(formatShare(0.725)).toBe('72.5%');
+    expect(formatShare(0.05)).toBe('5%');
+    expect(formatShare(null)).toBe(MISSING);
+  });
+
+  it('writes fixed decimals with a real minus and no negative zero', () => {
+    expect(formatFixed(-5.2412, 3)).toBe(`${MINUS}5.241`);
+    expect(formatFixed(8.05249, 3)).toBe('8.052');
+    expect(formatFixed(-0.00004, 3)).toBe('0.000');
+    expect(formatFixed(0.71063, 4)).toBe('0.7106');
+  });
+});
+
+describe('ISO dates', () => {
+  it('writes dates in API bodies and files as ISO 8601 in UTC, null kept null', () => {
+    const date = new Date(Date.UTC(2025, 11, 3, 14, 5, 0, 120));
+    expect(iso(date)).toBe('2025-12-03T14:05:00.120Z');
+    expect(isoOrNull(date)).toBe('2025-12-03T14:05:00.120Z');
+    expect(isoOrNull(null)).toBeNull();
+    expect(isoDateTime('2025-12-03T14:05:00.120Z')).toBe('2025-12-03T14:05:00.120Z');
+    expect(isoDateTime('not a date')).toBeUndefined();
   });
 });
