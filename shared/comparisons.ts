@@ -2,6 +2,7 @@ import { z } from 'zod';
 import {
   analysisSettingsSchema,
   columnMappingSchema,
+  criterionSchema,
   higherIsSchema,
   intervalSchema,
   strategyCurveSchema,
@@ -183,12 +184,29 @@ export const comparisonHeadlineSchema = z.object({
   championGini: z.number(),
   challengerGini: z.number(),
   deltaGini: z.number(),
-  deltaGiniCi: intervalSchema,
-  pOneSided: z.number(),
-  pTwoSided: z.number(),
+  /** Null with fewer than 2 goods or 2 bads (no DeLong variance). */
+  deltaGiniCi: intervalSchema.nullable(),
+  pOneSided: z.number().nullable(),
+  pTwoSided: z.number().nullable(),
   verdict: verdictOutcomeSchema,
 });
 export type ComparisonHeadline = z.infer<typeof comparisonHeadlineSchema>;
+
+/**
+ * The verdict every page shows: the newest verdict record of the current run (after a decision,
+ * the one the decision was made on), with the policy version it was judged under. Older records
+ * are the history (GET …/governance). Null until a run is done.
+ */
+export const currentVerdictSchema = z.object({
+  id: z.number().int(),
+  runId: z.number().int(),
+  policyVersion: z.number().int(),
+  outcome: verdictOutcomeSchema,
+  criteria: z.array(criterionSchema),
+  summary: z.string(),
+  createdAt: z.string(),
+});
+export type CurrentVerdict = z.infer<typeof currentVerdictSchema>;
 
 export const comparisonSummarySchema = z.object({
   id: z.number().int(),
@@ -200,6 +218,7 @@ export const comparisonSummarySchema = z.object({
   holdout: z.object({ id: z.number().int(), fileName: z.string(), rowCount: z.number().int() }),
   latestRun: analysisRunSchema.pick({ id: true, status: true, progress: true, stage: true }).nullable(),
   headline: comparisonHeadlineSchema.nullable(),
+  verdict: currentVerdictSchema.nullable(),
 });
 export type ComparisonSummary = z.infer<typeof comparisonSummarySchema>;
 
@@ -286,6 +305,8 @@ export const scenarioSchema = z.object({
   swapOut: z.object({ count: z.number().int(), badRate: z.number().nullable() }),
   createdBy: personRefSchema,
   createdAt: z.string(),
+  /** Saved after the committee's decision: not part of what it saw. */
+  afterDecision: z.boolean().default(false),
 });
 export type Scenario = z.infer<typeof scenarioSchema>;
 

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { comparisonStateSchema } from './comparisons';
-import { adoptionPolicySchema } from './policy';
+import { adoptionPolicySchema, defaultSegmentRule, segmentRuleSchema } from './policy';
+import { mixedStrategyResultSchema, segmentValueRefSchema } from './mixed-strategy';
 import { criterionSchema, verdictOutcomeSchema } from './report';
 
 /**
@@ -44,7 +45,16 @@ export const decisionInputSchema = z.object({
   conditions: z.string().trim().max(20000).optional(),
   /** ISO date (YYYY-MM-DD) from which the decision applies. */
   effectiveDate: z.iso.date().optional(),
+  /**
+   * Deciding against the majority of the votes cast, or without the policy's quorum, needs this
+   * explicit acknowledgement and a rationale of at least MIN_RATIONALE_AGAINST_RECORD characters.
+   */
+  acknowledgeAgainstRecord: z.boolean().default(false),
+  /** Adopt except in these segment values, which keep the champion (outcome adopt only). */
+  keepChampion: z.array(segmentValueRefSchema).max(100).optional(),
 });
+/** The shortest rationale for a decision against the votes or without quorum (a real reason, not "x"). */
+export const MIN_RATIONALE_AGAINST_RECORD = 80;
 export type DecisionInput = z.infer<typeof decisionInputSchema>;
 
 export const reviewSchema = z.object({
@@ -72,6 +82,12 @@ export const decisionSchema = z.object({
   runId: z.number().int(),
   policyVersion: z.number().int(),
   createdAt: z.string(),
+  /** The counting votes when it was recorded; null for decisions recorded before tallies were kept. */
+  tally: z.record(voteChoiceSchema, z.number().int()).nullable().default(null),
+  /** The decider acknowledged deciding against the majority or without the quorum. */
+  acknowledgedAgainstRecord: z.boolean().default(false),
+  /** Adoption with exceptions: the mixed strategy as computed when it was decided. */
+  strategy: mixedStrategyResultSchema.nullable().default(null),
 });
 
 // --- verdict records ----------------------------------------------------------------------
@@ -101,6 +117,15 @@ export const governanceSchema = z.object({
   verdicts: z.array(verdictRecordSchema),
   quorum: z.number().int(),
   /**
+   * The adoption-policy version governing the review and decision: the one in force at the last
+   * submission (the current one before the first), with its quorum above.
+   */
+  policyVersion: z.number().int(),
+  /** The counting votes of the current round by choice. */
+  tally: z.record(voteChoiceSchema, z.number().int()),
+  /** The choice with strictly the most votes, or null (no votes, or a tie). */
+  majority: voteChoiceSchema.nullable(),
+  /**
    * The people who shaped the evidence — created the comparison, uploaded one of its holdouts or
    * set up one of its analyses. The four-eyes rule bars them from reviewing, voting on or deciding it.
    */
@@ -125,12 +150,17 @@ export const noteSchema = z.object({
   scenarioId: z.number().int().nullable(),
   author: personRefSchema,
   createdAt: z.string(),
+  /** Written after the committee's decision: not part of what it saw. */
+  afterDecision: z.boolean().default(false),
 });
 export type Note = z.infer<typeof noteSchema>;
 
 // --- adoption policy ----------------------------------------------------------------------
 /** GET /api/policy (signed in) → the current version; PUT (admin) with the fields but `version` → a new version. */
-export const policyInputSchema = adoptionPolicySchema.omit({ version: true });
+export const policyInputSchema = adoptionPolicySchema.omit({ version: true }).extend({
+  /** A new version gets the segment rule on unless the input says otherwise. */
+  segmentRule: segmentRuleSchema.default(defaultSegmentRule),
+});
 export type PolicyInput = z.infer<typeof policyInputSchema>;
 /** The body of PUT /api/policy: the new fields and why they change (kept with the version). */
 export const policyUpdateSchema = policyInputSchema.extend({

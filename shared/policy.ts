@@ -17,9 +17,15 @@ export const defaultPeriodSignRule = { enabled: false, minBads: 100 };
 /**
  * The adoption policy: the rules that turn a report's evidence into a recommendation.
  * Admin-editable and versioned on the server; the version is stored with every verdict.
- * Defaults: docs/design.md ("Verdict"). Materiality of 2 Gini points and 300 bads are common practice,
- * no source.
+ * Defaults: docs/design.md ("Verdict"). Materiality of 2 Gini points, 300 bads and a quorum of two
+ * committee votes are common practice, no source.
  */
+export const segmentRuleSchema = z.object({ enabled: z.boolean(), minBads: z.number().int().min(0) });
+export type SegmentRule = z.infer<typeof segmentRuleSchema>;
+
+/** The segment rule a new policy version gets when the input does not say: on, 30 bads (rule of thumb, no source). */
+export const defaultSegmentRule: SegmentRule = { enabled: true, minBads: 30 };
+
 export const adoptionPolicySchema = z.object({
   version: z.number().int().min(1),
   /** Significance level for the DeLong test of ΔGini. */
@@ -48,18 +54,27 @@ export const adoptionPolicySchema = z.object({
   calibrationRule: calibrationRuleSchema.default(defaultCalibrationRule),
   psiRule: psiRuleSchema.default(defaultPsiRule),
   periodSignRule: periodSignRuleSchema.default(defaultPeriodSignRule),
+  /**
+   * No segment value significantly worse: with the rule on, a segment value whose ΔGini is below 0
+   * with a Holm-adjusted two-sided DeLong p below α fails the verdict. Values with fewer than
+   * `minBads` bads are marked and left out of the rule. Versions stored before the rule existed
+   * have no such field and are read as the rule switched off, so their verdicts keep their meaning.
+   */
+  segmentRule: segmentRuleSchema.default({ enabled: false, minBads: 30 }),
 });
 export type AdoptionPolicy = z.infer<typeof adoptionPolicySchema>;
 
+/** The policy a new database starts with: version 2, written by the migrations (version 1 predates the segment rule). */
 export const defaultAdoptionPolicy: AdoptionPolicy = {
-  version: 1,
+  version: 2,
   alpha: 0.05,
   sided: 'one-sided',
   materialityGiniPoints: 2,
   requireIntervalAboveZero: true,
   swapRule: { enabled: true, approvalRate: 0.7 },
   minBads: 300,
-  quorum: 0,
+  quorum: 2,
+  segmentRule: defaultSegmentRule,
   calibrationRule: defaultCalibrationRule,
   psiRule: defaultPsiRule,
   periodSignRule: defaultPeriodSignRule,

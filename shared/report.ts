@@ -25,11 +25,11 @@ export type Interval = z.infer<typeof intervalSchema>;
 export const modelMetricsSchema = z.object({
   higherIs: higherIsSchema,
   auc: z.number(),
-  /** DeLong standard error of the AUC. */
-  aucSe: z.number(),
-  aucCi: intervalSchema,
+  /** DeLong standard error of the AUC; null with fewer than 2 goods or 2 bads (difference.inference says so). */
+  aucSe: z.number().nullable(),
+  aucCi: intervalSchema.nullable(),
   gini: z.number(),
-  giniCi: intervalSchema,
+  giniCi: intervalSchema.nullable(),
   ks: z.number(),
   /** The score (in the model's own units) at which the KS gap is reached. */
   ksScore: z.number(),
@@ -41,25 +41,31 @@ export type ModelMetrics = z.infer<typeof modelMetricsSchema>;
 export const differenceSchema = z.object({
   auc: z.number(),
   gini: z.number(),
-  /** DeLong standard error of ΔAUC: sqrt(V1 + V2 − 2C). */
-  se: z.number(),
-  giniSe: z.number(),
-  z: z.number(),
-  pTwoSided: z.number(),
+  /**
+   * DeLong standard error of ΔAUC: sqrt(V1 + V2 − 2C). This and the test and intervals below are
+   * null with fewer than 2 goods or 2 bads (no sample variance); `inference` then says why.
+   */
+  se: z.number().nullable(),
+  giniSe: z.number().nullable(),
+  z: z.number().nullable(),
+  pTwoSided: z.number().nullable(),
   /** One-sided p for H1: the challenger's AUC is higher. */
-  pOneSided: z.number(),
-  aucCi: intervalSchema,
-  giniCi: intervalSchema,
+  pOneSided: z.number().nullable(),
+  /** Δ ± z·se, clamped to the possible range ([−1, 1] for ΔAUC, [−2, 2] for ΔGini). */
+  aucCi: intervalSchema.nullable(),
+  giniCi: intervalSchema.nullable(),
   /** Bootstrap percentile interval of ΔGini, the cross-check on DeLong; null without bootstrap. */
   giniBootstrapCi: intervalSchema.nullable(),
   ks: z.number(),
   ksCi: intervalSchema.nullable(),
   /** DeLong covariance pieces, for audit: V(champion), V(challenger), C. */
-  varianceChampion: z.number(),
-  varianceChallenger: z.number(),
-  covariance: z.number(),
+  varianceChampion: z.number().nullable(),
+  varianceChallenger: z.number().nullable(),
+  covariance: z.number().nullable(),
   /** Correlation of the two AUC estimates, C / sqrt(V1·V2); null when a variance is 0. */
   correlation: z.number().nullable(),
+  /** Why the standard error, test and intervals are null (fewer than 2 goods or 2 bads); null otherwise. */
+  inference: z.string().nullable().default(null),
 });
 export type Difference = z.infer<typeof differenceSchema>;
 
@@ -279,6 +285,9 @@ export const bandTableSchema = z.object({
 });
 export type BandTable = z.infer<typeof bandTableSchema>;
 
+export const segmentFlagSchema = z.enum(['significantly-worse', 'materially-worse']);
+export type SegmentFlag = z.infer<typeof segmentFlagSchema>;
+
 export const segmentRowSchema = z.object({
   column: z.string(),
   value: z.string(),
@@ -294,11 +303,24 @@ export const segmentRowSchema = z.object({
   challengerGini: z.number().nullable(),
   deltaGini: z.number().nullable(),
   giniSe: z.number().nullable(),
-  /** DeLong p for the segment, with the same sidedness as the adoption policy. */
+  /**
+   * Two-sided DeLong p for the segment (harm and benefit alike can be significant). Reports of
+   * engines before 1.2 held the p in the policy's sidedness here.
+   */
   p: z.number().nullable(),
-  /** Holm-adjusted p across every segment row of the report. */
+  /** Two-sided DeLong p (the same as `p` since engine 1.2); null before. */
+  pTwoSided: z.number().nullable().default(null),
+  /** ΔGini ± z·se at the report's confidence (clamped to [−2, 2]); null without a test. */
+  giniCi: intervalSchema.nullable().default(null),
+  /** Holm-adjusted two-sided p across every segment row of the report that has a test. */
   pHolm: z.number().nullable(),
+  /** Fewer bads than the policy's segment threshold: marked, and left out of the segment rule. */
   tooFewBads: z.boolean(),
+  /**
+   * significantly-worse: Holm-adjusted two-sided p < α with ΔGini < 0; materially-worse:
+   * ΔGini ≤ −materiality. Under the report's policy; a value with too few bads gets none.
+   */
+  flags: z.array(segmentFlagSchema).default([]),
   /** Why a value is null (one class only, …); null when everything is defined. */
   note: z.string().nullable(),
 });
@@ -364,7 +386,7 @@ export const verdictOutcomeSchema = z.enum(['supported', 'not-proven', 'champion
 export type VerdictOutcome = z.infer<typeof verdictOutcomeSchema>;
 
 export const criterionSchema = z.object({
-  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads', 'calibration', 'psi', 'period-sign']),
+  id: z.enum(['significance', 'materiality', 'interval', 'swap-bad-rate', 'minimum-bads', 'segments', 'calibration', 'psi', 'period-sign']),
   label: z.string(),
   met: z.boolean(),
   /** Plain-language reason with the numbers, e.g. "one-sided p = 0.0003 < α = 0.05". */

@@ -256,7 +256,7 @@ const points = (value: number) => formatGini(value);
 const signed = (value: number, digits = 1) => formatSignedNumber(value * 100, digits);
 const range = (ci: [number, number] | null, format: (v: number) => string) => (ci === null ? MISSING : `[${format(ci[0])}, ${format(ci[1])}]`);
 const int = (value: number) => formatCount(value);
-const pStatement = (p: number) => formatPStatement(p);
+const pStatement = (p: number | null) => formatPStatement(p);
 const pad = (text: string, width: number) => text.padEnd(width);
 
 export function summary(report: Report): string {
@@ -290,7 +290,8 @@ export function summary(report: Report): string {
     `  ΔGini ${signed(difference.gini, 2)}, ${level} CI ${range(difference.giniCi, (v) => signed(v, 2))} (DeLong)` +
       (difference.giniBootstrapCi ? `, ${range(difference.giniBootstrapCi, (v) => signed(v, 2))} (bootstrap, ${int(report.bootstrap.replicates)} replicates, seed ${report.bootstrap.seed})` : ', bootstrap skipped'),
   );
-  lines.push(`  DeLong z = ${formatFixed(difference.z, 3)}, one-sided ${pStatement(difference.pOneSided)} (challenger better), two-sided ${pStatement(difference.pTwoSided)}`);
+  if (difference.inference) lines.push(`  No DeLong test or interval: ${difference.inference}`);
+  lines.push(`  DeLong z = ${difference.z === null ? MISSING : formatFixed(difference.z, 3)}, one-sided ${pStatement(difference.pOneSided)} (challenger better), two-sided ${pStatement(difference.pTwoSided)}`);
   lines.push(`  ΔKS ${signed(difference.ks, 2)}${difference.ksCi ? `, ${level} CI ${range(difference.ksCi, (v) => signed(v, 2))} (bootstrap)` : ''}`);
   lines.push('');
   const basis =

@@ -1,10 +1,11 @@
 import { In, type DataSource, type EntityManager } from 'typeorm';
-import { AnalysisRun, Holdout, type Comparison } from '../db/entities/index';
+import { AnalysisRun, AuditEvent, Holdout, type Comparison } from '../db/entities/index';
 
 /**
  * The ids of the people who shaped a comparison's evidence: its creator, the uploader of its
- * holdout and of every holdout one of its runs used, and whoever set up one of its runs. The
- * four-eyes rule keeps each of them from reviewing, voting on or deciding it.
+ * holdout and of every holdout one of its runs used, whoever set up one of its runs, and whoever
+ * submitted it for review (their `comparison.submitted` audit events). The four-eyes rule keeps
+ * each of them from reviewing, voting on or deciding it.
  */
 export async function authorsOf(
   source: DataSource | EntityManager,
@@ -30,5 +31,9 @@ export async function authorsOf(
     const holdouts = await source.getRepository(Holdout).find({ where: { id: In([...holdoutIds]) }, select: { id: true, uploadedById: true } });
     for (const holdout of holdouts) authors.add(holdout.uploadedById);
   }
+  const submitters = await source
+    .getRepository(AuditEvent)
+    .find({ where: { targetType: 'comparison', targetId: String(comparison.id), action: 'comparison.submitted' }, select: { id: true, actorId: true } });
+  for (const event of submitters) if (event.actorId !== null) authors.add(event.actorId);
   return authors;
 }

@@ -1,5 +1,5 @@
 import { isoOrNull } from '@shared/format';
-import type { AnalysisRun as AnalysisRunBody, ComparisonDetail, ComparisonSummary } from '@shared/comparisons';
+import type { AnalysisRun as AnalysisRunBody, ComparisonDetail, ComparisonSummary, CurrentVerdict } from '@shared/comparisons';
 import type { AnalysisRun, Comparison } from '../db/entities/index';
 
 /** Comparisons and runs as the API shows them (shared/comparisons.ts). Relations `createdBy` and `holdout` must be loaded. */
@@ -20,7 +20,12 @@ export function presentRun(run: AnalysisRun): AnalysisRunBody {
   };
 }
 
-export function presentSummary(comparison: Comparison, latestRun: AnalysisRun | null, currentRun: AnalysisRun | null): ComparisonSummary {
+export function presentSummary(
+  comparison: Comparison,
+  latestRun: AnalysisRun | null,
+  currentRun: AnalysisRun | null,
+  verdict: CurrentVerdict | null,
+): ComparisonSummary {
   return {
     id: comparison.id,
     name: comparison.name,
@@ -31,13 +36,14 @@ export function presentSummary(comparison: Comparison, latestRun: AnalysisRun | 
     holdout: { id: comparison.holdout.id, fileName: comparison.holdout.fileName, rowCount: comparison.holdout.rowCount },
     latestRun: latestRun ? { id: latestRun.id, status: latestRun.status, progress: latestRun.progress, stage: latestRun.stage } : null,
     headline: currentRun?.headline ?? null,
+    verdict,
   };
 }
 
 /** `runs` newest first. */
-export function presentDetail(comparison: Comparison, runs: AnalysisRun[], authors: ReadonlySet<number>): ComparisonDetail {
+export function presentDetail(comparison: Comparison, runs: AnalysisRun[], authors: ReadonlySet<number>, verdict: CurrentVerdict | null): ComparisonDetail {
   const current = runs.find((run) => run.status === 'done') ?? null;
-  const summary = presentSummary(comparison, runs[0] ?? null, current);
+  const summary = presentSummary(comparison, runs[0] ?? null, current, verdict);
   return {
     ...summary,
     description: comparison.description,

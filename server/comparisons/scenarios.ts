@@ -22,6 +22,7 @@ export function presentScenario(scenario: CutoffScenario): Scenario {
     swapOut: { count: scenario.swap.swapOut.count, badRate: scenario.swap.swapOut.badRate },
     createdBy: { id: scenario.createdBy.id, name: scenario.createdBy.name },
     createdAt: scenario.createdAt.toISOString(),
+    afterDecision: scenario.afterDecision,
   };
 }
 
@@ -42,6 +43,7 @@ export async function saveScenario(ctx: AppContext, actor: User, comparisonId: n
   const request = swapRequestOf(input);
   const { swap } = swapAt(entry, request);
   const id = await inTransaction(ctx.dataSource, async (manager) => {
+    const { state } = await findComparison(manager, comparisonId);
     const saved = await manager.save(
       manager.create(CutoffScenario, {
         comparisonId,
@@ -54,6 +56,8 @@ export async function saveScenario(ctx: AppContext, actor: User, comparisonId: n
         swap,
         createdById: actor.id,
         createdAt: now(),
+        // After the decision the record is closed: a later scenario is kept, marked as such.
+        afterDecision: state === 'decided',
       }),
     );
     await recordAudit(manager, {

@@ -16,8 +16,10 @@ import { inTransaction } from '../db/transaction';
 import { conflict, notFound } from '../errors';
 import type { EncodedColumn } from '../holdouts/columns';
 import { findHoldout, mapHoldout, mapReference } from '../holdouts/service';
+import { currentVerdict, currentVerdicts } from './current-verdict';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
+import { setupStates } from '@shared/workflow';
 import { requireState, transition } from './state';
 
 /**
@@ -29,7 +31,7 @@ import { requireState, transition } from './state';
  */
 
 /** States from which a modeler may change the mapping or settings (a new run starts). */
-export const setupStates: readonly ComparisonState[] = ['draft', 'analysed', 'returned'];
+export { setupStates } from '@shared/workflow';
 
 /** The mapping in the form the CLI builds it, so that the stored report equals the CLI's. */
 export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
@@ -238,7 +240,13 @@ export async function setupComparison(ctx: AppContext, actor: User, id: number, 
     await transition(manager, id, setupStates, 'draft', {
       actor,
       action: 'comparison.setup',
-      details: { ...auditMapping(prepared), runId: run.id, supersededRunIds: superseded.map((r) => r.id) },
+      details: {
+        ...auditMapping(prepared),
+        runId: run.id,
+        supersededRunIds: superseded.map((r) => r.id),
+        // A set-up by another modeler than the creator is recorded and named as such (issue 13).
+        ...(actor.id !== comparison.createdById ? { byOtherThanCreator: { id: actor.id, name: actor.name }, creator: { id: comparison.createdBy.id, name: comparison.createdBy.name } } : {}),
+      },
     });
   });
   ctx.jobs.kick();
@@ -270,7 +278,7 @@ export async function getComparisonDetail(source: DataSource | EntityManager, id
       referenceHoldoutId: true,
     },
   });
-  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs));
+  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs), await currentVerdict(source, id));
 }
 
 const sortSql: Record<ListComparisonsQuery['sort'], string> = {
@@ -330,9 +338,10 @@ export async function listComparisons(source: DataSource, query: ListComparisons
         })
       : [];
   const byId = new Map(comparisons.map((comparison) => [comparison.id, comparison]));
+  const verdicts = await currentVerdicts(source, ids);
   const items = ids.map((id) => {
     const mine = runs.filter((run) => run.comparisonId === id).sort((a, b) => b.id - a.id);
-    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null);
+    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null, verdicts.get(id) ?? null);
   });
   return { items, total, page: query.page, pageSize: query.pageSize };
 }

@@ -53,7 +53,7 @@ export function analystFindings(report: Report): string {
   const quality = report.dataQuality;
   return [
     `Validated on the full 2025 out-of-time holdout: ${count(report.rows)} accounts, ${count(report.bads)} bads (bad rate ${percent(report.badRate, 2)}).`,
-    `Discrimination. Challenger Gini ${gini(challenger.gini)} against ${gini(champion.gini)} for the champion: ΔGini ${signed(difference.gini)} points, 95% interval ${signed(difference.giniCi[0])} to ${signed(difference.giniCi[1])} (DeLong, one-sided ${pText(difference.pOneSided)}). ` +
+    `Discrimination. Challenger Gini ${gini(challenger.gini)} against ${gini(champion.gini)} for the champion: ΔGini ${signed(difference.gini)} points, 95% interval ${signed(difference.giniCi![0])} to ${signed(difference.giniCi![1])} (DeLong, one-sided ${pText(difference.pOneSided!)}). ` +
       (difference.giniBootstrapCi
         ? `The paired bootstrap (${count(report.bootstrap.replicates)} replicates) gives ${signed(difference.giniBootstrapCi[0])} to ${signed(difference.giniBootstrapCi[1])}, in line with DeLong. `
         : '') +
@@ -125,7 +125,7 @@ export const votes = {
 export function decision(report: Report): { rationale: string; conditions: string } {
   return {
     rationale:
-      `The challenger separates good from bad borrowers better on the 2025 out-of-time holdout (ΔGini ${signed(report.difference.gini)} points, DeLong one-sided ${pText(report.difference.pOneSided)}), ` +
+      `The challenger separates good from bad borrowers better on the 2025 out-of-time holdout (ΔGini ${signed(report.difference.gini)} points, DeLong one-sided ${pText(report.difference.pOneSided!)}), ` +
       'consistently across months and products, and at our 70% approval rate it swaps in a book with a lower bad rate than the one it swaps out. Validation found one weakness, brokered cards, which the conditions address.',
     conditions: [
       '1. Brokered credit-card applications (product credit-card, channel broker) keep the champion’s decision until the broker cash-flow feed is replaced by verified bank-statement data and a re-run shows the challenger at least level there.',

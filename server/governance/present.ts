@@ -4,6 +4,15 @@ import { iso, personRef } from './people';
 
 /** Entities → API bodies (shared/governance.ts). Relations named here must be loaded. */
 
+/**
+ * A person as named on a record: the name stored with the record when it was written (a later
+ * rename does not rewrite history); records written before names were stored fall back to the
+ * person's current name.
+ */
+export function atTheTime(person: { id: number; name: string }, storedName: string | null): { id: number; name: string } {
+  return { id: person.id, name: storedName ?? personRef(person).name };
+}
+
 export const voteChoices = voteChoiceSchema.options;
 
 export function presentReview(review: Review): Governance['reviews'][number] {
@@ -11,14 +20,14 @@ export function presentReview(review: Review): Governance['reviews'][number] {
     id: review.id,
     outcome: review.outcome,
     findings: review.findings,
-    reviewer: personRef(review.reviewer),
+    reviewer: atTheTime(review.reviewer, review.reviewerName),
     runId: review.runId,
     createdAt: iso(review.createdAt),
   };
 }
 
 export function presentVote(vote: Vote): Governance['votes'][number] {
-  return { id: vote.id, vote: vote.vote, comment: vote.comment, voter: personRef(vote.voter), createdAt: iso(vote.createdAt) };
+  return { id: vote.id, vote: vote.vote, comment: vote.comment, voter: atTheTime(vote.voter, vote.voterName), createdAt: iso(vote.createdAt) };
 }
 
 export function presentDecision(decision: Decision): NonNullable<Governance['decision']> {
@@ -28,10 +37,13 @@ export function presentDecision(decision: Decision): NonNullable<Governance['dec
     rationale: decision.rationale,
     conditions: decision.conditions,
     effectiveDate: decision.effectiveDate,
-    decidedBy: personRef(decision.decidedBy),
+    decidedBy: atTheTime(decision.decidedBy, decision.decidedByName),
     runId: decision.runId,
     policyVersion: decision.policyVersion,
     createdAt: iso(decision.createdAt),
+    tally: decision.tally,
+    acknowledgedAgainstRecord: decision.acknowledgedAgainstRecord,
+    strategy: decision.strategy,
   };
 }
 

@@ -15,7 +15,7 @@ export async function authorRefs(source: Source, authors: ReadonlySet<number>): 
 export function forbidOwn(authors: ReadonlySet<number>, user: { id: number }, step: 'review' | 'vote on' | 'decide'): void {
   if (authors.has(user.id)) {
     throw forbidden(
-      `You created this comparison, uploaded its holdout or set up one of its analyses, so you cannot ${step} it: someone else must (four-eyes rule).`,
+      `You created this comparison, uploaded one of its holdouts, set up one of its analyses or submitted it, so you cannot ${step} it: someone else must (four-eyes rule).`,
     );
   }
 }

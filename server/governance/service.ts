@@ -1,5 +1,7 @@
-import type { DecisionInput, Governance, ReviewInput, VoteInput } from '@shared/governance';
-import type { EntityManager } from 'typeorm';
+import { MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, type DecisionInput, type Governance, type ReviewInput, type VoteChoice, type VoteInput } from '@shared/governance';
+import type { ComparisonState } from '@shared/comparisons';
+import { actingRoles, workflowSteps } from '@shared/workflow';
+import { In, type EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { authorsOf } from '../comparisons/authors';
@@ -7,13 +9,13 @@ import { creatorOf } from '../comparisons/people';
 import { findComparison } from '../comparisons/service';
 import { requireState, transition } from '../comparisons/state';
 import type { AppContext } from '../context';
-import { Decision, Review, VerdictRecord, Vote, type User } from '../db/entities/index';
+import { Comparison, Decision, Review, User, VerdictRecord, Vote } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { conflict } from '../errors';
 import type { OutgoingMail } from '../mail/mailer';
 import { archiveDecisionPack } from '../pack/service';
 import { packLink } from '../pack/links';
-import { currentPolicy } from '../policy/service';
+import { currentPolicy, governingPolicy } from '../policy/service';
 import { activeUsersWithRole } from '../users/service';
 import { comparisonLink } from './links';
 import { decidedMail, returnedMail, submittedMail, validatedMail } from './mail';
@@ -31,6 +33,13 @@ import { authorRefs, countingVotes, currentRound, forbidOwn, latestReview, newes
  * it (403) —, then the state (409), then the step's own conditions (409).
  */
 
+/** Active people holding a role that acts in `state` (shared/workflow.ts), except `excluded`. */
+async function activeUsersActingIn(manager: EntityManager, state: ComparisonState, excluded: ReadonlySet<number>): Promise<User[]> {
+  const roles = actingRoles[state];
+  const people = await manager.getRepository(User).find({ where: { active: true }, order: { id: 'ASC' } });
+  return people.filter((person) => !excluded.has(person.id) && person.roles.some((role) => roles.includes(role)));
+}
+
 async function queueAll(ctx: AppContext, manager: EntityManager, mails: OutgoingMail[]): Promise<void> {
   for (const mail of mails) await ctx.mailer.queue(manager, mail);
 }
@@ -39,7 +48,7 @@ async function queueAll(ctx: AppContext, manager: EntityManager, mails: Outgoing
 export async function submitComparison(ctx: AppContext, actor: User, id: number, input: { message: string }): Promise<Governance> {
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
-    requireState(comparison, ['analysed', 'returned']);
+    requireState(comparison, workflowSteps.submit.from);
     const run = await newestRun(manager, id);
     if (!run || run.status !== 'done') {
       throw conflict(
@@ -58,14 +67,18 @@ export async function submitComparison(ctx: AppContext, actor: User, id: number,
         );
       }
     }
-    await transition(manager, comparison, ['analysed', 'returned'], 'in-review', {
+    // The policy in force now governs the review and the decision until the next submission.
+    const policy = await currentPolicy(manager);
+    await transition(manager, comparison, workflowSteps.submit.from, 'in-review', {
       actor,
       action: 'comparison.submitted',
-      details: { runId: run.id, message: input.message },
+      details: { runId: run.id, message: input.message, policyVersion: policy.version },
     });
+    await manager.getRepository(Comparison).update({ id }, { governingPolicyVersion: policy.version });
     const link = comparisonLink(ctx.config.publicUrl, id, 'review');
     const authors = await authorsOf(manager, comparison);
-    const analysts = (await activeUsersWithRole(manager, 'analyst')).filter((person) => !authors.has(person.id));
+    // Whoever acts in review: the analysts and the policy role (shared/workflow.ts), not the authors.
+    const analysts = await activeUsersActingIn(manager, 'in-review', authors);
     await queueAll(
       ctx,
       manager,
@@ -92,7 +105,7 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
     const comparison = await findComparison(manager, id);
     const authors = await authorsOf(manager, comparison);
     forbidOwn(authors, actor, 'review');
-    requireState(comparison, ['in-review']);
+    requireState(comparison, workflowSteps.validate.from);
     const run = await newestRun(manager, id);
     // Set-up is refused while in review, so the newest run is the done run that was submitted.
     if (!run || run.status !== 'done') throw new Error(`comparison ${id} is in review without a finished run`);
@@ -103,16 +116,18 @@ export async function reviewComparison(ctx: AppContext, actor: User, id: number,
         outcome: input.outcome,
         findings: input.findings,
         reviewerId: actor.id,
+        reviewerName: actor.name,
+        reviewerEmail: actor.email,
         createdAt: now(),
       }),
     );
-    await transition(manager, comparison, ['in-review'], input.outcome, {
+    await transition(manager, comparison, workflowSteps[input.outcome === 'validated' ? 'validate' : 'return'].from, input.outcome, {
       actor,
       action: input.outcome === 'validated' ? 'comparison.validated' : 'comparison.returned',
       details: { reviewId: review.id, runId: run.id, findings: input.findings },
     });
     if (input.outcome === 'validated') {
-      const { quorum } = await currentPolicy(manager);
+      const { quorum } = await governingPolicy(manager, comparison);
       const link = comparisonLink(ctx.config.publicUrl, id, 'review');
       const committee = (await activeUsersWithRole(manager, 'committee')).filter((person) => !authors.has(person.id));
       await queueAll(
@@ -142,7 +157,7 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'vote on');
-    requireState(comparison, ['validated']);
+    requireState(comparison, workflowSteps.vote.from);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
     const previous = await manager.getRepository(Vote).findOne({ where: { reviewId: round.id, voterId: actor.id }, order: { id: 'DESC' } });
@@ -151,6 +166,8 @@ export async function castVote(ctx: AppContext, actor: User, id: number, input: 
         comparisonId: id,
         reviewId: round.id,
         voterId: actor.id,
+        voterName: actor.name,
+        voterEmail: actor.email,
         vote: input.vote,
         comment: input.comment,
         replacesId: previous?.id ?? null,
@@ -178,17 +195,40 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
   await inTransaction(ctx.dataSource, async (manager) => {
     const comparison = await findComparison(manager, id);
     forbidOwn(await authorsOf(manager, comparison), actor, 'decide');
-    requireState(comparison, ['validated']);
+    requireState(comparison, workflowSteps.decide.from);
     const round = await currentRound(manager, id);
     if (!round) throw new Error(`comparison ${id} is validated without a validating review`);
-    const policy = await currentPolicy(manager);
+    const policy = await governingPolicy(manager, comparison);
     const votes = await countingVotes(manager, round.id);
-    if (policy.quorum > 0 && votes.length < policy.quorum) {
-      throw conflict(
-        `The adoption policy (version ${policy.version}) needs ${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} before a decision can be recorded; ` +
-          `${votes.length === 0 ? 'none has' : votes.length === 1 ? 'one has' : `${votes.length} have`} been cast.`,
-        { quorum: policy.quorum, votes: votes.length },
-      );
+    const tally = tallyOf(votes);
+    const majority = majorityOf(tally);
+    const withoutQuorum = policy.quorum > 0 && votes.length < policy.quorum;
+    const againstMajority = majority !== input.outcome;
+    if (withoutQuorum || againstMajority) {
+      const why = [
+        withoutQuorum
+          ? `the adoption policy (version ${policy.version}) needs ${policy.quorum} committee ${policy.quorum === 1 ? 'vote' : 'votes'} and ${votes.length === 0 ? 'none has' : votes.length === 1 ? 'one has' : `${votes.length} have`} been cast`
+          : null,
+        againstMajority
+          ? majority === null
+            ? `the votes cast (${tallyText(tally)}) show no majority for “${voteChoiceLabels[input.outcome]}”`
+            : `the majority of the votes cast (${tallyText(tally)}) is “${voteChoiceLabels[majority]}”`
+          : null,
+      ].filter((part) => part !== null);
+      if (!input.acknowledgeAgainstRecord) {
+        throw conflict(`This decision goes against the record: ${why.join('; ')}. Acknowledge that explicitly and give the reason in the rationale.`, {
+          quorum: policy.quorum,
+          votes: votes.length,
+          tally,
+          majority,
+        });
+      }
+      if (input.rationale.length < MIN_RATIONALE_AGAINST_RECORD) {
+        throw conflict(
+          `A decision against the record (${why.join('; ')}) needs a rationale of at least ${MIN_RATIONALE_AGAINST_RECORD} characters that says why; this one has ${input.rationale.length}.`,
+          { minimum: MIN_RATIONALE_AGAINST_RECORD },
+        );
+      }
     }
     const verdict = await manager.getRepository(VerdictRecord).findOne({ where: { runId: round.runId }, order: { id: 'DESC' } });
     const decision = await manager.getRepository(Decision).save(
@@ -203,11 +243,14 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         conditions: input.conditions ? input.conditions : null,
         effectiveDate: input.effectiveDate ?? null,
         decidedById: actor.id,
+        decidedByName: actor.name,
+        decidedByEmail: actor.email,
+        tally,
+        acknowledgedAgainstRecord: withoutQuorum || againstMajority,
         createdAt: now(),
       }),
     );
-    const tally = Object.fromEntries(voteChoices.map((choice) => [choice, votes.filter((vote) => vote.vote === choice).length]));
-    await transition(manager, comparison, ['validated'], 'decided', {
+    await transition(manager, comparison, workflowSteps.decide.from, 'decided', {
       actor,
       action: 'comparison.decided',
       details: {
@@ -221,15 +264,23 @@ export async function recordDecision(ctx: AppContext, actor: User, id: number, i
         policyVersion: policy.version,
         verdictId: decision.verdictId,
         votes: tally,
+        acknowledgedAgainstRecord: decision.acknowledgedAgainstRecord,
       },
     });
     // The pack as decided, kept with the decision; its SHA-256 goes in the audit trail.
     await archiveDecisionPack(manager, { comparisonId: id, decisionId: decision.id, actor });
     const link = comparisonLink(ctx.config.publicUrl, id, 'report');
+    // Everyone on the record: the authors (creator, uploaders, set-up people, submitters), the
+    // reviewers and the voters; the decider knows.
+    const onRecord = new Set<number>(await authorsOf(manager, comparison));
+    for (const review of await manager.getRepository(Review).find({ where: { comparisonId: id }, select: { id: true, reviewerId: true } })) onRecord.add(review.reviewerId);
+    for (const vote of await manager.getRepository(Vote).find({ where: { comparisonId: id }, select: { id: true, voterId: true } })) onRecord.add(vote.voterId);
+    onRecord.delete(actor.id);
+    const recipients = await manager.getRepository(User).find({ where: { id: In([...onRecord]), active: true }, order: { id: 'ASC' } });
     await queueAll(
       ctx,
       manager,
-      (await creatorOf(manager, comparison)).map((person) =>
+      recipients.map((person) =>
         decidedMail({
           to: person.email,
           name: person.name,
@@ -259,8 +310,9 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
   const verdicts = await source
     .getRepository(VerdictRecord)
     .find({ where: { comparisonId: id }, order: { id: 'DESC' }, relations: { createdBy: true } });
-  const policy = await currentPolicy(source);
+  const policy = await governingPolicy(source, comparison);
   const authors = await authorRefs(source, await authorsOf(source, comparison));
+  const tally = tallyOf(votes);
   return {
     state: comparison.state,
     createdBy: { id: comparison.createdBy.id, name: comparison.createdBy.name },
@@ -269,6 +321,27 @@ export async function getGovernance(ctx: Pick<AppContext, 'dataSource'>, id: num
     decision: decision ? presentDecision(decision) : null,
     verdicts: verdicts.map(presentVerdictRecord),
     quorum: policy.quorum,
+    policyVersion: policy.version,
+    tally,
+    majority: majorityOf(tally),
     authors,
   };
+}
+
+/** Votes per choice, every choice present. */
+export function tallyOf(votes: readonly Pick<Vote, 'vote'>[]): Record<VoteChoice, number> {
+  const counts = Object.fromEntries(voteChoices.map((choice) => [choice, 0])) as Record<VoteChoice, number>;
+  for (const vote of votes) counts[vote.vote] += 1;
+  return counts;
+}
+
+/** The choice with strictly the most votes; null without votes or on a tie. */
+export function majorityOf(tally: Record<VoteChoice, number>): VoteChoice | null {
+  const sorted = voteChoices.map((choice) => [choice, tally[choice]] as const).sort((a, b) => b[1] - a[1]);
+  if (sorted[0][1] === 0 || sorted[0][1] === sorted[1][1]) return null;
+  return sorted[0][0];
+}
+
+function tallyText(tally: Record<VoteChoice, number>): string {
+  return voteChoices.map((choice) => `${tally[choice]} ${choice}`).join(', ');
 }

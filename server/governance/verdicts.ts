@@ -4,7 +4,8 @@ import type { EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
 import { preparedCacheFor } from '../comparisons/prepared-cache';
-import { requireCurrentRun } from '../comparisons/service';
+import { findComparison, requireCurrentRun } from '../comparisons/service';
+import { conflict } from '../errors';
 import type { AppContext } from '../context';
 import { VerdictRecord, type AnalysisRun, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -67,6 +68,11 @@ async function swapForPolicy(ctx: AppContext, run: AnalysisRun, report: Report, 
 
 /** Judges the current run under the current policy → a new verdict record (409 while no run is done). */
 export async function reEvaluate(ctx: AppContext, actor: User, comparisonId: number): Promise<VerdictRecordBody> {
+  // After the decision the record is closed: the verdict the committee decided on stays the verdict.
+  const { state } = await findComparison(ctx.dataSource, comparisonId);
+  if (state === 'decided') {
+    throw conflict('This comparison is decided: its record is closed, and the verdict the committee decided on stays its verdict. Start a new comparison to judge it again.');
+  }
   const run = await requireCurrentRun(ctx.dataSource, comparisonId, true);
   if (run.report === null) throw new Error(`analysis run ${run.id} is done but has no report`);
   const report = JSON.parse(run.report) as Report;

@@ -16,7 +16,7 @@ export const signature = '— Scorecourt\n\nThis message was sent automatically.
 export function giniLine(headline: ComparisonHeadline): string {
   return (
     `Gini: champion ${formatGini(headline.championGini)}, challenger ${formatGini(headline.challengerGini)} ` +
-    `(difference ${formatGiniDelta(headline.deltaGini)} points, one-sided ${formatPInWords(headline.pOneSided)})`
+    `(difference ${formatGiniDelta(headline.deltaGini)} points, ${headline.pOneSided === null ? 'no DeLong test: too few goods or bads' : `one-sided ${formatPInWords(headline.pOneSided)}`})`
   );
 }
 

@@ -25,6 +25,7 @@ export function presentNote(note: Note): NoteBody {
     scenarioId: note.scenarioId,
     author: personRef(note.author),
     createdAt: iso(note.createdAt),
+    afterDecision: note.afterDecision,
   };
 }
 
@@ -49,7 +50,7 @@ export async function pageOfNotes(source: DataSource | EntityManager, comparison
 
 export async function addNote(ctx: AppContext, actor: User, comparisonId: number, input: NoteInput): Promise<NoteBody> {
   const id = await inTransaction(ctx.dataSource, async (manager) => {
-    await findComparison(manager, comparisonId);
+    const comparison = await findComparison(manager, comparisonId);
     if (input.anchor !== 'discussion' && !actor.roles.includes('policy')) {
       throw forbidden('Only the credit policy role annotates the swap sets; everyone may write in the discussion.');
     }
@@ -69,6 +70,8 @@ export async function addNote(ctx: AppContext, actor: User, comparisonId: number
         scenarioId: input.scenarioId,
         authorId: actor.id,
         createdAt: now(),
+        // After the decision the record is closed: a later note is kept, marked as such.
+        afterDecision: comparison.state === 'decided',
       }),
     );
     await recordAudit(manager, {

@@ -23,6 +23,7 @@ const policyKeys = [
   'swapRule',
   'minBads',
   'quorum',
+  'segmentRule',
   // Calibration and stability criteria.
   'calibrationRule',
   'psiRule',
@@ -55,6 +56,23 @@ export async function currentPolicy(source: DataSource | EntityManager): Promise
   return toPolicy(await newestRow(source));
 }
 
+/** One stored version (the current one when `version` is null). */
+export async function policyAt(source: DataSource | EntityManager, version: number | null): Promise<AdoptionPolicy> {
+  if (version === null) return currentPolicy(source);
+  const row = await source.getRepository(PolicyVersion).findOneBy({ version });
+  if (!row) throw new Error(`adoption policy version ${version} is not stored`);
+  return toPolicy(row);
+}
+
+/**
+ * The policy governing a comparison's review and decision: the version in force when it was last
+ * submitted (comparisons.governingPolicyVersion), until it is submitted again; the current one
+ * before its first submission.
+ */
+export function governingPolicy(source: DataSource | EntityManager, comparison: { governingPolicyVersion: number | null }): Promise<AdoptionPolicy> {
+  return policyAt(source, comparison.governingPolicyVersion);
+}
+
 export async function currentPolicyVersion(source: DataSource | EntityManager): Promise<PolicyVersionBody> {
   return presentPolicyVersion(await newestRow(source));
 }
@@ -84,6 +102,7 @@ export async function changePolicy(ctx: AppContext, actor: User, input: PolicyUp
     calibrationRule: { enabled: fields.calibrationRule.enabled, alpha: fields.calibrationRule.alpha },
     psiRule: { enabled: fields.psiRule.enabled, threshold: fields.psiRule.threshold },
     periodSignRule: { enabled: fields.periodSignRule.enabled, minBads: fields.periodSignRule.minBads },
+    segmentRule: { enabled: fields.segmentRule.enabled, minBads: fields.segmentRule.minBads },
   };
   const version = await inTransaction(ctx.dataSource, async (manager) => {
     const previous = await newestRow(manager);

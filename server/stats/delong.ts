@@ -22,12 +22,16 @@ import { StatisticError } from './statistic-error';
  * Difference = challenger − champion. se(ΔAUC) is computed from the per-account differences of
  * the placements, which equals sqrt(V1 + V2 − 2C) without its cancellation; z = ΔAUC / se;
  * two-sided p = 2·P(Z > |z|); one-sided p = P(Z > z) for H1 "the challenger's AUC is higher".
- * CI = Δ ± z_{1−α/2}·se; ΔGini = 2·ΔAUC with twice the se and interval.
+ * Intervals: Wald intervals Δ ± z_{1−α/2}·se (for each AUC: AUC ± z·se), then clamped to the
+ * range the quantity can take — [0, 1] for an AUC, [−1, 1] for ΔAUC, so [−1, 1] and [−2, 2] in
+ * Gini units. The clamp only bites when the unclamped bound lies outside what is possible; the
+ * interval is otherwise exactly Δ ± z·se. ΔGini = 2·ΔAUC with twice the se and interval.
  *
  * Edge cases, all defined, never NaN:
  * - one class missing: StatisticError (no AUC).
- * - a single good (or bad): that class's sample variance is undefined; its term is taken as 0,
- *   so the se then rests on the other class alone.
+ * - fewer than 2 goods or fewer than 2 bads: that class's sample variance is undefined, so there
+ *   is no variance, no test and no interval: those fields are null and `inference` says why
+ *   (the AUCs and their difference are still given).
  * - identical rankings: Δ = 0, se = 0, z = 0, two-sided p = 1 (docs/design.md) and one-sided p = 0.5:
  *   P(Z > 0), the limit of the one-sided p of nearly identical models; 2·min(p, 1 − p) gives the
  *   two-sided 1 back.
@@ -52,12 +56,12 @@ import { StatisticError } from './statistic-error';
 
 export interface ModelDelong {
   auc: number;
-  /** DeLong variance of the AUC. */
-  variance: number;
-  aucSe: number;
-  aucCi: Interval;
+  /** DeLong variance of the AUC; null with fewer than 2 goods or 2 bads. */
+  variance: number | null;
+  aucSe: number | null;
+  aucCi: Interval | null;
   gini: number;
-  giniCi: Interval;
+  giniCi: Interval | null;
 }
 
 export interface PairedDelong {
@@ -66,18 +70,27 @@ export interface PairedDelong {
   difference: {
     auc: number;
     gini: number;
-    se: number;
-    giniSe: number;
-    z: number;
-    pTwoSided: number;
-    pOneSided: number;
-    aucCi: Interval;
-    giniCi: Interval;
-    varianceChampion: number;
-    varianceChallenger: number;
-    covariance: number;
+    se: number | null;
+    giniSe: number | null;
+    z: number | null;
+    pTwoSided: number | null;
+    pOneSided: number | null;
+    aucCi: Interval | null;
+    giniCi: Interval | null;
+    varianceChampion: number | null;
+    varianceChallenger: number | null;
+    covariance: number | null;
     correlation: number | null;
+    /** Why there is no variance, test or interval; null when they are defined. */
+    inference: string | null;
   };
+}
+
+/** Why DeLong inference is undefined for these counts (fewer than 2 of a class), or null. */
+export function inferenceGap(nGood: number, nBad: number): string | null {
+  if (nBad >= 2 && nGood >= 2) return null;
+  const which = nBad < 2 ? `${nBad} ${nBad === 1 ? 'bad' : 'bads'}` : `${nGood} ${nGood === 1 ? 'good' : 'goods'}`;
+  return `only ${which}: a variance needs at least 2 goods and 2 bads, so there is no standard error, test or interval`;
 }
 
 /** Each account's placement: V10 for goods, V01 for bads (weighted counts when the blocks have weights). */
@@ -117,6 +130,30 @@ export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad
 
   const thetaA = auc(champion);
   const thetaB = auc(challenger);
+  const gap = inferenceGap(nGood, nBad);
+  if (gap !== null) {
+    const bare = (theta: number): ModelDelong => ({ auc: theta, variance: null, aucSe: null, aucCi: null, gini: 2 * theta - 1, giniCi: null });
+    return {
+      champion: bare(thetaA),
+      challenger: bare(thetaB),
+      difference: {
+        auc: thetaB - thetaA,
+        gini: 2 * (thetaB - thetaA),
+        se: null,
+        giniSe: null,
+        z: null,
+        pTwoSided: null,
+        pOneSided: null,
+        aucCi: null,
+        giniCi: null,
+        varianceChampion: null,
+        varianceChallenger: null,
+        covariance: null,
+        correlation: null,
+        inference: gap,
+      },
+    };
+  }
   const pa = placements(champion, n);
   const pb = placements(challenger, n);
 
@@ -212,6 +249,7 @@ export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad
       varianceChallenger: varianceB,
       covariance,
       correlation: varianceA > 0 && varianceB > 0 ? covariance / Math.sqrt(varianceA * varianceB) : null,
+      inference: null,
     },
   };
 }

@@ -160,7 +160,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   const segmentRows = segments(knownHoldout, {
     champion: championBlocks,
     challenger: challengerBlocks,
-    sided: policy.sided,
+    policy,
     confidence: settings.confidence,
   });
   if (!plain) addSegmentPopulation(segmentRows, holdout);

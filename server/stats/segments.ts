@@ -1,17 +1,21 @@
+import type { AdoptionPolicy } from '@shared/policy';
 import type { SegmentRow } from '@shared/report';
 import { pairedDelong } from './delong';
 import { levelOrder, type Holdout } from './holdout';
 import { holm } from './holm';
 import { blocksFromSorted, type ScoreBlocks, weighBlocks } from './order';
+import { segmentFlags, tooFewBads } from './segment-flags';
 
 /**
  * The comparison within each value of each segment column: accounts, goods, bads, both Ginis,
- * ΔGini with its DeLong se and p (paired DeLong within the segment, delong.ts; one- or two-sided
- * as the adoption policy), and Holm-adjusted p across every segment row of the report (holm.ts).
+ * ΔGini with its DeLong se, two-sided p and interval (paired DeLong within the segment, delong.ts:
+ * two-sided, so that harm can be significant as well as benefit), Holm-adjusted p across every
+ * segment row of the report that has a test (holm.ts), and the flags significantly-worse /
+ * materially-worse under the policy (segment-flags.ts).
  *
- * A segment with fewer than TOO_FEW_BADS bads is flagged: its Gini moves a lot with a handful of
- * accounts (the threshold is a rule of thumb, no source). A segment with one class only has no
- * Gini; its row says why.
+ * A segment with fewer bads than the policy's segment threshold is marked tooFewBads and left out
+ * of the segment rule (its Gini moves a lot with a handful of accounts). A segment with one class
+ * only has no Gini, and one with fewer than 2 goods or 2 bads no test; its row says why.
  *
  * Sampling weights (holdout.weight): each segment's Ginis and DeLong are the weighted ones
  * (weighted-auc.ts, delong.ts); the engine passes the rows with a known outcome only.
@@ -19,13 +23,12 @@ import { blocksFromSorted, type ScoreBlocks, weighBlocks } from './order';
  * Cost: O(n) per segment column after the two whole-holdout sorts: each segment's blocks are the
  * whole holdout's blocks filtered, in one pass per model; then O(n) for DeLong.
  */
-export const TOO_FEW_BADS = 30;
-
 export interface SegmentOptions {
   /** Both models' blocks over the whole holdout ("higher = safer"). */
   champion: ScoreBlocks;
   challenger: ScoreBlocks;
-  sided: 'one-sided' | 'two-sided';
+  /** α, materiality and the segment rule's bads threshold. */
+  policy: Pick<AdoptionPolicy, 'alpha' | 'materialityGiniPoints' | 'segmentRule'>;
   confidence: number;
 }
 
@@ -100,8 +103,11 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
         deltaGini: null,
         giniSe: null,
         p: null,
+        pTwoSided: null,
+        giniCi: null,
         pHolm: null,
-        tooFewBads: bads < TOO_FEW_BADS,
+        tooFewBads: tooFewBads({ bads }, options.policy),
+        flags: [],
         note: null,
       };
       if (goods === 0 || bads === 0) {
@@ -112,12 +118,18 @@ export function segments(holdout: Holdout, options: SegmentOptions): SegmentRow[
         row.challengerGini = result.challenger.gini;
         row.deltaGini = result.difference.gini;
         row.giniSe = result.difference.giniSe;
-        row.p = options.sided === 'one-sided' ? result.difference.pOneSided : result.difference.pTwoSided;
+        row.p = result.difference.pTwoSided;
+        row.pTwoSided = result.difference.pTwoSided;
+        row.giniCi = result.difference.giniCi;
+        row.note = result.difference.inference;
       }
       rows.push(row);
     }
   }
   const adjusted = holm(rows.map((row) => row.p));
-  rows.forEach((row, i) => (row.pHolm = adjusted[i]));
+  rows.forEach((row, i) => {
+    row.pHolm = adjusted[i];
+    row.flags = segmentFlags(row, options.policy);
+  });
   return rows;
 }

@@ -1,40 +1,51 @@
 import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } from '@shared/format';
 import type { AdoptionPolicy } from '@shared/policy';
-import type { Criterion, Report, SwapSets, Verdict } from '@shared/report';
+import type { Criterion, Report, SegmentRow, SwapSets, Verdict } from '@shared/report';
 import { normalCdf } from './normal';
 import { stabilityCriteria } from './verdict-stability';
+import { segmentFlags, tooFewBads } from './segment-flags';
 import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
  * The verdict: an adoption policy (shared/policy.ts) applied to a report's evidence. Each criterion
  * the policy enables is shown met or not met with its numbers; the outcome is
- *   champion-better  the challenger is significantly worse at the policy's α (one-sided: the
+ *   champion-better  the report has at least the policy's minimum bads, a DeLong test exists, and
+ *                    the challenger is significantly worse at the policy's α (one-sided: the
  *                    opposite one-sided test, p = Φ(z); two-sided: p < α with ΔGini < 0), or the
  *                    ΔGini interval lies entirely below 0;
  *   supported        otherwise, when every criterion is met;
  *   not-proven       otherwise.
- * Defaults and thresholds: docs/design.md "Verdict" (materiality and minimum bads are common practice,
- * no source). The criteria use the report's ΔGini interval at the report's confidence.
+ * With fewer than 2 goods or 2 bads there is no DeLong test or interval (delong.ts): the
+ * significance and interval criteria are not met and say why, so the outcome is not-proven.
+ * The segment criterion (on unless the policy version predates it) fails when a segment value with
+ * enough bads is significantly worse (segment-flags.ts), and names those values here and in the
+ * summary. Defaults and thresholds: docs/design.md "Verdict" (materiality and minimum bads are common
+ * practice, no source). The criteria use the report's ΔGini interval at the report's confidence.
  *
  * A pure function of the report, the policy, and the swap sets at the policy's approval rate
  * (which can differ from the report's): a stored report can be re-judged under a new policy
  * version. When `swapAtPolicyRate` is not given, the report's own swap sets are used if they were
  * matched to the policy's approval rate; otherwise the swap criterion is not met and says so.
- * Cost: O(1).
+ * The summary says where its approval rate comes from ("at the policy's 70% approval rate") and,
+ * when the run's own swap sets use another rate or cut-offs, says that too.
+ * Cost: O(segment rows).
  */
 
-export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'> & Partial<Pick<Report, 'calibration' | 'stability'>>;
+export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'> & Partial<Pick<Report, 'calibration' | 'stability'>> & { segments?: Report['segments'] };
 
 export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null): Verdict {
   const { difference } = report;
   const alpha = policy.alpha;
   const level = `${percent(report.settings.confidence)} interval`;
   const giniPoints = difference.gini * 100;
-  const [lowPoints, highPoints] = [difference.giniCi[0] * 100, difference.giniCi[1] * 100];
+  const ci = difference.giniCi;
   const criteria: Criterion[] = [];
+  const noTest = difference.inference ?? (difference.pOneSided === null || difference.pTwoSided === null || ci === null ? 'no DeLong test for this report' : null);
 
-  if (policy.sided === 'one-sided') {
-    const p = difference.pOneSided;
+  if (noTest !== null) {
+    criteria.push({ id: 'significance', label: 'Significant uplift', met: false, detail: `no DeLong test: ${noTest}` });
+  } else if (policy.sided === 'one-sided') {
+    const p = difference.pOneSided!;
     criteria.push({
       id: 'significance',
       label: 'Significant uplift',
@@ -45,7 +56,7 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
           : `one-sided ${pText(p)} is not below α = ${alpha} (DeLong test that the challenger's Gini is higher)`,
     });
   } else {
-    const p = difference.pTwoSided;
+    const p = difference.pTwoSided!;
     const higher = difference.gini > 0;
     criteria.push({
       id: 'significance',
@@ -69,15 +80,19 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   });
 
   if (policy.requireIntervalAboveZero) {
-    const above = difference.giniCi[0] > 0;
-    criteria.push({
-      id: 'interval',
-      label: 'Interval above zero',
-      met: above,
-      detail: `the ${level} of ΔGini is ${signedPoints(lowPoints)} to ${signedPoints(highPoints)} points: ${
-        above ? 'its lower bound is above 0' : difference.giniCi[1] < 0 ? 'it lies entirely below 0' : 'it includes 0'
-      }`,
-    });
+    if (ci === null) {
+      criteria.push({ id: 'interval', label: 'Interval above zero', met: false, detail: `no interval of ΔGini: ${noTest}` });
+    } else {
+      const above = ci[0] > 0;
+      criteria.push({
+        id: 'interval',
+        label: 'Interval above zero',
+        met: above,
+        detail: `the ${level} of ΔGini is ${signedPoints(ci[0] * 100)} to ${signedPoints(ci[1] * 100)} points: ${
+          above ? 'its lower bound is above 0' : ci[1] < 0 ? 'it lies entirely below 0' : 'it includes 0'
+        }`,
+      });
+    }
   }
 
   const swap = policy.swapRule.enabled ? swapAt(report, policy, swapAtPolicyRate) : null;
@@ -87,33 +102,79 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
     criteria.push(unknowns ? swapCriterionWithUnknowns(swap, policy, report.settings) : swapCriterion(swap, policy.swapRule.approvalRate));
   }
 
+  const enoughBads = report.bads >= policy.minBads;
   criteria.push({
     id: 'minimum-bads',
     label: 'Enough bads',
-    met: report.bads >= policy.minBads,
-    detail:
-      report.bads >= policy.minBads
-        ? `${count(report.bads)} bads in the holdout, at least the ${count(policy.minBads)} required`
-        : `only ${count(report.bads)} bads in the holdout; the policy requires at least ${count(policy.minBads)}`,
+    met: enoughBads,
+    detail: enoughBads
+      ? `${count(report.bads)} bads in the holdout, at least the ${count(policy.minBads)} required`
+      : `only ${count(report.bads)} bads in the holdout; the policy requires at least ${count(policy.minBads)}`,
   });
   criteria.push(...stabilityCriteria(report, policy));
 
-  const significantlyWorse =
-    policy.sided === 'one-sided'
-      ? normalCdf(difference.z) < alpha
-      : difference.pTwoSided < alpha && difference.gini < 0;
-  const outcome = significantlyWorse || difference.giniCi[1] < 0 ? 'champion-better' : criteria.every((c) => c.met) ? 'supported' : 'not-proven';
+  const worseSegments = policy.segmentRule.enabled ? segmentsWorse(report.segments ?? [], policy) : null;
+  if (policy.segmentRule.enabled) criteria.push(segmentCriterion(report.segments ?? [], worseSegments!, policy));
 
-  const p = policy.sided === 'one-sided' ? difference.pOneSided : difference.pTwoSided;
+  const significantlyWorse =
+    noTest === null &&
+    (policy.sided === 'one-sided' ? normalCdf(difference.z!) < alpha : difference.pTwoSided! < alpha && difference.gini < 0);
+  const championBetter = enoughBads && noTest === null && (significantlyWorse || ci![1] < 0);
+  const outcome = championBetter ? 'champion-better' : criteria.every((c) => c.met) ? 'supported' : 'not-proven';
+
   const direction =
     Math.abs(giniPoints) < 0.05
       ? "The challenger's Gini is the same as the champion's to one decimal"
       : `The challenger's Gini is ${unsignedPoints(giniPoints)} points ${giniPoints > 0 ? 'higher' : 'lower'}`;
-  let summary = `${direction} (${level} ${signedPoints(lowPoints)} to ${signedPoints(highPoints)}, ${policy.sided} ${pText(p)})`;
-  const swapSentence = swap ? swapSummary(swap, policy.swapRule.approvalRate) : null;
-  summary += swapSentence ? `; ${swapSentence}.` : '.';
+  const p = policy.sided === 'one-sided' ? difference.pOneSided : difference.pTwoSided;
+  let summary =
+    noTest !== null || ci === null || p === null
+      ? `${direction} (no interval or test: ${noTest})`
+      : `${direction} (${level} ${signedPoints(ci[0] * 100)} to ${signedPoints(ci[1] * 100)}, ${policy.sided} ${pText(p)})`;
+  const clauses: string[] = [];
+  if (swap) clauses.push(swapSummary(swap, policy.swapRule.approvalRate) + runRateNote(report, policy.swapRule.approvalRate));
+  if (worseSegments && worseSegments.length > 0) clauses.push(`it is significantly worse in ${worseSegments.map(segmentText).join(', ')}`);
+  summary += clauses.length > 0 ? `; ${clauses.join('; ')}.` : '.';
 
   return { outcome, policyVersion: policy.version, criteria, summary };
+}
+
+/** The segment values the policy's rule catches: significantly worse, with enough bads. */
+function segmentsWorse(rows: readonly SegmentRow[], policy: AdoptionPolicy): SegmentRow[] {
+  return rows.filter((row) => row.pTwoSided !== null && segmentFlags(row, policy).includes('significantly-worse'));
+}
+
+function segmentText(row: SegmentRow): string {
+  return `${row.column} = ${row.value} (ΔGini ${signedPoints((row.deltaGini ?? 0) * 100)} points, Holm-adjusted ${pText(row.pHolm ?? 1)})`;
+}
+
+function segmentCriterion(rows: readonly SegmentRow[], worse: SegmentRow[], policy: AdoptionPolicy): Criterion {
+  const base = { id: 'segments' as const, label: 'No segment value significantly worse' };
+  if (rows.length === 0) return { ...base, met: true, detail: 'no segment columns are mapped, so there is nothing to check' };
+  if (rows.some((row) => row.deltaGini !== null && row.pTwoSided === null && row.note === null)) {
+    return {
+      ...base,
+      met: false,
+      detail: 'this report predates two-sided segment tests (engine before 1.2); run the analysis again to check the segments',
+    };
+  }
+  const few = rows.filter((row) => tooFewBads(row, policy)).length;
+  const leftOut = few > 0 ? `; ${count(few)} ${few === 1 ? 'value' : 'values'} with fewer than ${count(policy.segmentRule.minBads)} bads left out` : '';
+  const test = `Holm-adjusted two-sided DeLong test, α = ${policy.alpha}`;
+  if (worse.length === 0) {
+    return { ...base, met: true, detail: `no segment value is significantly worse (${test})${leftOut}` };
+  }
+  return { ...base, met: false, detail: `significantly worse in ${worse.map(segmentText).join(', ')} (${test})${leftOut}` };
+}
+
+/** ", while the run's own swap sets are at 55%" when the report was set up with another rate or cut-offs. */
+function runRateNote(report: VerdictEvidence, policyRate: number): string {
+  const own = report.swap;
+  if (own.basis === 'approval-rate' && own.requestedApprovalRate !== null && Math.abs(own.requestedApprovalRate - policyRate) < 1e-12) return '';
+  if (own.basis === 'approval-rate' && own.requestedApprovalRate !== null) {
+    return ` (the run's own swap sets are at ${percent(own.requestedApprovalRate)})`;
+  }
+  return " (the run's own swap sets use the cut-offs it was set up with)";
 }
 
 function swapAt(report: VerdictEvidence, policy: AdoptionPolicy, given: SwapSets | null | undefined): SwapSets | null {
@@ -129,7 +190,7 @@ function swapAt(report: VerdictEvidence, policy: AdoptionPolicy, given: SwapSets
 
 function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
   const base = { id: 'swap-bad-rate' as const, label: 'Swap-in bad rate not above swap-out' };
-  const at = `at a ${percent(rate)} approval rate`;
+  const at = `at the policy's ${percent(rate)} approval rate`;
   if (!swap) {
     return { ...base, met: false, detail: `swap sets ${at} were not computed for this report, so the rule cannot be checked` };
   }
@@ -163,7 +224,7 @@ function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
 }
 
 function swapSummary(swap: SwapSets, rate: number): string {
-  const at = `at a ${percent(rate)} approval rate`;
+  const at = `at the policy's ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;
   if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
   // Weighted holdouts: applicants (rounded), the bad rate of those with an outcome.

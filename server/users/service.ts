@@ -54,8 +54,9 @@ export async function inviteUser(ctx: AppContext, actor: User, input: InviteInpu
  * Renames, changes roles, deactivates or reactivates a person; one audit event per kind of
  * change. Deactivating ends the person's sessions and retires their unused links (for a pending
  * invitee it withdraws the invitation). Reactivating
- * someone who never set a password sends them a fresh invitation. An admin cannot deactivate
- * themselves or drop their own admin role, so there is always an active admin.
+ * someone who never set a password sends them a fresh invitation. Nobody changes their own roles
+ * or deactivates themselves, and the last active admin can neither be deactivated nor lose the
+ * role (checked inside the transaction), so there is always an active admin.
  */
 export async function updateUser(ctx: AppContext, actor: User, id: number, changes: UpdateUserInput): Promise<User> {
   let mailQueued = false;
@@ -66,8 +67,16 @@ export async function updateUser(ctx: AppContext, actor: User, id: number, chang
     const self = user.id === actor.id;
     if (self && changes.active === false) throw conflict('You cannot deactivate your own account; ask another administrator.');
     const roles = changes.roles ? normaliseRoles(changes.roles) : undefined;
-    if (self && roles && !roles.includes('admin') && user.roles.includes('admin')) {
-      throw conflict('You cannot remove your own administrator role; ask another administrator.');
+    // Nobody changes their own roles: an admin granting themselves the committee role could then decide.
+    if (self && roles && roles.join() !== normaliseRoles(user.roles).join()) {
+      throw conflict('You cannot change your own roles; ask another administrator.');
+    }
+    // The last active administrator stays: checked here, inside the transaction, so two admins
+    // removing each other at once leave one (transactions run one at a time, inTransaction).
+    const losesAdmin = user.active && user.roles.includes('admin') && ((roles && !roles.includes('admin')) || changes.active === false);
+    if (losesAdmin) {
+      const admins = (await activeUsersWithRole(manager, 'admin')).filter((person) => person.id !== user.id);
+      if (admins.length === 0) throw conflict(`${user.name} is the last active administrator; make someone else an administrator first.`);
     }
     const target = { type: 'user', id: user.id };
 

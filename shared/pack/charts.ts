@@ -150,8 +150,10 @@ export function upliftChart(report: Report): Chart {
   const left = 150;
   const right = width - 20;
   // Panel 1: each model's Gini.
-  const giniLo = Math.min(champion.giniCi[0], challenger.giniCi[0]);
-  const giniHi = Math.max(champion.giniCi[1], challenger.giniCi[1]);
+  // A model without a variance (fewer than two goods or bads) has no interval: its point alone.
+  const giniCiOf = (key: 'champion' | 'challenger'): readonly [number, number] => report[key].giniCi ?? [report[key].gini, report[key].gini];
+  const giniLo = Math.min(giniCiOf('champion')[0], giniCiOf('challenger')[0]);
+  const giniHi = Math.max(giniCiOf('champion')[1], giniCiOf('challenger')[1]);
   const pad1 = (giniHi - giniLo) * 0.15 || 0.01;
   const ticks1 = niceTicks(giniLo - pad1, giniHi + pad1, 5);
   const at1 = scale([Math.min(ticks1[0], giniLo - pad1), Math.max(ticks1[ticks1.length - 1], giniHi + pad1)], [left, right]);
@@ -163,7 +165,7 @@ export function upliftChart(report: Report): Chart {
   rows1.forEach(([label, key], index) => {
     const y = 38 + index * 22;
     canvas.text(left - 8, y + 3, label, { anchor: 'end' });
-    intervalRow(canvas, at1, y, report[key].gini, report[key].giniCi, model[key].ink, model[key].marker);
+    intervalRow(canvas, at1, y, report[key].gini, giniCiOf(key), model[key].ink, model[key].marker);
   });
   const axis1 = 38 + 2 * 22 - 6;
   canvas.line(left, axis1, right, axis1, 'axis', 0.75);
@@ -174,7 +176,8 @@ export function upliftChart(report: Report): Chart {
   // Panel 2: the difference.
   const top2 = axis1 + 34;
   canvas.text(8, top2, `Challenger − champion (ΔGini points, ${level} intervals)`, { bold: true });
-  const rows2: { label: string; interval: readonly [number, number] }[] = [{ label: 'DeLong interval', interval: difference.giniCi }];
+  const deltaCi: readonly [number, number] = difference.giniCi ?? [difference.gini, difference.gini];
+  const rows2: { label: string; interval: readonly [number, number] }[] = [{ label: 'DeLong interval', interval: deltaCi }];
   if (difference.giniBootstrapCi) rows2.push({ label: 'Bootstrap interval', interval: difference.giniBootstrapCi });
   const values = [0, materiality, difference.gini, ...rows2.flatMap((row) => [...row.interval])];
   const lo = Math.min(...values);
@@ -199,11 +202,11 @@ export function upliftChart(report: Report): Chart {
   }
   canvas.text(at2(0) - 3, axis2 + 24, 'no difference', { anchor: 'end', size: 8, fill: 'muted' });
   canvas.text(at2(materiality) + 3, axis2 + 24, `materiality ${formatGiniDelta(materiality)}`, { anchor: 'start', size: 8, fill: 'good' });
-  const where = difference.giniCi[0] > materiality ? 'wholly above the materiality line' : difference.giniCi[0] > 0 ? 'above zero but not wholly above the materiality line' : 'reaching zero or below';
+  const where = difference.giniCi === null ? 'with no interval (too few goods or bads for a variance)' : difference.giniCi[0] > materiality ? 'wholly above the materiality line' : difference.giniCi[0] > 0 ? 'above zero but not wholly above the materiality line' : 'reaching zero or below';
   return {
     id: 'uplift',
     title: 'Uplift with its interval',
-    caption: `ΔGini ${formatGiniDelta(difference.gini)} points (${level} DeLong interval ${formatInterval(difference.giniCi, formatGiniDelta)}${difference.giniBootstrapCi ? `; bootstrap ${formatInterval(difference.giniBootstrapCi, formatGiniDelta)}` : ''}), ${where}. Champion Gini ${formatGini(champion.gini)}, challenger ${formatGini(challenger.gini)}.`,
+    caption: `ΔGini ${formatGiniDelta(difference.gini)} points (${level} DeLong interval ${difference.giniCi ? formatInterval(difference.giniCi, formatGiniDelta) : 'none'}${difference.giniBootstrapCi ? `; bootstrap ${formatInterval(difference.giniBootstrapCi, formatGiniDelta)}` : ''}), ${where}. Champion Gini ${formatGini(champion.gini)}, challenger ${formatGini(challenger.gini)}.`,
     width,
     height: axis2 + 32,
     shapes: canvas.shapes,

@@ -93,7 +93,7 @@ describe('creating a comparison', () => {
     // verdict.recorded: the run's verdict stored as a verdict record (governance), in the same transaction.
     expect(trail.map((event) => event.action)).toEqual(['comparison.created', 'analysis.done', 'comparison.analysed', 'verdict.recorded']);
     expect(trail[0].details).toMatchObject({ holdoutId: sampleId, runId: done.runs[0].id, mapping: { champion: 'champion_points' } });
-    expect(trail[1].details).toMatchObject({ runId: done.runs[0].id, verdict: report.verdict.outcome, policyVersion: 1 });
+    expect(trail[1].details).toMatchObject({ runId: done.runs[0].id, verdict: report.verdict.outcome, policyVersion: 2 });
     expect(trail[2].details).toMatchObject({ from: 'draft', to: 'analysed' });
 
     const mail = await t.dataSource.getRepository(MailMessage).findOneByOrFail({ subject: 'Analysis done: Tallowmere 2025 cash-flow challenger' });

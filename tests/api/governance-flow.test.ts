@@ -40,15 +40,16 @@ async function governance(client: TestClient = modeler): Promise<Governance> {
 }
 
 describe('the review workflow, end to end', () => {
-  it('records the verdict of the finished run under policy version 1, by the system', async () => {
+  it('records the verdict of the finished run under policy version 2, by the system', async () => {
     const g = await governance();
     expect(g.state).toBe('analysed');
     expect(g.verdicts).toHaveLength(1);
-    expect(g.verdicts[0]).toMatchObject({ policyVersion: 1, createdBy: null });
+    expect(g.verdicts[0]).toMatchObject({ policyVersion: 2, createdBy: null });
     const report = (await modeler.get(`/api/comparisons/${id}/report`)).body as { verdict: { outcome: string; criteria: unknown[] } };
     expect(g.verdicts[0].outcome).toBe(report.verdict.outcome);
     expect(g.verdicts[0].criteria).toEqual(report.verdict.criteria);
-    expect(g.quorum).toBe(0);
+    // issue 13: the default quorum is two votes.
+    expect(g.quorum).toBe(2);
   });
 
   it('submit: analysed → in review, and each analyst gets an e-mail with the link to the review page', async () => {
@@ -58,11 +59,14 @@ describe('the review workflow, end to end', () => {
     expect(governanceSchema.parse(response.body).state).toBe('in-review');
     const mail = await t.deliveredMail({ to: 'analyst@tallowmere.test', afterId: before });
     expect(mail.subject).toBe('Ready for review: Challenger v2 on the 2025 sample');
+    // issue 13: the policy role acts at "in review" too (shared/workflow.ts), so it is e-mailed.
+    const policyMail = await t.deliveredMail({ to: 'policy@tallowmere.test', afterId: before });
+    expect(policyMail.subject).toBe('Ready for review: Challenger v2 on the 2025 sample');
     // The sink stores what came over SMTP: the link is the client's /comparisons/:id/review.
     expect(mail.receivedText).toContain(`http://scorecourt.test/comparisons/${id}/review`);
     expect(mail.receivedText).toContain('see the product segments');
     const sent = await outboxAfter(t, before);
-    expect(sent.map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    expect(sent.map((message) => message.to)).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
   });
 
   it('review "returned": in review → returned with the findings; the creator is told', async () => {
@@ -127,34 +131,50 @@ describe('the review workflow, end to end', () => {
     ]);
   });
 
-  it('decision: 409 with a clear message below the quorum the policy sets, then decided once it is met', async () => {
+  it('decision: the policy at submission governs; against the votes or without quorum needs an acknowledgement and a real rationale', async () => {
+    // Raising the quorum while the comparison is in review does not change its rules (issue 13):
+    // version 2 was in force when it was submitted, and governs until it is submitted again.
     const current = (await admin.get('/api/policy')).body as PolicyVersion;
     const { version: _version, ...fields } = current.policy;
     const put = await admin.send('put', '/api/policy', { ...fields, quorum: 3, reason: 'Three votes for model changes.' });
     expect(put.status, JSON.stringify(put.body)).toBe(200);
-    expect((put.body as PolicyVersion).policy.quorum).toBe(3);
+    expect((put.body as PolicyVersion).policy).toMatchObject({ version: 3, quorum: 3 });
+    const during = await governance();
+    expect(during).toMatchObject({ quorum: 2, policyVersion: 2, tally: { adopt: 2, keep: 0, defer: 0 }, majority: 'adopt' });
 
-    const decision = { outcome: 'adopt', rationale: 'Material, significant uplift; swap-in no worse than swap-out.', conditions: 'Monitor the web channel monthly.', effectiveDate: '2026-03-01' };
-    const short = await committee.post(`/api/comparisons/${id}/decision`, decision);
-    expect(short.status).toBe(409);
-    expect((short.body as { error: { message: string; details: unknown } }).error).toMatchObject({
-      message: 'The adoption policy (version 2) needs 3 committee votes before a decision can be recorded; 2 have been cast.',
-      details: { quorum: 3, votes: 2 },
-    });
+    // Against the only votes cast, with the rationale "x": refused until acknowledged with a real reason.
+    const against = { outcome: 'keep', rationale: 'x' };
+    const silent = await committee.post(`/api/comparisons/${id}/decision`, against);
+    expect(silent.status).toBe(409);
+    expect((silent.body as { error: { message: string } }).error.message).toBe(
+      'This decision goes against the record: the majority of the votes cast (2 adopt, 0 keep, 0 defer) is “Adopt the challenger”. Acknowledge that explicitly and give the reason in the rationale.',
+    );
+    const thin = await committee.post(`/api/comparisons/${id}/decision`, { ...against, acknowledgeAgainstRecord: true });
+    expect(thin.status).toBe(409);
+    expect((thin.body as { error: { message: string } }).error.message).toMatch(/needs a rationale of at least 80 characters that says why; this one has 1\.$/);
     expect((await governance()).state).toBe('validated');
 
-    const lower = await admin.send('put', '/api/policy', { ...fields, quorum: 2, reason: 'Two votes are enough for this committee.' });
-    expect(lower.status).toBe(200);
+    const decision = { outcome: 'adopt', rationale: 'Material, significant uplift; swap-in no worse than swap-out.', conditions: 'Monitor the web channel monthly.', effectiveDate: '2026-03-01' };
     const before = await lastOutboxId(t);
     const decided = await committee.post(`/api/comparisons/${id}/decision`, decision);
     expect(decided.status, JSON.stringify(decided.body)).toBe(200);
     const g = governanceSchema.parse(decided.body);
     expect(g.state).toBe('decided');
     expect(g.quorum).toBe(2);
-    expect(g.decision).toMatchObject({ ...decision, decidedBy: { name: 'Henrik Aalto' }, policyVersion: 3 });
+    expect(g.decision).toMatchObject({
+      ...decision,
+      decidedBy: { name: 'Henrik Aalto' },
+      policyVersion: 2,
+      tally: { adopt: 2, keep: 0, defer: 0 },
+      acknowledgedAgainstRecord: false,
+    });
 
     const mail = await t.deliveredMail({ to: 'modeler@tallowmere.test', afterId: before });
     expect(mail.subject).toBe('Decision recorded: Challenger v2 on the 2025 sample');
+    // issue 13: everyone on the record hears of the decision — the creator, the reviewing analyst
+    // and the other voter — not only the modeler; the decider does not mail themselves.
+    const decidedTo = (await outboxAfter(t, before)).filter((message) => message.subject.startsWith('Decision recorded')).map((message) => message.to[0]);
+    expect(decidedTo.sort()).toEqual(['analyst@tallowmere.test', 'committee2@tallowmere.test', 'modeler@tallowmere.test']);
     expect(mail.receivedText).toContain('adopt the challenger');
     expect(mail.receivedText).toContain('It applies from 2026-03-01.');
     expect(mail.receivedText).toContain('Monitor the web channel monthly.');
@@ -164,6 +184,17 @@ describe('the review workflow, end to end', () => {
   it('a decided comparison takes no more votes or decisions (409)', async () => {
     expect((await committee2.post(`/api/comparisons/${id}/votes`, { vote: 'keep' })).status).toBe(409);
     expect((await committee2.post(`/api/comparisons/${id}/decision`, { outcome: 'keep', rationale: 'Again' })).status).toBe(409);
+  });
+
+  it('after the decision the record is closed: re-evaluation is refused, a later note is marked as after the decision', async () => {
+    const again = await analyst.post(`/api/comparisons/${id}/verdicts`, {});
+    expect(again.status).toBe(409);
+    expect((again.body as { error: { message: string } }).error.message).toMatch(/^This comparison is decided: its record is closed/);
+    const note = await analyst.post(`/api/comparisons/${id}/notes`, { body: 'Seen after the meeting.' });
+    expect(note.status).toBe(201);
+    expect(note.body).toMatchObject({ body: 'Seen after the meeting.', afterDecision: true });
+    const detail = (await analyst.get(`/api/comparisons/${id}`)).body as { verdict: { id: number } };
+    expect(detail.verdict.id).toBe((await governance()).verdicts[0].id);
   });
 
   it('the audit trail holds every step in order, with actors, and the chain verifies', async () => {
@@ -188,15 +219,15 @@ describe('the review workflow, end to end', () => {
       'vote.cast',
       'vote.cast',
       'vote.changed',
-      'policy.changed',
       'comparison.decided',
       'comparison.pack_archived',
+      'note.added',
     ]);
     const ids = trail.events.map((event) => event.id);
     expect([...ids].sort((a, b) => a - b)).toEqual(ids);
     const decided = trail.events.find((event) => event.action === 'comparison.decided')!;
     expect(decided.actor).toEqual({ id: expect.any(Number), name: 'Henrik Aalto' });
-    expect(decided.details).toMatchObject({ from: 'validated', to: 'decided', outcome: 'adopt', policyVersion: 3, votes: { adopt: 2, keep: 0, defer: 0 } });
+    expect(decided.details).toMatchObject({ from: 'validated', to: 'decided', outcome: 'adopt', policyVersion: 2, votes: { adopt: 2, keep: 0, defer: 0 } });
     const returned = trail.events.find((event) => event.action === 'comparison.returned')!;
     expect(returned.details).toMatchObject({ findings: 'Rerun with seed 7 and check the web channel.' });
     // Each event links to the one recorded before it anywhere in the trail.
@@ -238,7 +269,8 @@ describe('the review workflow, end to end', () => {
     expect(pack.votes[2].replacesId).not.toBeNull();
     expect(pack.countingVotes).toHaveLength(2);
     expect(pack.decision.outcome).toBe('adopt');
-    expect(pack.policyVersions.map((version) => version.policy.version)).toEqual([1, 3]);
+    // The run's verdict and the decision both under version 2 (the one in force at submission).
+    expect(pack.policyVersions.map((version) => version.policy.version)).toEqual([2]);
     expect(pack.policyVersions[0].policy).toEqual(defaultAdoptionPolicy);
     expect(pack.audit.chainValid).toBe(true);
     expect(pack.hashes.lastAuditEventHash).toBe(pack.audit.events.at(-1)!.hash);

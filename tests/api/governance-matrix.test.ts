@@ -1,4 +1,5 @@
 import type { ComparisonState } from '@shared/comparisons';
+import { workflowSteps, type WorkflowStep } from '@shared/workflow';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
@@ -14,15 +15,29 @@ import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
  * All comparisons are created by one person who holds every workflow role.
  */
 
-type Step = 'submit' | 'validate' | 'return' | 'vote' | 'decide';
-
-const steps: Record<Step, { path: string; body: object; role: 'modeler' | 'analyst' | 'committee'; from: ComparisonState[]; fourEyes: boolean }> = {
-  submit: { path: 'submit', body: { message: '' }, role: 'modeler', from: ['analysed'], fourEyes: false },
-  validate: { path: 'review', body: { outcome: 'validated', findings: 'Fine.' }, role: 'analyst', from: ['in-review'], fourEyes: true },
-  return: { path: 'review', body: { outcome: 'returned', findings: 'Not yet.' }, role: 'analyst', from: ['in-review'], fourEyes: true },
-  vote: { path: 'votes', body: { vote: 'adopt', comment: '' }, role: 'committee', from: ['validated'], fourEyes: true },
-  decide: { path: 'decision', body: { outcome: 'keep', rationale: 'Not material.' }, role: 'committee', from: ['validated'], fourEyes: true },
+const decideBody = {
+  outcome: 'keep',
+  rationale: 'Not material: the uplift is below what the bank needs to justify the cost of a model change this year.',
+  acknowledgeAgainstRecord: true,
 };
+
+type Step = WorkflowStep;
+
+// The matrix runs from the one workflow table (shared/workflow.ts): each step's role, the states it
+// starts from and whether four-eyes applies; only the bodies are the test's own.
+const bodies: Record<Step, object> = {
+  submit: { message: '' },
+  validate: { outcome: 'validated', findings: 'Fine.' },
+  return: { outcome: 'returned', findings: 'Not yet.' },
+  vote: { vote: 'adopt', comment: '' },
+  decide: decideBody,
+};
+const steps = Object.fromEntries(
+  (Object.keys(workflowSteps) as Step[]).map((step) => {
+    const rule = workflowSteps[step];
+    return [step, { path: rule.path, body: bodies[step], role: rule.role as 'modeler' | 'analyst' | 'committee', from: [...rule.from], fourEyes: rule.fourEyes }];
+  }),
+) as Record<Step, { path: string; body: object; role: 'modeler' | 'analyst' | 'committee'; from: ComparisonState[]; fourEyes: boolean }>;
 /** A role each step does not name. */
 const wrongRole: Record<Step, 'policy' | 'analyst' | 'modeler'> = { submit: 'analyst', validate: 'policy', return: 'modeler', vote: 'analyst', decide: 'policy' };
 
@@ -45,7 +60,7 @@ async function driveTo(id: number, state: ComparisonState): Promise<void> {
   await ok(owner.post(`/api/comparisons/${id}/submit`, {}));
   if (state === 'in-review') return;
   await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, { outcome: state === 'returned' ? 'returned' : 'validated', findings: 'Set-up.' }));
-  if (state === 'decided') await ok(clients.get('committee')!.post(`/api/comparisons/${id}/decision`, { outcome: 'defer', rationale: 'Set-up.' }));
+  if (state === 'decided') await ok(clients.get('committee')!.post(`/api/comparisons/${id}/decision`, { ...decideBody, outcome: 'defer' }));
 }
 
 beforeAll(async () => {
@@ -72,7 +87,7 @@ beforeAll(async () => {
   await driveTo(spare.get('return')!, 'in-review');
   await driveTo(spare.get('vote')!, 'validated');
   await driveTo(spare.get('decide')!, 'validated');
-}, 60_000);
+}, 240_000);
 afterAll(async () => {
   await t.close();
 });
@@ -92,11 +107,13 @@ describe('workflow: the 403/409 matrix', () => {
     for (const [step, rule] of Object.entries(steps) as [Step, (typeof steps)[Step]][]) {
       for (const state of states) {
         const id = inState.get(state)!;
+        // A returned comparison is submitted again only after a new run: the step's own condition (409).
+        const opens = rule.from.includes(state) && !(step === 'submit' && state === 'returned');
         const callers: [string, TestClient, number][] = [
           [`${wrongRole[step]} (wrong role)`, clients.get(wrongRole[step])!, 403],
-          ['creator holding the role', owner, rule.fourEyes ? 403 : rule.from.includes(state) ? 200 : 409],
+          ['creator holding the role', owner, rule.fourEyes ? 403 : opens ? 200 : 409],
           // The successful cells are checked on spare comparisons below, so the matrix's stay put.
-          [`${rule.role} (not the creator)`, clients.get(rule.role)!, rule.from.includes(state) ? 200 : 409],
+          [`${rule.role} (not the creator)`, clients.get(rule.role)!, opens ? 200 : 409],
         ];
         for (const [who, client, want] of callers) {
           if (want === 200) continue;
@@ -137,7 +154,7 @@ describe('workflow: the 403/409 matrix', () => {
     await waitForRuns(t);
     const before = await lastOutboxId(t);
     await ok(owner.post(`/api/comparisons/${id}/submit`, {}));
-    expect((await outboxAfter(t, before)).map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    expect((await outboxAfter(t, before)).map((message) => message.to)).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
     const validated = await lastOutboxId(t);
     await ok(clients.get('analyst')!.post(`/api/comparisons/${id}/review`, steps.validate.body));
     expect((await outboxAfter(t, validated)).map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
@@ -186,6 +203,32 @@ describe('workflow: the 403/409 matrix', () => {
     const detail = (await rerunnerClient.get(`/api/comparisons/${id}`)).body as { authorIds: number[]; createdBy: { id: number } };
     expect(detail.authorIds).toEqual(governance.authors.map((author) => author.id));
     expect(detail.authorIds).toEqual(expect.arrayContaining([rerunner.id, detail.createdBy.id]));
+    // The set-up by another modeler than the creator is recorded and named as such.
+    const trail = (await rerunnerClient.get(`/api/comparisons/${id}/audit`)).body as { events: { action: string; details: Record<string, unknown> }[] };
+    const setup = trail.events.find((event) => event.action === 'comparison.setup')!;
+    expect(setup.details).toMatchObject({ byOtherThanCreator: { id: rerunner.id, name: rerunner.name }, creator: { id: detail.createdBy.id } });
+  });
+
+  it('the submitter cannot validate a comparison someone else created (four-eyes covers the submitter)', async () => {
+    // issue 13: a person holding modeler and analyst submitted a colleague's comparison, then validated it.
+    const { user: submitter, client: submitterClient } = await personWith(t, 'submitter@tallowmere.test', ['modeler', 'analyst']);
+    const upload = await uploadFile(clients.get('modeler')!, sample2k(), 'submitted-by-another.csv');
+    const created = await clients.get('modeler')!.post('/api/comparisons', {
+      name: 'Submitted by a colleague',
+      holdoutId: (upload.body as { id: number }).id,
+      mapping: sampleMapping,
+      settings: { bootstrap: 0 },
+    });
+    expect(created.status).toBe(201);
+    const id = (created.body as { id: number }).id;
+    await waitForRuns(t);
+    await ok(submitterClient.post(`/api/comparisons/${id}/submit`, {}));
+    const review = await submitterClient.post(`/api/comparisons/${id}/review`, steps.validate.body);
+    expect(review.status).toBe(403);
+    expect((review.body as { error: { message: string } }).error.message).toMatch(/submitted it.*four-eyes/);
+    expect(await stateOf(id)).toBe('in-review');
+    const governance = (await submitterClient.get(`/api/comparisons/${id}/governance`)).body as { authors: { id: number }[] };
+    expect(governance.authors.map((author) => author.id)).toContain(submitter.id);
   });
 
   it('answers 404 for a comparison that does not exist, before any state rule', async () => {

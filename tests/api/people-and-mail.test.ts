@@ -3,6 +3,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, MailMessage, OneTimeToken, Session, User } from '@server/db/entities/index';
 import { hashToken } from '@server/auth/tokens';
 import { buildTestApp, type TestApp } from './helpers/app';
+import type { AppContext } from '@server/context';
+import type { AppError } from '@server/errors';
+import { updateUser } from '@server/users/service';
 import { TestClient, signedInAs } from './helpers/client';
 import { lastOutboxId } from './helpers/governance';
 
@@ -214,9 +217,41 @@ describe('people (admin)', () => {
     expect(demote.status).toBe(409);
     const stillAdmin = await t.dataSource.getRepository(User).findOneByOrFail({ id: me.id });
     expect(stillAdmin).toMatchObject({ active: true, roles: ['admin'] });
-    // Adding a role to oneself is fine.
-    expect((await admin.patch(`/api/users/${me.id}`, { roles: ['admin', 'committee'] })).status).toBe(200);
-    expect((await admin.patch(`/api/users/${me.id}`, { roles: ['admin'] })).status).toBe(200);
+    // issue 13: nobody changes their own roles, not even to add one (an admin granting themselves
+    // the committee role could then decide).
+    const grant = await admin.patch(`/api/users/${me.id}`, { roles: ['admin', 'committee'] });
+    expect(grant.status).toBe(409);
+    expect((grant.body as { error: { message: string } }).error.message).toBe('You cannot change your own roles; ask another administrator.');
+    expect((await t.dataSource.getRepository(User).findOneByOrFail({ id: me.id })).roles).toEqual(['admin']);
+  });
+
+  it('keeps one active admin when two admins remove each other at the same moment', async () => {
+    const me = (await admin.get('/api/auth/me').expect(200)).body.user as { id: number };
+    const analyst = (await t.dataSource.getRepository(User).find()).find((person) => person.roles.join() === 'analyst')!;
+    expect((await admin.patch(`/api/users/${analyst.id}`, { roles: ['analyst', 'admin'] })).status).toBe(200);
+    const other = await signedInAs(t.app, 'analyst');
+    const otherMe = (await other.get('/api/auth/me').expect(200)).body.user as { id: number; roles: string[] };
+    expect(otherMe.roles).toContain('admin');
+    // Both past the route's guard, the two changes meet in the service: transactions run one at a
+    // time and the count of other admins is read inside each, so the second is refused.
+    const users = t.dataSource.getRepository(User);
+    const [meUser, otherUser] = [await users.findOneByOrFail({ id: me.id }), await users.findOneByOrFail({ id: otherMe.id })];
+    const ctx = { dataSource: t.dataSource, mailer: t.mailer, config: t.config } as unknown as AppContext;
+    const results = await Promise.allSettled([
+      updateUser(ctx, meUser, otherMe.id, { roles: ['analyst'] }),
+      updateUser(ctx, otherUser, me.id, { active: false }),
+    ]);
+    expect(results.map((result) => result.status).sort()).toEqual(['fulfilled', 'rejected']);
+    const refused = results.find((result) => result.status === 'rejected') as PromiseRejectedResult;
+    expect((refused.reason as AppError).status).toBe(409);
+    expect((refused.reason as AppError).message).toMatch(/is the last active administrator/);
+    const admins = (await t.dataSource.getRepository(User).find()).filter((person) => person.active && person.roles.includes('admin'));
+    expect(admins).toHaveLength(1);
+    // Put things back for the tests after this one.
+    if (!admins.some((person) => person.id === me.id)) {
+      await t.dataSource.query(`UPDATE "users" SET "active" = 1 WHERE "id" = ?`, [me.id]);
+      await t.dataSource.query(`UPDATE "users" SET "roles" = ? WHERE "id" = ?`, [JSON.stringify(['analyst']), otherMe.id]);
+    }
   });
 
   it('answers 404 for a person who does not exist and 400 for an empty change', async () => {

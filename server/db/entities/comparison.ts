@@ -52,6 +52,14 @@ export class Comparison {
   @Column({ type: 'datetime' })
   createdAt: Date;
 
+  /**
+   * The adoption-policy version in force when it was last submitted for review: it governs the
+   * review and the decision (quorum, verdict) until the comparison is submitted again. Null before
+   * the first submission.
+   */
+  @Column({ type: 'integer', nullable: true })
+  governingPolicyVersion: number | null;
+
   @Column({ type: 'datetime' })
   updatedAt: Date;
 }

@@ -60,4 +60,8 @@ export class CutoffScenario {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** Saved after the comparison was decided: not part of what the committee saw. */
+  @Column({ type: 'boolean', default: false })
+  afterDecision: boolean;
 }

@@ -1,4 +1,5 @@
 import type { VoteChoice } from '@shared/governance';
+import type { MixedStrategyResult } from '@shared/mixed-strategy';
 import { Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import { AnalysisRun } from './analysis-run';
 import { Comparison } from './comparison';
@@ -75,4 +76,26 @@ export class Decision {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** The decider's name and e-mail when they decided (a later rename does not rewrite the record). */
+  @Column({ type: 'text', nullable: true })
+  decidedByName: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  decidedByEmail: string | null;
+
+  /** The counting votes when the decision was recorded: { adopt, keep, defer }. */
+  @Column({ type: 'simple-json', nullable: true })
+  tally: Record<VoteChoice, number> | null;
+
+  /** The decider acknowledged deciding against the majority of votes or without the quorum. */
+  @Column({ type: 'boolean', default: false })
+  acknowledgedAgainstRecord: boolean;
+
+  /**
+   * Adoption with exceptions: segment values that keep the champion (column and value), with the
+   * mixed strategy's figures as computed when the decision was recorded. Null for a plain decision.
+   */
+  @Column({ type: 'simple-json', nullable: true })
+  strategy: MixedStrategyResult | null;
 }

@@ -45,4 +45,8 @@ export class Note {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** Written after the comparison was decided: not part of what the committee saw. */
+  @Column({ type: 'boolean', default: false })
+  afterDecision: boolean;
 }

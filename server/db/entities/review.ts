@@ -44,4 +44,11 @@ export class Review {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** The reviewer's name and e-mail at the time (a later rename does not rewrite the record). */
+  @Column({ type: 'text', nullable: true })
+  reviewerName: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  reviewerEmail: string | null;
 }

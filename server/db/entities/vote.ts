@@ -54,4 +54,11 @@ export class Vote {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** The voter's name and e-mail at the time (a later rename does not rewrite the record). */
+  @Column({ type: 'text', nullable: true })
+  voterName: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  voterEmail: string | null;
 }

@@ -50,7 +50,7 @@ describe('compare CLI', () => {
     expect(stdout).toContain('Scorecourt comparison of tallowmere-holdout-2025-sample-2k.csv');
     expect(stdout).toContain('ΔGini');
     expect(stdout).toContain('bootstrap skipped');
-    expect(stdout).toMatch(/Verdict under adoption policy v1: (SUPPORTED|NOT-PROVEN|CHAMPION-BETTER)/);
+    expect(stdout).toMatch(/Verdict under adoption policy v2: (SUPPORTED|NOT-PROVEN|CHAMPION-BETTER)/);
     expect(stdout).toContain('Statistical significance is not business approval');
     expect(stdout).not.toContain('Swap sets by segment');
   });

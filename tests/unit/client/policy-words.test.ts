@@ -8,7 +8,7 @@ import { policyInOneSentence, policyRules } from '@/features/policy/components/p
 describe('the adoption policy in words', () => {
   it('says the policy a report was judged under in one sentence', () => {
     expect(policyInOneSentence(defaultAdoptionPolicy)).toBe(
-      'Policy version 1: α = 0.05 (one-sided), materiality 2 Gini points, interval above zero required, swap rule at a 70.0% approval rate, at least 300 bads, quorum none.',
+      'Policy version 2: α = 0.05 (one-sided), materiality 2 Gini points, interval above zero required, swap rule at a 70.0% approval rate, at least 300 bads, quorum 2.',
     );
     expect(
       policyInOneSentence({ ...defaultAdoptionPolicy, version: 4, sided: 'two-sided', alpha: 0.01, requireIntervalAboveZero: false, swapRule: { enabled: false, approvalRate: 0.725 }, quorum: 2 }),

@@ -46,7 +46,7 @@ describe('auc', () => {
     // 0.0325 (proc.R computes it), published as SE 0.032 (from memory); DeLong's SE is 0.0307.
     const result = pairedDelong(b, b, holdout.bad, 0.95);
     const expected = proc.cases[referenceCase.file];
-    expect(Math.abs(result.champion.variance - expected.champion.var) / expected.champion.var).toBeLessThan(1e-10);
+    expect(Math.abs(result.champion.variance! - expected.champion.var) / expected.champion.var).toBeLessThan(1e-10);
     expect(expected.hanleyMcNeilSe!).toBeCloseTo(0.032, 3);
     expect(result.champion.aucSe).toBeGreaterThan(0.025);
     expect(result.champion.aucSe).toBeLessThan(0.035);

@@ -52,10 +52,10 @@ describe('paired DeLong', () => {
         const forward = run(a, b, bad).difference;
         const backward = run(b, a, bad).difference;
         expect(backward.auc + forward.auc).toBe(0);
-        expect(Math.abs(backward.se - forward.se)).toBeLessThanOrEqual(1e-15);
-        expect(Math.abs(backward.z + forward.z)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(forward.z)));
-        expect(Math.abs(backward.pTwoSided - forward.pTwoSided)).toBeLessThan(1e-12);
-        expect(Math.abs(backward.pOneSided + forward.pOneSided - 1)).toBeLessThan(1e-12);
+        expect(Math.abs(backward.se! - forward.se!)).toBeLessThanOrEqual(1e-15);
+        expect(Math.abs(backward.z! + forward.z!)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(forward.z!)));
+        expect(Math.abs(backward.pTwoSided! - forward.pTwoSided!)).toBeLessThan(1e-12);
+        expect(Math.abs(backward.pOneSided! + forward.pOneSided! - 1)).toBeLessThan(1e-12);
       }),
     );
   });
@@ -69,10 +69,6 @@ describe('paired DeLong', () => {
     );
     // constant champion, constant challenger
     expect(finiteEverywhere(run([5, 5, 5, 5], [5, 5, 5, 5], [0, 1, 0, 1]))).toBe(true);
-    // a single bad: the bads' variance term is undefined and taken as 0
-    const single = run([1, 2, 3, 4, 5], [2, 1, 3, 5, 4], [1, 0, 0, 0, 0]);
-    expect(finiteEverywhere(single)).toBe(true);
-    expect(single.champion.aucSe).toBe(0); // the good placements are all 1: no spread left
     // perfect separation against constant scores: se = 0 with Δ ≠ 0
     const perfect = run([5, 5, 5, 5], [1, 2, 3, 4], [1, 1, 0, 0]);
     expect(perfect.difference.auc).toBe(0.5);
@@ -82,6 +78,21 @@ describe('paired DeLong', () => {
     expect(finiteEverywhere(perfect)).toBe(true);
   });
 
+  it('gives no variance, test or interval with fewer than 2 bads or 2 goods, and says why', () => {
+    // A sample variance needs two observations (issue 13: one bad used to give z = 1.8e308).
+    const single = run([1, 2, 3, 4, 5], [2, 1, 3, 5, 4], [1, 0, 0, 0, 0]);
+    expect(single.difference).toMatchObject({ se: null, giniSe: null, z: null, pTwoSided: null, pOneSided: null, aucCi: null, giniCi: null });
+    expect(single.champion).toMatchObject({ variance: null, aucSe: null, aucCi: null, giniCi: null });
+    expect(single.difference.inference).toBe('only 1 bad: a variance needs at least 2 goods and 2 bads, so there is no standard error, test or interval');
+    // the AUCs are still given: champion ranks the bad lowest (AUC 1), challenger second lowest (0.75)
+    expect(single.champion.auc).toBe(1);
+    expect(single.challenger.auc).toBe(0.75);
+    const oneGood = run([1, 2, 3, 4], [2, 1, 3, 4], [1, 1, 1, 0]);
+    expect(oneGood.difference.inference).toMatch(/^only 1 good:/);
+    expect(oneGood.difference.pTwoSided).toBeNull();
+    expect(run([1, 2, 3, 4], [2, 1, 4, 3], [1, 1, 0, 0]).difference.inference).toBeNull();
+  });
+
   it('uses the confidence level for every interval', () => {
     const champion = [1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
     const challenger = [2, 1, 4, 3, 6, 5, 8, 7, 12, 11, 9, 10];
@@ -89,16 +100,16 @@ describe('paired DeLong', () => {
     const at95 = run(champion, challenger, bad, 0.95);
     const at99 = run(champion, challenger, bad, 0.99);
     // half-widths scale with qnorm(0.975) = 1.959963984540054 and qnorm(0.995) = 2.5758293035489 (R)
-    const width = (r: typeof at95) => r.difference.aucCi[1] - r.difference.aucCi[0];
+    const width = (r: typeof at95) => r.difference.aucCi![1] - r.difference.aucCi![0];
     expect(width(at99) / width(at95)).toBeCloseTo(2.5758293035489 / 1.959963984540054, 12);
-    expect(at95.difference.giniCi[0]).toBeCloseTo(2 * at95.difference.aucCi[0], 15);
+    expect(at95.difference.giniCi![0]).toBeCloseTo(2 * at95.difference.aucCi![0], 15);
   });
 
   it('clamps the AUC interval to [0, 1]', () => {
     const result = run([1, 2, 3, 4], [1, 2, 4, 3], [1, 1, 0, 0]);
     expect(result.champion.auc).toBe(1);
-    expect(result.champion.aucCi[1]).toBeLessThanOrEqual(1);
-    expect(result.challenger.aucCi[1]).toBeLessThanOrEqual(1);
+    expect(result.champion.aucCi![1]).toBeLessThanOrEqual(1);
+    expect(result.challenger.aucCi![1]).toBeLessThanOrEqual(1);
   });
 
   it('refuses models scored on different accounts or a single class', () => {

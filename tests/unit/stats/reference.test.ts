@@ -37,25 +37,25 @@ describe.each(cases.filter((c) => !c.single))('reference holdout $file', (refere
     expect(Math.abs(result.challenger.auc - expected.challenger.auc)).toBeLessThan(1e-9);
     expect(Math.abs(auc(blocks.champion) - expected.champion.auc)).toBeLessThan(1e-9);
     // pROC: var(roc, method = "delong"), cov(roc2, roc1, method = "delong")
-    expect(relative(result.champion.variance, expected.champion.var)).toBeLessThan(1e-10);
-    expect(relative(result.challenger.variance, expected.challenger.var)).toBeLessThan(1e-10);
-    expect(relative(result.difference.covariance, expected.cov)).toBeLessThan(1e-10);
+    expect(relative(result.champion.variance!, expected.champion.var)).toBeLessThan(1e-10);
+    expect(relative(result.challenger.variance!, expected.challenger.var)).toBeLessThan(1e-10);
+    expect(relative(result.difference.covariance!, expected.cov)).toBeLessThan(1e-10);
     // pROC: ci.auc(roc, method = "delong") — se-based, 1e-10 relative
-    expect(relative(result.champion.aucCi[0], expected.champion.ciLower)).toBeLessThan(1e-10);
-    expect(relative(result.champion.aucCi[1], expected.champion.ciUpper)).toBeLessThan(1e-10);
-    expect(relative(result.challenger.aucCi[0], expected.challenger.ciLower)).toBeLessThan(1e-10);
-    expect(relative(result.challenger.aucCi[1], expected.challenger.ciUpper)).toBeLessThan(1e-10);
+    expect(relative(result.champion.aucCi![0], expected.champion.ciLower)).toBeLessThan(1e-10);
+    expect(relative(result.champion.aucCi![1], expected.champion.ciUpper)).toBeLessThan(1e-10);
+    expect(relative(result.challenger.aucCi![0], expected.challenger.ciLower)).toBeLessThan(1e-10);
+    expect(relative(result.challenger.aucCi![1], expected.challenger.ciUpper)).toBeLessThan(1e-10);
     // pROC: roc.test(challenger, champion, method = "delong", paired = TRUE): statistic, p.value,
     // conf.int; and alternative = "greater" for the one-sided p.
-    expect(relative(result.difference.z, expected.z)).toBeLessThan(1e-10);
-    expect(relative(result.difference.se, (expected.challenger.auc - expected.champion.auc) / expected.z)).toBeLessThan(1e-10);
-    expect(relative(result.difference.pTwoSided, expected.pTwoSided)).toBeLessThan(1e-10);
-    expect(relative(result.difference.pOneSided, expected.pOneSided)).toBeLessThan(1e-10);
-    expect(relative(result.difference.aucCi[0], expected.ciLower)).toBeLessThan(1e-10);
-    expect(relative(result.difference.aucCi[1], expected.ciUpper)).toBeLessThan(1e-10);
+    expect(relative(result.difference.z!, expected.z!)).toBeLessThan(1e-10);
+    expect(relative(result.difference.se!, (expected.challenger.auc - expected.champion.auc) / expected.z!)).toBeLessThan(1e-10);
+    expect(relative(result.difference.pTwoSided!, expected.pTwoSided!)).toBeLessThan(1e-10);
+    expect(relative(result.difference.pOneSided!, expected.pOneSided!)).toBeLessThan(1e-10);
+    expect(relative(result.difference.aucCi![0], expected.ciLower)).toBeLessThan(1e-10);
+    expect(relative(result.difference.aucCi![1], expected.ciUpper)).toBeLessThan(1e-10);
     // sqrt(V1 + V2 − 2C) is the se computed from the placement differences
     const { varianceChampion, varianceChallenger, covariance } = result.difference;
-    expect(relative(result.difference.se, Math.sqrt(varianceChampion + varianceChallenger - 2 * covariance))).toBeLessThan(1e-9);
+    expect(relative(result.difference.se!, Math.sqrt(varianceChampion! + varianceChallenger! - 2 * covariance!))).toBeLessThan(1e-9);
     expect(result.difference.gini).toBeCloseTo(2 * result.difference.auc, 15);
   });
 
@@ -95,8 +95,8 @@ describe.each(cases.filter((c) => !c.single))('reference holdout $file', (refere
         const result = pairedDelong(blocks.champion, blocks.challenger, sub.bad, 0.95);
         expect(sub.n).toBe(expectedSegment.n);
         expect(Math.abs(result.champion.auc - expectedSegment.champion.auc)).toBeLessThan(1e-9);
-        expect(relative(result.difference.z, expectedSegment.z)).toBeLessThan(1e-10);
-        expect(relative(result.difference.pOneSided, expectedSegment.pOneSided)).toBeLessThan(1e-10);
+        expect(relative(result.difference.z!, expectedSegment.z!)).toBeLessThan(1e-10);
+        expect(relative(result.difference.pOneSided!, expectedSegment.pOneSided!)).toBeLessThan(1e-10);
       }
     });
   }

@@ -60,7 +60,7 @@ describe('buildReport', () => {
     // brokered credit — the scenario the demo was generated for.
     expect(report.difference.gini).toBeGreaterThan(0.02);
     expect(report.segments.find((row) => row.value === 'broker')!.deltaGini!).toBeLessThan(report.difference.gini);
-    expect(report.verdict.policyVersion).toBe(1);
+    expect(report.verdict.policyVersion).toBe(defaultAdoptionPolicy.version);
     // progress: monotone, from 0 to 1, with the bootstrap counted
     const fractions = progress.map((p) => p.fraction);
     expect(fractions[0]).toBe(0);
@@ -86,8 +86,8 @@ describe('buildReport', () => {
     const forward = await buildReport({ holdout, input, mapping: mappingFor(holdout), settings });
     const backward = await buildReport({ holdout: swapped, input, mapping: mappingFor(swapped), settings });
     expect(backward.difference.auc).toBeCloseTo(-forward.difference.auc, 15);
-    expect(backward.difference.z).toBeCloseTo(-forward.difference.z, 12);
-    expect(backward.difference.se).toBeCloseTo(forward.difference.se, 15);
+    expect(backward.difference.z!).toBeCloseTo(-forward.difference.z!, 12);
+    expect(backward.difference.se!).toBeCloseTo(forward.difference.se!, 15);
     expect(backward.champion.gini).toBe(forward.challenger.gini);
   });
 
@@ -108,6 +108,11 @@ describe('buildReport', () => {
     const one = reportSchema.parse(await buildReport({ holdout: single, input, mapping: mappingFor(single), settings: { bootstrap: 20 }, threads: 0 }));
     expect(one.bads).toBe(1);
     expect(one.verdict.criteria.find((c) => c.id === 'minimum-bads')!.met).toBe(false);
+    // issue 13: one bad gives no variance, test or interval, and the verdict is not proven with that reason
+    expect(one.difference).toMatchObject({ se: null, z: null, pOneSided: null, pTwoSided: null, giniCi: null });
+    expect(one.difference.inference).toMatch(/^only 1 bad:/);
+    expect(one.verdict.outcome).toBe('not-proven');
+    expect(one.verdict.criteria.find((c) => c.id === 'significance')!.detail).toMatch(/^no DeLong test: only 1 bad/);
   });
 
   it('uses given cut-offs and economics settings, and a PD-oriented challenger', async () => {

@@ -1,5 +1,5 @@
 import { defaultAdoptionPolicy, type AdoptionPolicy } from '@shared/policy';
-import { analysisSettingsSchema, verdictSchema, type SwapCell, type SwapSets } from '@shared/report';
+import { analysisSettingsSchema, verdictSchema, type SegmentRow, type SwapCell, type SwapSets } from '@shared/report';
 import { describe, expect, it } from 'vitest';
 import { verdict, type VerdictEvidence } from '@server/stats/verdict';
 
@@ -28,7 +28,7 @@ function swap(rate: number, swapIn: [number, number], swapOut: [number, number])
 }
 
 /** The evidence of a report whose ΔGini is `gini` with interval `ci` and one-sided p. */
-function evidence(options: { gini: number; ci: [number, number]; z: number; pOne: number; pTwo: number; bads?: number; swap?: SwapSets }): VerdictEvidence {
+function evidence(options: { gini: number; ci: [number, number]; z: number; pOne: number; pTwo: number; bads?: number; swap?: SwapSets; segments?: SegmentRow[] }): VerdictEvidence {
   const se = 0.01;
   return {
     bads: options.bads ?? 412,
@@ -51,7 +51,9 @@ function evidence(options: { gini: number; ci: [number, number]; z: number; pOne
       varianceChallenger: 1e-4,
       covariance: 9e-5,
       correlation: 0.9,
+      inference: null,
     },
+    segments: options.segments ?? [],
   };
 }
 
@@ -62,23 +64,24 @@ describe('verdict', () => {
     const result = verdict(strong, defaultAdoptionPolicy);
     expect(verdictSchema.parse(result)).toEqual(result);
     expect(result.outcome).toBe('supported');
-    expect(result.policyVersion).toBe(1);
+    expect(result.policyVersion).toBe(2);
     expect(result.criteria.map((c) => [c.id, c.met])).toEqual([
       ['significance', true],
       ['materiality', true],
       ['interval', true],
       ['swap-bad-rate', true],
       ['minimum-bads', true],
+      ['segments', true],
     ]);
     const detail = Object.fromEntries(result.criteria.map((c) => [c.id, c.detail]));
     expect(detail.significance).toMatch(/^one-sided p = 3\.0 × 10⁻⁴ < α = 0\.05/);
     expect(detail.materiality).toBe('ΔGini = 4.1 points, at least the 2.0 points required');
     expect(detail.interval).toBe('the 95% interval of ΔGini is 2.0 to 6.2 points: its lower bound is above 0');
-    expect(detail['swap-bad-rate']).toMatch(/^at a 70% approval rate the swap-in is 812 accounts with a 3\.1% bad rate and the swap-out 812 accounts with a 6\.4% bad rate: the swap-in bad rate is not above/);
+    expect(detail['swap-bad-rate']).toMatch(/^at the policy's 70% approval rate the swap-in is 812 accounts with a 3\.1% bad rate and the swap-out 812 accounts with a 6\.4% bad rate: the swap-in bad rate is not above/);
     expect(detail['minimum-bads']).toBe('412 bads in the holdout, at least the 300 required');
     // The sentence of the brief, with p below 0.001 in scientific notation.
     expect(result.summary).toBe(
-      "The challenger's Gini is 4.1 points higher (95% interval 2.0 to 6.2, one-sided p = 3.0 × 10⁻⁴); at a 70% approval rate it swaps in 812 accounts with a 3.1% bad rate for 812 with a 6.4% bad rate.",
+      "The challenger's Gini is 4.1 points higher (95% interval 2.0 to 6.2, one-sided p = 3.0 × 10⁻⁴); at the policy's 70% approval rate it swaps in 812 accounts with a 3.1% bad rate for 812 with a 6.4% bad rate.",
     );
   });
 
@@ -135,16 +138,21 @@ describe('verdict', () => {
     const without = verdict(strong, policy);
     expect(without.policyVersion).toBe(2);
     expect(without.outcome).toBe('not-proven');
-    expect(without.criteria.find((c) => c.id === 'swap-bad-rate')).toMatchObject({ met: false, detail: expect.stringMatching(/at a 75% approval rate were not computed/) });
+    expect(without.criteria.find((c) => c.id === 'swap-bad-rate')).toMatchObject({ met: false, detail: expect.stringMatching(/at the policy's 75% approval rate were not computed/) });
     const at75 = swap(0.75, [900, 36], [900, 54]);
     const withSwap = verdict(strong, policy, at75);
     expect(withSwap.outcome).toBe('supported');
-    expect(withSwap.summary).toMatch(/at a 75% approval rate it swaps in 900 accounts with a 4\.0% bad rate for 900 with a 6\.0% bad rate\.$/);
+    expect(withSwap.summary).toMatch(/at the policy's 75% approval rate it swaps in 900 accounts with a 4\.0% bad rate for 900 with a 6\.0% bad rate \(the run's own swap sets are at 70%\)\.$/);
     expect(() => verdict(strong, policy, swap(0.7, [1, 0], [1, 0]))).toThrow(/75% approval rate/);
   });
 
   it('leaves out criteria the policy switches off', () => {
-    const policy: AdoptionPolicy = { ...defaultAdoptionPolicy, requireIntervalAboveZero: false, swapRule: { enabled: false, approvalRate: 0.7 } };
+    const policy: AdoptionPolicy = {
+      ...defaultAdoptionPolicy,
+      requireIntervalAboveZero: false,
+      swapRule: { enabled: false, approvalRate: 0.7 },
+      segmentRule: { enabled: false, minBads: 30 },
+    };
     const result = verdict(evidence({ gini: 0.03, ci: [-0.001, 0.061], z: 1.9, pOne: 0.029, pTwo: 0.058 }), policy);
     expect(result.criteria.map((c) => c.id)).toEqual(['significance', 'materiality', 'minimum-bads']);
     expect(result.outcome).toBe('supported');
@@ -158,7 +166,7 @@ describe('verdict', () => {
     const noSwapOut = verdict({ ...strong, swap: swap(0.7, [15, 3], [0, 0]) }, defaultAdoptionPolicy);
     expect(noSwapOut.criteria.find((c) => c.id === 'swap-bad-rate')!.met).toBe(false);
     const same = verdict({ ...strong, swap: swap(0.7, [0, 0], [0, 0]) }, defaultAdoptionPolicy);
-    expect(same.summary).toContain('at a 70% approval rate both models accept the same accounts.');
+    expect(same.summary).toContain("at the policy's 70% approval rate both models accept the same accounts.");
     const tiny = verdict(evidence({ gini: 0.2, ci: [0.18, 0.22], z: 40, pOne: 0, pTwo: 0 }), defaultAdoptionPolicy);
     expect(tiny.criteria[0].detail).toMatch(/^one-sided p < 1 × 10⁻³⁰⁰ < α/);
   });
@@ -171,5 +179,64 @@ describe('verdict', () => {
     };
     deepFreeze(frozen);
     expect(verdict(frozen, defaultAdoptionPolicy)).toEqual(verdict(strong, defaultAdoptionPolicy));
+  });
+
+  it('is not proven with fewer than 2 bads, and champion-better needs the minimum bads', () => {
+    // issue 13: one bad gave z = 1.8e308 and "champion better".
+    const none = evidence({ gini: -0.4, ci: [0, 0], z: 0, pOne: 1, pTwo: 1, bads: 1 });
+    const reason = 'only 1 bad: a variance needs at least 2 goods and 2 bads, so there is no standard error, test or interval';
+    none.difference = { ...none.difference, se: null, giniSe: null, z: null, pOneSided: null, pTwoSided: null, aucCi: null, giniCi: null, inference: reason };
+    const result = verdict(none, defaultAdoptionPolicy);
+    expect(result.outcome).toBe('not-proven');
+    expect(result.criteria.find((c) => c.id === 'significance')).toMatchObject({ met: false, detail: `no DeLong test: ${reason}` });
+    expect(result.criteria.find((c) => c.id === 'interval')).toMatchObject({ met: false, detail: `no interval of ΔGini: ${reason}` });
+    expect(result.summary).toContain(`(no interval or test: ${reason})`);
+    // Significantly worse on 120 bads, below the policy's 300: not proven, not champion-better.
+    const fewBads = verdict(evidence({ gini: -0.03, ci: [-0.05, -0.01], z: -3, pOne: 0.99865, pTwo: 0.0027, bads: 120 }), defaultAdoptionPolicy);
+    expect(fewBads.outcome).toBe('not-proven');
+  });
+
+  it('fails the segment rule for a value significantly worse, naming it in the detail and the sentence', () => {
+    const row = (value: string, bads: number, deltaGini: number, pHolm: number): SegmentRow => ({
+      column: 'region',
+      value,
+      n: bads * 10,
+      goods: bads * 9,
+      bads,
+      championGini: 0.5,
+      challengerGini: 0.5 + deltaGini,
+      deltaGini,
+      giniSe: 0.02,
+      p: pHolm / 3,
+      pTwoSided: pHolm / 3,
+      giniCi: [deltaGini - 0.04, deltaGini + 0.04],
+      pHolm,
+      tooFewBads: bads < 30,
+      flags: [],
+      note: null,
+    });
+    // ΔGini −11.1 on 870 bads with Holm p 2e-7 (the issue's region); a small value worse but with 12 bads.
+    const rows = [row('north', 870, -0.111, 2e-7), row('south', 900, 0.06, 0.001), row('islands', 12, -0.2, 0.001)];
+    const result = verdict({ ...strong, segments: rows }, defaultAdoptionPolicy);
+    expect(result.outcome).toBe('not-proven');
+    const criterion = result.criteria.find((c) => c.id === 'segments')!;
+    expect(criterion).toMatchObject({ met: false, label: 'No segment value significantly worse' });
+    expect(criterion.detail).toBe(
+      'significantly worse in region = north (ΔGini −11.1 points, Holm-adjusted p = 2.0 × 10⁻⁷) (Holm-adjusted two-sided DeLong test, α = 0.05); 1 value with fewer than 30 bads left out',
+    );
+    expect(result.summary).toContain('; it is significantly worse in region = north (ΔGini −11.1 points, Holm-adjusted p = 2.0 × 10⁻⁷).');
+    // Not worse once the value's Holm p is above α.
+    const fine = verdict({ ...strong, segments: [row('north', 870, -0.111, 0.2)] }, defaultAdoptionPolicy);
+    expect(fine.criteria.find((c) => c.id === 'segments')!.met).toBe(true);
+    // A policy version from before the rule (segmentRule off) does not check it.
+    expect(verdict({ ...strong, segments: rows }, { ...defaultAdoptionPolicy, segmentRule: { enabled: false, minBads: 30 } }).outcome).toBe('supported');
+  });
+
+  it("says the approval rate is the policy's, and the run's own rate when it differs", () => {
+    const at55 = { ...strong, swap: swap(0.55, [700, 20], [700, 40]) };
+    const result = verdict(at55, defaultAdoptionPolicy, swap(0.7, [812, 25], [812, 52]));
+    expect(result.summary).toContain("at the policy's 70% approval rate it swaps in 812 accounts");
+    expect(result.summary).toContain("(the run's own swap sets are at 55%)");
+    expect(verdict(strong, defaultAdoptionPolicy).summary).not.toContain("run's own");
   });
 });

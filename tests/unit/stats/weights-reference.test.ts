@@ -105,9 +105,9 @@ describe('(b) integer weights against the reference libraries on the row-expande
 describe('(c) the linearisation se against a seeded row bootstrap (numpy, 4,000 replicates)', () => {
   it('is within 5% for both AUCs and their difference', () => {
     const boot = python.weighted.bootstrap;
-    expect(relative(weighted.report.champion.aucSe, boot.seChampion)).toBeLessThan(0.05);
-    expect(relative(weighted.report.challenger.aucSe, boot.seChallenger)).toBeLessThan(0.05);
-    expect(relative(weighted.report.difference.se, boot.seDifference)).toBeLessThan(0.05);
+    expect(relative(weighted.report.champion.aucSe!, boot.seChampion)).toBeLessThan(0.05);
+    expect(relative(weighted.report.challenger.aucSe!, boot.seChallenger)).toBeLessThan(0.05);
+    expect(relative(weighted.report.difference.se!, boot.seDifference)).toBeLessThan(0.05);
   });
 
   it('differs from the naive DeLong of the expanded file, which treats copies as independent', () => {
@@ -121,10 +121,10 @@ describe('(d) a constant weight on the goods only', () => {
     for (const model of ['champion', 'challenger'] as const) {
       expect(relative(goodsWeighted.report[model].auc, plain.report[model].auc)).toBeLessThan(1e-14);
       expect(goodsWeighted.report[model].ks).toBe(plain.report[model].ks);
-      expect(relative(goodsWeighted.report[model].aucSe, plain.report[model].aucSe)).toBeLessThan(1e-12);
+      expect(relative(goodsWeighted.report[model].aucSe!, plain.report[model].aucSe!)).toBeLessThan(1e-12);
       expect(relative(goodsWeighted.report[model].auc, python.goodsWeighted[model].aucExpanded)).toBeLessThan(1e-13);
     }
-    expect(relative(goodsWeighted.report.difference.se, plain.report.difference.se)).toBeLessThan(1e-12);
+    expect(relative(goodsWeighted.report.difference.se!, plain.report.difference.se!)).toBeLessThan(1e-12);
   });
 
   it('moves the bad rate and the approval rates to the population values', () => {

@@ -63,7 +63,7 @@ export function Component() {
               histogram={bootstrap.histograms.deltaGini}
               interval={difference.giniBootstrapCi}
               estimate={difference.gini}
-              reference={{ label: `DeLong ${confidence} interval`, interval: difference.giniCi }}
+              reference={difference.giniCi ? { label: `DeLong ${confidence} interval`, interval: difference.giniCi } : undefined}
               confidence={confidence}
               format={formatGiniDelta}
             />

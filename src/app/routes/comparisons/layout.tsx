@@ -1,4 +1,5 @@
 import { type QueryClient } from '@tanstack/react-query';
+import { canSetUp } from '@shared/workflow';
 import { type LoaderFunctionArgs, Link, Outlet, redirect, useParams } from 'react-router';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
@@ -79,7 +80,8 @@ export function Component() {
   };
   const isModeler = hasRole(user, 'modeler');
   const bodySaysNextStep = bodyShowsNextStep(pageInput);
-  const verdict = report.data?.verdict.outcome ?? detail.headline?.verdict;
+  // One verdict everywhere: the comparison's current verdict record (newest, or the decided one).
+  const verdict = detail.verdict?.outcome ?? report.data?.verdict.outcome;
 
   let body;
   if (state.kind === 'report' && report.data) {
@@ -144,7 +146,7 @@ export function Component() {
         title={detail.name}
         subtitle={detail.description ?? undefined}
         actions={
-          isModeler && ['draft', 'analysed', 'returned'].includes(detail.state) && !active && detail.runs.length > 0 && !bodySaysNextStep ? (
+          isModeler && canSetUp(detail.state) && !active && detail.runs.length > 0 && !bodySaysNextStep ? (
             <ButtonLink to={paths.comparisons.setup(id)} size="sm">
               Change mapping or settings
             </ButtonLink>

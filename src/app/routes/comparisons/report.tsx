@@ -80,7 +80,8 @@ export function Component() {
   const g = governance.data;
   const trail = audit.data;
   const hasAmount = !!report.mapping.exposure;
-  const verdict = report.verdict;
+  // The comparison's current verdict record (the decided one after a decision), as every page shows it.
+  const verdict = comparison.verdict ?? report.verdict;
   const annotations = (notes.data ?? []).filter((note) => note.anchor !== 'discussion');
   const discussion = (notes.data ?? []).filter((note) => note.anchor === 'discussion');
   const segmentChart = segmentIntervalsChart(report);

@@ -122,7 +122,7 @@ export function Component() {
               <DecisionRecord decision={g.decision} />
             ) : actions.decide.kind === 'allowed' ? (
               <div className="grid grid-cols-1 gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-                <DecisionForm comparisonId={id} quorumMet={quorumMet} onDone={setNotice} />
+                <DecisionForm comparisonId={id} quorumMet={quorumMet} tally={g.tally} majority={g.majority} onDone={setNotice} />
                 <DecisionCautions compact />
               </div>
             ) : actions.decide.kind === 'refused' ? (

@@ -1,4 +1,5 @@
 import { type QueryClient } from '@tanstack/react-query';
+import { canSetUp } from '@shared/workflow';
 import { useCallback, useState } from 'react';
 import { type LoaderFunctionArgs, useNavigate, useParams } from 'react-router';
 import { type ValidationReport } from '@shared/comparisons';
@@ -38,7 +39,6 @@ export const loader = (queryClient: QueryClient) => async ({ request, params }: 
 };
 
 type Step = 'mapping' | 'check' | 'settings';
-const editableStates = new Set(['draft', 'analysed', 'returned']);
 
 /** Wizard steps 3–5 for a stored comparison: map the columns, check the data, choose settings, run. */
 export function Component() {
@@ -69,7 +69,7 @@ export function Component() {
     </PageHeader>
   );
 
-  if (!editableStates.has(detail.state) || isRunActive(detail)) {
+  if (!canSetUp(detail.state) || isRunActive(detail)) {
     return (
       <>
         <DocumentTitle>{`Set up ${detail.name}`}</DocumentTitle>

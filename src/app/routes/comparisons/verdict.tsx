@@ -1,9 +1,10 @@
 import { paths } from '@/config/paths';
-import { formatCount } from '@/lib/format';
+import { formatCount, formatPercent } from '@/lib/format';
 import { ButtonLink } from '@/components/button';
 import { Section } from '@/components/card';
 import { DecisionCautions } from '@/components/decision-cautions';
 import { CriteriaList } from '@/features/comparisons/components/criteria-list';
+import { FlaggedSegments } from '@/features/comparisons/components/flagged-segments';
 import { GiniContext } from '@/features/comparisons/components/gini-context';
 import { ModelMetrics } from '@/features/comparisons/components/model-metrics';
 import { SwapGlance } from '@/features/comparisons/components/swap-glance';
@@ -14,20 +15,37 @@ import { useComparisonPage } from '@/app/routes/comparisons/context';
 /** The comparison's front page: the verdict, the uplift against zero and materiality, the metrics and criteria. */
 export function Component() {
   const { comparison, report } = useComparisonPage();
+  // One verdict everywhere: the comparison's current verdict record (the newest under its policy
+  // version, or the one a decision was made on); the report's own only before records exist.
+  const verdict = comparison.verdict ?? report.verdict;
+  const policyRate = report.policy.swapRule.approvalRate;
+  const runRate = report.swap.basis === 'approval-rate' ? report.swap.requestedApprovalRate : null;
   return (
     <div className="space-y-6">
-      <VerdictHeadline verdict={report.verdict} />
+      <VerdictHeadline verdict={verdict} />
       <Section title="The uplift" description="How much better the challenger separates goods from bads, with the uncertainty of the estimate.">
         <UpliftChart report={report} />
       </Section>
       <div className="grid grid-cols-1 gap-6 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
         <Section title="Adoption criteria" description="The adoption policy turns the evidence into a recommendation; each rule with the numbers that decided it.">
-          <CriteriaList verdict={report.verdict} />
+          <CriteriaList verdict={verdict} />
         </Section>
         <Section title="Reading a Gini">
           <GiniContext report={report} />
         </Section>
       </div>
+      {report.segments.length > 0 ? (
+        <Section
+          title="Segments where the challenger is worse"
+          actions={
+            <ButtonLink to={paths.comparisons.segments(comparison.id)} size="sm">
+              All segments
+            </ButtonLink>
+          }
+        >
+          <FlaggedSegments report={report} />
+        </Section>
+      ) : null}
       <Section title="Both models" description={`On ${formatCount(report.rows)} accounts with ${formatCount(report.bads)} bads.`}>
         <ModelMetrics report={report} />
       </Section>
@@ -39,6 +57,12 @@ export function Component() {
           </ButtonLink>
         }
       >
+        {report.policy.swapRule.enabled && runRate !== policyRate ? (
+          <p className="mb-3 text-sm text-ink-soft" data-testid="approval-rate-sources">
+            These swap sets are at the run&apos;s {runRate === null ? 'own cut-offs' : `${formatPercent(runRate, 1)} approval rate`}; the verdict judges the swap rule at the
+            policy&apos;s {formatPercent(policyRate, 1)}.
+          </p>
+        ) : null}
         <SwapGlance report={report} />
       </Section>
       <DecisionCautions />

@@ -98,7 +98,7 @@ export function ComparisonsTable({ items, total, pageIndex, pageSize, onPageChan
         id: 'verdict',
         header: 'Verdict',
         cell: ({ row }) => {
-          const verdict = row.original.headline?.verdict;
+          const verdict = row.original.verdict?.outcome ?? row.original.headline?.verdict;
           return verdict ? <StatusBadge tone={verdictTones[verdict]}>{verdictLabels[verdict]}</StatusBadge> : <span className="text-ink-faint">—</span>;
         },
       }),

@@ -2,7 +2,7 @@ import { type Verdict } from '@shared/report';
 import { StatusBadge } from '@/components/status-badge';
 
 /** Each criterion of the adoption policy, met or not, with the numbers that decided it. */
-export function CriteriaList({ verdict }: { verdict: Verdict }) {
+export function CriteriaList({ verdict }: { verdict: Pick<Verdict, 'criteria' | 'policyVersion'> }) {
   const met = verdict.criteria.filter((criterion) => criterion.met).length;
   return (
     <div className="space-y-3">

@@ -15,13 +15,25 @@ const ROW = 46;
  * Every line is labelled in words on the drawing, and the caption says the same in a sentence.
  */
 export function UpliftChart({ report }: { report: Report }) {
+  const interval = report.difference.giniCi;
+  if (interval === null) {
+    return (
+      <p className="text-sm text-ink-soft" role="note">
+        No interval of the uplift: {report.difference.inference ?? 'the DeLong variance is undefined for this holdout'}.
+      </p>
+    );
+  }
+  return <UpliftDrawing report={report} interval={interval} />;
+}
+
+function UpliftDrawing({ report, interval }: { report: Report; interval: readonly [number, number] }) {
   const [ref, measured] = useElementWidth<HTMLDivElement>();
   const W = Math.max(420, measured);
   const { difference, policy, settings } = report;
   const materiality = policy.materialityGiniPoints / 100;
   const confidence = formatPercent(settings.confidence, 0);
   const rows: { label: string; sub: string; interval: readonly [number, number]; strong: boolean }[] = [
-    { label: `DeLong ${confidence} interval`, sub: 'paired test, the verdict uses it', interval: difference.giniCi, strong: true },
+    { label: `DeLong ${confidence} interval`, sub: 'paired test, the verdict uses it', interval, strong: true },
   ];
   if (difference.giniBootstrapCi) {
     rows.push({ label: `Bootstrap ${confidence} interval`, sub: `${formatCount(report.bootstrap.replicates)} paired replicates, cross-check`, interval: difference.giniBootstrapCi, strong: false });
@@ -33,8 +45,8 @@ export function UpliftChart({ report }: { report: Report }) {
   const height = TOP + rows.length * ROW + 52;
   const axisY = TOP + rows.length * ROW + 4;
   const caption = describeUplift(
-    { delta: difference.gini, interval: difference.giniCi, materiality },
-    { delta: formatGiniDelta(difference.gini), interval: formatInterval(difference.giniCi), materiality: formatGini(materiality), confidence },
+    { delta: difference.gini, interval, materiality },
+    { delta: formatGiniDelta(difference.gini), interval: formatInterval(interval), materiality: formatGini(materiality), confidence },
   );
 
   return (

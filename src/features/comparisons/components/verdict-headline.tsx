@@ -1,13 +1,9 @@
 import { type Verdict } from '@shared/report';
+import { verdictExplanation } from '@shared/verdict-words';
 import { cn } from '@/lib/cn';
 import { StatusBadge } from '@/components/status-badge';
 import { verdictLabels, verdictTones } from '@/features/comparisons/lib/state-tone';
 
-const explanations: Record<Verdict['outcome'], string> = {
-  supported: 'Every criterion of the adoption policy is met: the evidence supports the challenger.',
-  'not-proven': 'Not every criterion is met: the evidence does not establish that the challenger is better.',
-  'champion-better': 'The champion separates good from bad significantly better than the challenger.',
-};
 
 const frames: Record<Verdict['outcome'], string> = {
   supported: 'border-good/50',
@@ -16,7 +12,7 @@ const frames: Record<Verdict['outcome'], string> = {
 };
 
 /** The verdict in a word and a symbol, and the engine's one-sentence summary of the evidence. */
-export function VerdictHeadline({ verdict }: { verdict: Verdict }) {
+export function VerdictHeadline({ verdict }: { verdict: Pick<Verdict, 'outcome' | 'criteria' | 'summary' | 'policyVersion'> }) {
   return (
     <section aria-labelledby="verdict-title" className={cn('space-y-3 rounded-lg border-2 bg-paper-raised p-5', frames[verdict.outcome])}>
       <div className="flex flex-wrap items-center gap-3">
@@ -30,7 +26,7 @@ export function VerdictHeadline({ verdict }: { verdict: Verdict }) {
       <p className="max-w-4xl text-xl leading-snug font-medium text-ink" data-testid="verdict-summary">
         {verdict.summary}
       </p>
-      <p className="text-sm text-ink-soft">{explanations[verdict.outcome]} The verdict advises; the committee decides.</p>
+      <p className="text-sm text-ink-soft">{verdictExplanation(verdict)} Judged under adoption policy version {verdict.policyVersion}. The verdict advises; the committee decides.</p>
     </section>
   );
 }

@@ -1,5 +1,6 @@
 import { type ComparisonState, type RunStatus } from '@shared/comparisons';
 import { type Role } from '@shared/roles';
+import { workflowSteps } from '@shared/workflow';
 
 /**
  * The next step for the person looking at a comparison, from its state, its newest run and the
@@ -32,7 +33,7 @@ export interface NextStepInput {
 /** Why the four-eyes rule bars this person, in their words; null when it does not. */
 function authorship(input: NextStepInput): string | null {
   if (input.user.id === input.createdById) return 'You created this comparison';
-  if (input.authorIds.includes(input.user.id)) return 'You uploaded one of its holdouts or set up one of its analyses';
+  if (input.authorIds.includes(input.user.id)) return 'You uploaded one of its holdouts, set up one of its analyses or submitted it';
   return null;
 }
 
@@ -66,7 +67,7 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       }
       return null;
     case 'analysed':
-      if (role === 'modeler') {
+      if (role === workflowSteps.submit.role) {
         return {
           kind: 'action',
           title: 'Read the evidence, then submit it for review',
@@ -84,7 +85,7 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       }
       return null;
     case 'in-review':
-      if (role === 'analyst') {
+      if (role === workflowSteps.validate.role) {
         if (own) {
           return {
             kind: 'waiting',
@@ -109,7 +110,7 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       }
       return null;
     case 'validated':
-      if (role === 'committee') {
+      if (role === workflowSteps.decide.role) {
         if (own) {
           return {
             kind: 'waiting',
@@ -126,7 +127,7 @@ function forRole(role: Role, input: NextStepInput): NextStep | null {
       }
       return null;
     case 'returned':
-      if (role === 'modeler') {
+      if (role === workflowSteps.submit.role) {
         return {
           kind: 'action',
           title: 'Returned to you: read the findings',

@@ -1,6 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { decisionInputSchema, voteChoiceLabels, voteChoiceSchema } from '@shared/governance';
+import { decisionInputSchema, MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, voteChoiceSchema, type VoteChoice } from '@shared/governance';
+import { Checkbox } from '@/components/checkbox';
 import { errorMessage } from '@/lib/api-client';
 import { applyServerFieldErrors } from '@/lib/form-errors';
 import { Button } from '@/components/button';
@@ -16,16 +17,29 @@ const emptyToUndefined = (value: unknown) => (typeof value === 'string' && value
  * The committee's decision: the outcome, the rationale, conditions and the date it applies from.
  * Recording it ends the workflow; the server refuses it below the policy's quorum of votes.
  */
-export function DecisionForm({ comparisonId, quorumMet, onDone }: { comparisonId: number; quorumMet: boolean; onDone?: (message: string) => void }) {
+export function DecisionForm({
+  comparisonId,
+  quorumMet,
+  tally,
+  majority,
+  onDone,
+}: {
+  comparisonId: number;
+  quorumMet: boolean;
+  tally: Record<VoteChoice, number>;
+  majority: VoteChoice | null;
+  onDone?: (message: string) => void;
+}) {
   const decide = useRecordDecision(comparisonId);
   const {
     register,
     handleSubmit,
     setError,
+    watch,
     formState: { errors },
   } = useForm({
     resolver: zodResolver(decisionInputSchema),
-    defaultValues: { outcome: undefined, rationale: '', conditions: undefined, effectiveDate: undefined },
+    defaultValues: { outcome: undefined, rationale: '', conditions: undefined, effectiveDate: undefined, acknowledgeAgainstRecord: false },
   });
   // mutateAsync, not mutate's callbacks: the form leaves the page once the decision is recorded.
   const onSubmit = handleSubmit(async (values) => {
@@ -36,6 +50,10 @@ export function DecisionForm({ comparisonId, quorumMet, onDone }: { comparisonId
       applyServerFieldErrors(error, setError, ['outcome', 'rationale', 'conditions', 'effectiveDate']);
     }
   });
+  const outcome = watch('outcome');
+  // Against the majority, with no majority, or without the quorum: the server asks for an explicit
+  // acknowledgement and a rationale of real length; the form says so before it is sent.
+  const againstRecord = outcome !== undefined && (!quorumMet || majority !== outcome);
   return (
     <form onSubmit={onSubmit} noValidate className="space-y-4" aria-label="Record the decision">
       {decide.isError ? (
@@ -45,9 +63,24 @@ export function DecisionForm({ comparisonId, quorumMet, onDone }: { comparisonId
       ) : null}
       <RadioGroup legend="Decision" error={errors.outcome ? 'Choose the decision' : undefined}>
         {voteChoiceSchema.options.map((choice) => (
-          <Radio key={choice} label={voteChoiceLabels[choice]} value={choice} {...register('outcome')} />
+          <Radio
+            key={choice}
+            label={`${voteChoiceLabels[choice]} — ${tally[choice]} ${tally[choice] === 1 ? 'vote' : 'votes'}${majority === choice ? ' (majority)' : ''}`}
+            value={choice}
+            {...register('outcome')}
+          />
         ))}
       </RadioGroup>
+      {againstRecord ? (
+        <Alert tone="caution" title="This decision goes against the record">
+          <p>
+            {!quorumMet ? 'The quorum of votes is not met. ' : ''}
+            {majority === null ? 'The votes show no majority for it.' : majority !== outcome ? `The majority voted “${voteChoiceLabels[majority]}”.` : ''} Acknowledge it and give
+            the reason in at least {MIN_RATIONALE_AGAINST_RECORD} characters.
+          </p>
+          <Checkbox label="I record this decision against the votes or without the quorum, and say why in the rationale" {...register('acknowledgeAgainstRecord')} />
+        </Alert>
+      ) : null}
       <TextAreaField
         label="Rationale"
         hint="Why the committee decided this: the evidence it relied on and what it weighed against it."
@@ -71,10 +104,10 @@ export function DecisionForm({ comparisonId, quorumMet, onDone }: { comparisonId
         error={errors.effectiveDate ? 'Give a date as YYYY-MM-DD' : undefined}
         {...register('effectiveDate', { setValueAs: emptyToUndefined })}
       />
-      <Button type="submit" variant="primary" loading={decide.isPending} loadingText="Recording…" disabled={!quorumMet}>
+      <Button type="submit" variant="primary" loading={decide.isPending} loadingText="Recording…" >
         Record the decision
       </Button>
-      {!quorumMet ? <p className="text-sm text-ink-soft">The decision can be recorded once the quorum of votes is met.</p> : null}
+      {!quorumMet ? <p className="text-sm text-ink-soft">The quorum of votes is not met: a decision now needs the acknowledgement above.</p> : null}
     </form>
   );
 }

@@ -1,6 +1,7 @@
 import { type ComparisonState } from '@shared/comparisons';
 import { type Governance, type VoteChoice, voteChoiceSchema } from '@shared/governance';
 import { type Role } from '@shared/roles';
+import { fourEyesReason, stepAllowedFrom, workflowSteps } from '@shared/workflow';
 
 /**
  * What the person looking at the review page may do now, from the comparison's state, who shaped
@@ -34,8 +35,7 @@ const allowed: Permission = { kind: 'allowed' };
 const hidden: Permission = { kind: 'hidden' };
 const refused = (reason: string): Permission => ({ kind: 'refused', reason });
 
-const ownReason =
-  'You created this comparison, uploaded its holdout or set up one of its analyses, so someone else must do this (four-eyes rule).';
+const ownReason = fourEyesReason;
 
 export function viewerActions(input: WorkflowInput): ViewerActions {
   const { state, user } = input;
@@ -43,7 +43,7 @@ export function viewerActions(input: WorkflowInput): ViewerActions {
   const own = input.authorIds.includes(user.id);
 
   let submit: Permission = hidden;
-  if (has('modeler')) {
+  if (has(workflowSteps.submit.role)) {
     if (state === 'analysed') {
       submit =
         input.latestRunStatus === 'done'
@@ -54,20 +54,18 @@ export function viewerActions(input: WorkflowInput): ViewerActions {
     }
   }
 
-  const committeeStep = (): Permission => {
-    if (!has('committee')) return hidden;
-    if (state !== 'validated') return hidden;
-    return own ? refused(ownReason) : allowed;
+  // Review, vote and decide straight from the workflow table: its role, its states, four-eyes.
+  const judged = (step: 'validate' | 'vote' | 'decide'): Permission => {
+    const rule = workflowSteps[step];
+    if (!has(rule.role) || !stepAllowedFrom(step, state)) return hidden;
+    return rule.fourEyes && own ? refused(ownReason) : allowed;
   };
-
-  let review: Permission = hidden;
-  if (has('analyst') && state === 'in-review') review = own ? refused(ownReason) : allowed;
 
   return {
     submit,
-    review,
-    vote: committeeStep(),
-    decide: committeeStep(),
+    review: judged('validate'),
+    vote: judged('vote'),
+    decide: judged('decide'),
     reEvaluate: input.hasReport && (has('analyst') || has('committee') || has('admin')),
   };
 }

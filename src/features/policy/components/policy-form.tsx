@@ -35,7 +35,7 @@ export function PolicyForm({ current, onSaved }: { current: PolicyVersion; onSav
     try {
       version = await update.mutateAsync(values);
     } catch (error) {
-      applyServerFieldErrors(error, setError, ['alpha', 'sided', 'materialityGiniPoints', 'minBads', 'quorum', 'reason', 'swapRule.approvalRate']);
+      applyServerFieldErrors(error, setError, ['alpha', 'sided', 'materialityGiniPoints', 'minBads', 'quorum', 'reason', 'swapRule.approvalRate', 'segmentRule.minBads']);
       return;
     }
     const { version: _saved, ...next } = version.policy;
@@ -111,6 +111,19 @@ export function PolicyForm({ current, onSaved }: { current: PolicyVersion; onSav
               )}
             />
           ) : null}
+        </div>
+        <div className="space-y-3 sm:col-span-2">
+          <Checkbox label="No segment value significantly worse (Holm-adjusted two-sided test)" {...register('segmentRule.enabled')} />
+          <TextField
+            label="Leave out segment values with fewer bads than"
+            type="number"
+            inputMode="numeric"
+            step={1}
+            min={0}
+            className="max-w-xs"
+            error={errors.segmentRule?.minBads?.message}
+            {...register('segmentRule.minBads', { valueAsNumber: true })}
+          />
         </div>
         <StabilityRulesFields register={register} control={control} errors={errors} />
         <TextField

@@ -1,6 +1,6 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import { type SegmentRow } from '@shared/report';
-import { formatCount, formatGini, formatGiniDelta, formatPValue } from '@/lib/format';
+import { formatCount, formatGini, formatGiniDelta, formatInterval, formatPValue } from '@/lib/format';
 import { DataTable } from '@/components/data-table';
 import { EmptyState } from '@/components/empty-state';
 import { StatusBadge } from '@/components/status-badge';
@@ -19,7 +19,8 @@ function PCell({ p, alpha }: { p: number | null; alpha: number }) {
 
 /**
  * Both models within each value of each segment column: n, bads, both Ginis, ΔGini with its
- * DeLong p, the Holm-adjusted p across all segment rows, and a flag for too few bads.
+ * DeLong interval and two-sided p, the Holm-adjusted p across all segment rows, and the flags
+ * (significantly worse, materially worse, too few bads).
  */
 export function SegmentsTable({ segments, alpha }: { segments: SegmentRow[]; alpha: number }) {
   const columns = [
@@ -43,11 +44,23 @@ export function SegmentsTable({ segments, alpha }: { segments: SegmentRow[]; alp
         );
       },
     }),
-    column.accessor('p', { header: 'p', meta: { numeric: true }, cell: ({ getValue }) => <PCell p={getValue()} alpha={alpha} /> }),
+    column.accessor('giniCi', { header: 'ΔGini interval', enableSorting: false, meta: { numeric: true }, cell: ({ getValue }) => formatInterval(getValue(), formatGiniDelta) }),
+    column.accessor('p', { header: 'p, two-sided', meta: { numeric: true }, cell: ({ getValue }) => <PCell p={getValue()} alpha={alpha} /> }),
     column.accessor('pHolm', { header: 'p, Holm-adjusted', meta: { numeric: true }, cell: ({ getValue }) => <PCell p={getValue()} alpha={alpha} /> }),
-    column.accessor('tooFewBads', {
+    column.display({
+      id: 'flags',
       header: 'Flags',
-      cell: ({ getValue }) => (getValue() ? <StatusBadge tone="caution">Too few bads</StatusBadge> : <span className="text-ink-faint">none</span>),
+      cell: ({ row }) => {
+        const { flags, tooFewBads } = row.original;
+        if (flags.length === 0 && !tooFewBads) return <span className="text-ink-faint">none</span>;
+        return (
+          <span className="flex flex-wrap gap-1">
+            {flags.includes('significantly-worse') ? <StatusBadge tone="bad">Significantly worse</StatusBadge> : null}
+            {flags.includes('materially-worse') ? <StatusBadge tone="bad">Materially worse</StatusBadge> : null}
+            {tooFewBads ? <StatusBadge tone="caution">Too few bads</StatusBadge> : null}
+          </span>
+        );
+      },
     }),
     column.accessor('note', { header: 'Notes', enableSorting: false, cell: ({ getValue }) => <span className="text-ink-soft">{getValue() ?? ''}</span> }),
   ];
