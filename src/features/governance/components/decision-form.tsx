@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { decisionInputSchema, MIN_RATIONALE_AGAINST_RECORD, voteChoiceLabels, voteChoiceSchema, type VoteChoice } from '@shared/governance';
 import { Checkbox } from '@/components/checkbox';
 import { errorMessage } from '@/lib/api-client';
@@ -35,7 +35,7 @@ export function DecisionForm({
     register,
     handleSubmit,
     setError,
-    watch,
+    control,
     formState: { errors },
   } = useForm({
     resolver: zodResolver(decisionInputSchema),
@@ -50,7 +50,7 @@ export function DecisionForm({
       applyServerFieldErrors(error, setError, ['outcome', 'rationale', 'conditions', 'effectiveDate']);
     }
   });
-  const outcome = watch('outcome');
+  const outcome = useWatch({ control, name: 'outcome' });
   // Against the majority, with no majority, or without the quorum: the server asks for an explicit
   // acknowledgement and a rationale of real length; the form says so before it is sent.
   const againstRecord = outcome !== undefined && (!quorumMet || majority !== outcome);
