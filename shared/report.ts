@@ -403,6 +403,12 @@ export const verdictSchema = z.object({
 });
 export type Verdict = z.infer<typeof verdictSchema>;
 
+/**
+ * The largest amount (exposure) or sampling weight a row may carry: sums of amounts and weights
+ * over millions of rows must stay finite, and no loan or sampling weight comes near it.
+ */
+export const maxAmountMagnitude = 1e15;
+
 export const columnMappingSchema = z.object({
   outcome: z.string().min(1),
   /** The outcome value that means bad (the event); the other observed value means good. */

@@ -19,6 +19,7 @@ export type HoldoutInputCode =
   | 'same_column'
   | 'ragged_row'
   | 'not_a_number'
+  | 'amount_too_large'
   | 'missing_score'
   | 'missing_outcome'
   | 'bad_outcome'

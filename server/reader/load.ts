@@ -1,5 +1,5 @@
 import type { ValidationReport } from '@shared/comparisons';
-import type { ColumnMapping } from '@shared/report';
+import { type ColumnMapping, maxAmountMagnitude } from '@shared/report';
 import type { Holdout, SegmentColumn } from '@server/stats/holdout';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout } from './csv-records';
@@ -349,8 +349,8 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
           } else if (value === INVALID) {
             sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: ${quoteCell(cell.trim())} is not a number; a weight is a positive number`, line, weightName!));
             ok = false;
-          } else if (!(value > 0) || !Number.isFinite(value)) {
-            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is ${cell.trim()}; a weight must be a positive number`, line, weightName!));
+          } else if (!(value > 0) || !Number.isFinite(value) || value > maxAmountMagnitude) {
+            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is ${cell.trim()}; a weight must be a positive number, at most 10¹⁵`, line, weightName!));
             ok = false;
           } else rowWeight = value;
         }
@@ -393,6 +393,9 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
             ok = false;
           } else if (value === INVALID) {
             sink.report(new HoldoutInputError('not_a_number', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is not a number`, line, exposureName!));
+            ok = false;
+          } else if (Math.abs(value) > maxAmountMagnitude) {
+            sink.report(new HoldoutInputError('amount_too_large', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is too large for an amount (at most 10¹⁵ either way)`, line, exposureName!));
             ok = false;
           } else amount = value;
         }

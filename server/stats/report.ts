@@ -5,6 +5,7 @@ import {
   analysisSettingsSchema,
   type ColumnMapping,
   defaultRejectInference,
+  maxAmountMagnitude,
   type SegmentRow,
   type Difference,
   type ModelMetrics,
@@ -94,6 +95,13 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     request.onProgress?.({ fraction: last, stage });
   };
   const plain = !holdout.weight && !holdout.known;
+  // Sums of amounts and weights must stay finite (the reader refuses such rows, naming them).
+  for (const [column, values] of [['exposure', holdout.exposure], ['weight', holdout.weight ?? null]] as const) {
+    if (values === null) continue;
+    for (let i = 0; i < values.length; i++) {
+      if (!(Math.abs(values[i]) <= maxAmountMagnitude)) throw new StatisticError(`${column} of account ${i + 1} is ${values[i]}; amounts and weights must be finite and at most 1e15 in size`);
+    }
+  }
   const knownHoldout = knownRows(holdout);
   const { n, bad } = knownHoldout;
   let bads = 0;

@@ -132,6 +132,12 @@ describe('bad input', () => {
     for (const cell of ['0x1F', 'Infinity', '"1,5"']) expect((await failure(`bad,champion,challenger\n0,600,${cell}\n1,1,1\n`)).code).toBe('not_a_number');
   });
 
+  it('names the row and column of an amount too large to be summed (over 1e15)', async () => {
+    const error = await failure('bad,champion,challenger,amount\n0,600,610,1000\n1,550,540,1.7976931348623157e308\n', { exposure: 'amount' });
+    expect(error).toMatchObject({ code: 'amount_too_large', row: 3, column: 'amount' });
+    expect(error.message).toBe('row 3, column "amount": "1.7976931348623157e308" is too large for an amount (at most 10¹⁵ either way)');
+  });
+
   it('names an outcome outside the two values', async () => {
     const error = await failure('bad,champion,challenger\n0,600,0.1\n1,550,0.4\n2,500,0.2\n');
     expect(error.message).toBe('row 4, column "bad": "2" is neither the bad value "1" nor the good value "0"');
