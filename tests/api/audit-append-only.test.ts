@@ -41,7 +41,11 @@ beforeAll(async () => {
   };
   await step(modeler, 'submit', {});
   await step(clients.get('analyst')!, 'review', { outcome: 'validated', findings: 'Sound.' });
+  // The default quorum is two votes: the demo's second committee member votes too.
+  const committee2 = new TestClient(t.app);
+  expect((await committee2.signIn('committee2@tallowmere.test')).status).toBe(200);
   await step(clients.get('committee')!, 'votes', { vote: 'adopt' });
+  await step(committee2, 'votes', { vote: 'adopt' });
   await step(clients.get('committee')!, 'decision', { outcome: 'adopt', rationale: 'Clear gain.' });
   expect((await clients.get('policy')!.post(`/api/comparisons/${decidedId}/notes`, { anchor: 'swap-in', body: 'Swap-in looks clean.' })).status).toBe(201);
   // Two analyses and a decision, which lays out and archives the committee pack.

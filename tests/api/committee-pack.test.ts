@@ -5,7 +5,7 @@ import { type Report, swapInRiskier } from '@shared/report';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DecisionPack } from '@server/db/entities/index';
 import { buildTestApp, type TestApp } from './helpers/app';
-import { signedInAs, type TestClient } from './helpers/client';
+import { signedInAs, TestClient } from './helpers/client';
 import { lastOutboxId, waitForRuns } from './helpers/governance';
 import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
 import { download, pdfPages, pdfPageSizes, rawSheetXml, readWorkbook, sharedStringsXml, sheetRows } from './helpers/pack';
@@ -219,6 +219,10 @@ describe('the pack archived with the decision', () => {
   });
 
   it('stores the PDF with the decision, records its SHA-256 in the audit trail, and serves those bytes afterwards', async () => {
+    // The default quorum is two votes: both demo committee members vote before the decision.
+    const committee2 = new TestClient(t.app);
+    expect((await committee2.signIn('committee2@tallowmere.test')).status).toBe(200);
+    for (const member of [clients.committee, committee2]) expect((await member.post(`/api/comparisons/${id}/votes`, { vote: 'adopt' })).status).toBe(200);
     const decided = await clients.committee.post(`/api/comparisons/${id}/decision`, { outcome: 'adopt', rationale: 'Pack rationale: uplift is material.' });
     expect(decided.status, JSON.stringify(decided.body)).toBe(200);
     const stored = await t.dataSource.getRepository(DecisionPack).find();

@@ -67,7 +67,7 @@ describe('creating a comparison', () => {
     expect(done.runs[0]).toMatchObject({ status: 'done', progress: 1, attempts: 1, error: null, engineVersion: expect.any(String) });
     expect(done.currentRunId).toBe(done.runs[0].id);
     // The settings as stored: the defaults of shared/report.ts analysisSettingsSchema filled in.
-    expect(done.settings).toEqual({ bootstrap: 100, seed: 3, confidence: 0.95, approvalRate: 0.7, cutoffs: null, dropMissing: false, bands: 10, economics: null });
+    expect(done.settings).toEqual({ bootstrap: 100, seed: 3, confidence: 0.95, approvalRate: 0.7, cutoffs: null, dropMissing: false, bands: 10, economics: null, referencePeriod: null });
 
     const reportResponse = await modeler.get(`/api/comparisons/${id}/report`).expect(200);
     const report = reportSchema.parse(reportResponse.body);

@@ -61,12 +61,15 @@ describe('the demo scenario with a small bootstrap', () => {
     expect(full.verdict.criteria.find((criterion) => criterion.id === 'segments')).toMatchObject({ met: false, detail: expect.stringContaining('product_channel = credit-card/broker') });
     expect(full.verdict.summary).toContain('it is significantly worse in product_channel = credit-card/broker');
 
-    // The PD file holds the same accounts with the challenger's PD (the generator: both challenger
-    // columns come from the same safety value, points rounded to whole numbers), so the two
-    // comparisons differ only by the rounding's ties: within 0.5 Gini points.
+    // The PD file holds the same accounts and champion; the challenger's PD is the same safety
+    // value as its points except for brokered cards from July, whose PD is pulled down and blurred
+    // (sample-data/pd-and-development.ts), so its Gini is lower than the points challenger's (the
+    // same bounds as the full seed's test in tests/reliability/demo-seed.test.ts).
     const pd = await report(seeded.comparisons[1].id);
     expect(pd.challenger.higherIs).toBe('riskier');
-    expect(Math.abs(pd.challenger.gini - full.challenger.gini)).toBeLessThan(0.005);
+    expect(pd.champion.gini).toBe(full.champion.gini);
+    expect(full.challenger.gini - pd.challenger.gini).toBeGreaterThan(0.005);
+    expect(full.challenger.gini - pd.challenger.gini).toBeLessThan(0.03);
   });
 
   it('writes the demo texts from the stored report', async () => {
