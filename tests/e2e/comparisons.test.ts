@@ -143,7 +143,8 @@ describe('the new-comparison wizard', () => {
       expect(verdict).toMatch(/^The challenger's Gini is \d+\.\d points (higher|lower) \(95% interval/);
       await page.getByRole('heading', { name: 'Adoption criteria' }).waitFor();
       // Criteria say met / not met in words.
-      expect(await page.getByText(/^(Met|Not met)$/).count()).toBe(5);
+      // Six criteria by default: significance, materiality, interval, swap bad rate, enough bads, segments.
+      expect(await page.getByText(/^(Met|Not met)$/).count()).toBe(6);
       await page.getByText('Before anyone acts on this').waitFor();
       await tab.screenshot('verdict');
     });

@@ -97,7 +97,7 @@ describe('the README walkthrough on the demo database', () => {
     await asPerson('analyst', async ({ page }) => {
       await page.goto(paths.comparisons.detail(ids.inReview));
       await page.getByRole('heading', { level: 1, name: 'CF-3 as probability of default vs AS-19 — 2025 holdout' }).waitFor();
-      await page.getByText(/supported/i).first().waitFor();
+      await page.getByRole('heading', { name: 'Adoption criteria' }).waitFor();
       await capture(page, '3-analyst-verdict');
 
       await page.goto(paths.comparisons.segments(ids.decided));

@@ -138,7 +138,7 @@ describe('the demo on first start', () => {
     expect(governance.decision!.conditions).toMatch(/Brokered credit-card applications .* keep the champion’s decision/);
     expect(governance.decision!.conditions).toMatch(/swap-in bad rate monthly/);
     expect(governance.decision!.effectiveDate).toBe(new Date(momentOf('decision', today).getTime() + 14 * 86_400_000).toISOString().slice(0, 10));
-    expect(governance.verdicts.map((verdict) => verdict.outcome)).toEqual(['supported']);
+    expect(governance.verdicts.map((verdict) => verdict.outcome)).toEqual(['not-proven']);
 
     const { scenarios } = await listScenarios(context, id);
     expect(scenarios.map((scenario) => [scenario.name, scenario.approvalRate])).toEqual([
@@ -174,11 +174,16 @@ describe('the demo on first start', () => {
     expect(mail.map((message) => [message.to.join(', '), message.subject])).toEqual([
       ['modeler@tallowmere.test', `Analysis done: ${decided}`],
       ['analyst@tallowmere.test', `Ready for review: ${decided}`],
+      ['policy@tallowmere.test', `Ready for review: ${decided}`],
       ['committee@tallowmere.test', `Validated, waiting for the committee: ${decided}`],
       ['committee2@tallowmere.test', `Validated, waiting for the committee: ${decided}`],
+      // Everyone on the record hears of the decision (the decider does not mail themselves).
       ['modeler@tallowmere.test', `Decision recorded: ${decided}`],
+      ['analyst@tallowmere.test', `Decision recorded: ${decided}`],
+      ['committee2@tallowmere.test', `Decision recorded: ${decided}`],
       ['modeler@tallowmere.test', `Analysis done: ${pd}`],
       ['analyst@tallowmere.test', `Ready for review: ${pd}`],
+      ['policy@tallowmere.test', `Ready for review: ${pd}`],
     ]);
     for (const message of mail) {
       expect(message.status).toBe('sent');

@@ -67,7 +67,7 @@ export function SegmentIntervalsChart({ segments, materiality, confidence }: { s
   return (
     <ChartFrame title="ΔGini by segment value, with intervals" caption={caption} table={table} height={height}>
       <div ref={ref} className="w-full">
-        <svg width={W} height={height} viewBox={`0 0 ${W} ${height}`} className="block" aria-hidden="true" focusable="false">
+        <svg width={W} height={height} viewBox={`0 0 ${W} ${height}`} className="block h-auto max-w-full" aria-hidden="true" focusable="false">
           <line x1={x(0)} x2={x(0)} y1={TOP - 8} y2={height - 24} stroke={colors.ink.faint} strokeDasharray="2 4" />
           {materiality > 0 ? <line x1={x(-materiality)} x2={x(-materiality)} y1={TOP - 8} y2={height - 24} stroke={colors.bad.DEFAULT} strokeDasharray="4 3" /> : null}
           <text x={x(0)} y={height - 8} textAnchor="middle" fontSize={12} fill={colors.ink.soft}>0</text>
