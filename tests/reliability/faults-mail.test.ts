@@ -5,7 +5,7 @@ import { createLogger } from '@server/log';
 import { outboxIdHeader } from '@server/mail/mailer';
 import { createMailTransport } from '@server/mail/transport';
 import { buildTestApp, type TestApp } from '../api/helpers/app';
-import { signedInAs, type TestClient } from '../api/helpers/client';
+import { signedInAs, TestClient } from '../api/helpers/client';
 import { sample2k, sampleMapping, uploadFile } from '../api/helpers/holdouts';
 import { freePort } from '../e2e/helpers/server';
 import { record } from './helpers/figures';
@@ -90,6 +90,10 @@ describe('SMTP unreachable', () => {
     expect((await modeler.post(`/api/comparisons/${id}/submit`, { message: 'Ready.' })).status).toBe(200);
     expect((await analyst.post(`/api/comparisons/${id}/review`, { outcome: 'validated', findings: 'Fine.' })).status).toBe(200);
     expect((await committee.post(`/api/comparisons/${id}/votes`, { vote: 'adopt', comment: '' })).status).toBe(200);
+    // The default quorum is two votes: the demo's second committee member votes too.
+    const committee2 = new TestClient(t.app);
+    expect((await committee2.signIn('committee2@tallowmere.test')).status).toBe(200);
+    expect((await committee2.post(`/api/comparisons/${id}/votes`, { vote: 'adopt', comment: '' })).status).toBe(200);
     const decided = await committee.post(`/api/comparisons/${id}/decision`, { outcome: 'adopt', rationale: 'Better ranking, acceptable swap sets.' });
     expect(decided.status, JSON.stringify(decided.body)).toBe(200);
     expect((await modeler.get(`/api/comparisons/${id}`)).body.state).toBe('decided');

@@ -43,6 +43,8 @@ beforeAll(async () => {
   const analyst = await new Session(server.url).signIn('analyst@tallowmere.test');
   const policy = await new Session(server.url).signIn('policy@tallowmere.test');
   const committee = await new Session(server.url).signIn('committee@tallowmere.test');
+  // The default quorum is two votes: the demo's second committee member votes too.
+  const committee2 = await new Session(server.url).signIn('committee2@tallowmere.test');
   const admin = await new Session(server.url).signIn('admin@tallowmere.test');
 
   // A file with markup in its name, a column name, segment values and ids.
@@ -74,6 +76,7 @@ beforeAll(async () => {
   await ok(modeler.request('POST', `/api/comparisons/${comparisonId}/submit`, { message: payload('submit') }));
   await ok(analyst.request('POST', `/api/comparisons/${comparisonId}/review`, { outcome: 'validated', findings: payload('findings') }));
   await ok(committee.request('POST', `/api/comparisons/${comparisonId}/votes`, { vote: 'adopt', comment: payload('vote') }));
+  await ok(committee2.request('POST', `/api/comparisons/${comparisonId}/votes`, { vote: 'adopt', comment: '' }));
   await ok(committee.request('POST', `/api/comparisons/${comparisonId}/decision`, { outcome: 'adopt', rationale: payload('rationale'), conditions: payload('conditions') }));
   await ok(admin.request('POST', '/api/users/invitations', { email: 'markup.person@tallowmere.test', name: payload('person').slice(0, 120), roles: ['policy'] }), 201);
   const current = await ok(admin.request<{ policy?: Record<string, unknown> } & Record<string, unknown>>('GET', '/api/policy'));
