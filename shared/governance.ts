@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { comparisonStateSchema } from './comparisons';
 import { adoptionPolicySchema, defaultSegmentRule, segmentRuleSchema } from './policy';
-import { mixedStrategyResultSchema, segmentValueRefSchema } from './mixed-strategy';
+import { mixedStrategyResultSchema } from './mixed-strategy';
 import { criterionSchema, verdictOutcomeSchema } from './report';
 
 /**
@@ -50,8 +50,6 @@ export const decisionInputSchema = z.object({
    * explicit acknowledgement and a rationale of at least MIN_RATIONALE_AGAINST_RECORD characters.
    */
   acknowledgeAgainstRecord: z.boolean().default(false),
-  /** Adopt except in these segment values, which keep the champion (outcome adopt only). */
-  keepChampion: z.array(segmentValueRefSchema).max(100).optional(),
 });
 /** The shortest rationale for a decision against the votes or without quorum (a real reason, not "x"). */
 export const MIN_RATIONALE_AGAINST_RECORD = 80;

@@ -200,11 +200,13 @@ describe('the committee decision, step by step in the browser', () => {
     await admin.signIn('admin@tallowmere.test');
     const { body } = await admin.request<{ messages: { to: string[]; subject: string; text: string; status: string }[] }>('GET', '/api/outbox?pageSize=50');
     const bySubject = (prefix: string) => body.messages.filter((message) => message.subject.startsWith(prefix));
-    expect(bySubject('Ready for review').map((message) => message.to)).toEqual([['analyst@tallowmere.test']]);
+    // Whoever acts in review: the analysts and the policy role.
+    expect(bySubject('Ready for review').map((message) => message.to).sort()).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
     expect(bySubject('Validated, waiting').map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
-    expect(bySubject('Decision recorded').map((message) => message.to)).toEqual([['modeler@tallowmere.test']]);
+    // Everyone on the record but the decider: the creator, the reviewer and the other voter.
+    expect(bySubject('Decision recorded').map((message) => message.to).sort()).toEqual([['analyst@tallowmere.test'], ['committee2@tallowmere.test'], ['modeler@tallowmere.test']]);
     const base = `http://localhost:${server.port}`;
-    expect(bySubject('Ready for review')[0].text).toContain(`${base}${paths.comparisons.review(id)}`);
+    for (const message of bySubject('Ready for review')) expect(message.text).toContain(`${base}${paths.comparisons.review(id)}`);
     expect(bySubject('Decision recorded')[0].text).toContain(`${base}${paths.comparisons.report(id)}`);
   });
 
