@@ -204,7 +204,7 @@ describe('the committee decision, step by step in the browser', () => {
     expect(bySubject('Ready for review').map((message) => message.to).sort()).toEqual([['analyst@tallowmere.test'], ['policy@tallowmere.test']]);
     expect(bySubject('Validated, waiting').map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
     // Everyone on the record but the decider: the creator, the reviewer and the other voter.
-    expect(bySubject('Decision recorded').map((message) => message.to).sort()).toEqual([['analyst@tallowmere.test'], ['committee2@tallowmere.test'], ['modeler@tallowmere.test']]);
+    expect(bySubject('Decision recorded').map((message) => message.to).sort()).toEqual([['analyst@tallowmere.test'], ['committee@tallowmere.test'], ['modeler@tallowmere.test']]);
     const base = `http://localhost:${server.port}`;
     for (const message of bySubject('Ready for review')) expect(message.text).toContain(`${base}${paths.comparisons.review(id)}`);
     expect(bySubject('Decision recorded')[0].text).toContain(`${base}${paths.comparisons.report(id)}`);
