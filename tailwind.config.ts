@@ -13,7 +13,7 @@ export default {
         mono: ['ui-monospace', 'SFMono-Regular', 'Menlo', 'monospace'],
       },
       colors: {
-        ink: { DEFAULT: '#1d2430', soft: '#4a5567', faint: '#687284' },
+        ink: { DEFAULT: '#1d2430', soft: '#4a5567', faint: '#5f697a' },
         paper: { DEFAULT: '#f7f6f2', raised: '#ffffff', sunk: '#eeece6' },
         line: { DEFAULT: '#dedbd2', strong: '#b9b4a6' },
         court: {

@@ -5,12 +5,13 @@ import seedrandom from 'seedrandom';
  * A seeded synthetic holdout for the benchmark, written as CSV: account id, channel (segment),
  * loan amount (exposure), outcome, and both models' scores. Points scores are integers
  * (higher = safer, many ties); continuous scores are PDs with 6 significant digits
- * (higher = riskier). Same seed → same bytes.
+ * (higher = riskier), or with six decimals (pd6). Same seed → same bytes.
  */
 export interface BenchHoldoutOptions {
   rows: number;
   seed: string;
-  scores: 'points' | 'continuous';
+  /** points: integers; continuous: PDs with 6 significant digits; pd6: PDs with six decimals. */
+  scores: 'points' | 'continuous' | 'pd6';
 }
 
 export async function writeBenchHoldout(path: string, options: BenchHoldoutOptions): Promise<void> {
@@ -33,6 +34,9 @@ export async function writeBenchHoldout(path: string, options: BenchHoldoutOptio
     if (options.scores === 'points') {
       champion = String(Math.round(600 - 40 * a));
       challenger = String(Math.round(600 - 40 * b));
+    } else if (options.scores === 'pd6') {
+      champion = (1 / (1 + Math.exp(-(a - 3)))).toFixed(6);
+      challenger = (1 / (1 + Math.exp(-(b - 3)))).toFixed(6);
     } else {
       champion = (1 / (1 + Math.exp(-(a - 3)))).toPrecision(6);
       challenger = (1 / (1 + Math.exp(-(b - 3)))).toPrecision(6);

@@ -13,9 +13,14 @@
  * - the true log-odds of going bad within 12 months is −(1.0·b + 0.75·c) plus product, channel
  *   and a mild seasonal offset, with an intercept tuned to a bad rate of about 7%;
  * - the champion sees b well and c only through a weak proxy; the challenger sees both, except in
- *   brokered cards, where its view of c is mostly noise;
+ *   brokered cards, where the cash-flow figures come from the broker and tell nothing of c (noise);
  * - scores are points with 20 points to double the odds, centred at 600; the PD file gives the
  *   challenger as a probability of default (higher = riskier) instead.
+ *
+ * The holdout is a through-the-door sample of the 120,000 applications of 2025
+ * (through-the-door.ts): the champion's declines have no outcome, goods are sampled one in four.
+ * The PD file, the 2,000-row sample and the broken file hold the first 60,000 applications with
+ * every outcome observed, which only a simulation can give (the PD file's calibration story).
  *
  * Run: `npm run sample-data`. Output: the files of `buildSampleFiles()`, in sample-data/.
  */
@@ -24,9 +29,14 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import seedrandom from 'seedrandom';
 import { developmentCsv, pdWithBrokerDrift } from './pd-and-development';
+import { refitPoints } from './refit';
+import { throughTheDoor, throughTheDoorCsv } from './through-the-door';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const SEED = 'tallowmere-2025';
+/** Applications in 2025 (the through-the-door sample's population). */
+const APPLICATIONS = 120_000;
+/** The first applications, with every outcome: the PD file and the small samples. */
 const ACCOUNTS = 60_000;
 const POINTS_TO_DOUBLE_ODDS = 20;
 export const POINTS_FACTOR = POINTS_TO_DOUBLE_ODDS / Math.LN2;
@@ -44,6 +54,12 @@ export interface Account {
   championPoints: number;
   challengerPoints: number;
   challengerPd: number;
+  /** The true log-odds of going bad (hidden; the bureau's view of declined applicants leans on it). */
+  trueLogOdds: number;
+  /** Hidden traits and the product/channel/season offset (refit.ts builds the refit from them). */
+  bureau: number;
+  cashFlow: number;
+  offset: number;
 }
 
 /** A seeded source of uniform and normal draws (Box–Muller, one value per call). */
@@ -91,7 +107,7 @@ export const channelRisk: Record<Channel, number> = { branch: -0.2, web: 0, brok
 /** Intercept tuned so the holdout's bad rate is about 7%. */
 export const INTERCEPT = -3.4;
 
-function simulate(count: number): Account[] {
+export function simulate(count: number): Account[] {
   const random = randomSource(SEED);
   const accounts: Account[] = [];
   for (let i = 0; i < count; i++) {
@@ -108,7 +124,7 @@ function simulate(count: number): Account[] {
     // Each model's estimate of safety (minus log-odds of bad), before scaling to points.
     const championSafety = -INTERCEPT - offset + 1.0 * bureau + 0.3 * cashFlow + 0.55 * random.normal();
     const unverifiedCashFlow = product === 'credit-card' && channel === 'broker';
-    const cashFlowSeen = unverifiedCashFlow ? 0.15 * cashFlow + 0.99 * random.normal() : cashFlow;
+    const cashFlowSeen = unverifiedCashFlow ? 1.5 * random.normal() : cashFlow;
     const challengerSafety = -INTERCEPT - offset + 1.0 * bureau + 0.65 * cashFlowSeen + 0.45 * random.normal();
 
     const amount =
@@ -126,6 +142,10 @@ function simulate(count: number): Account[] {
       championPoints: Math.round(600 + POINTS_FACTOR * (championSafety - 3)),
       challengerPoints: Math.round(600 + POINTS_FACTOR * (challengerSafety - 3)),
       challengerPd: Number(sigmoid(-challengerSafety).toFixed(6)),
+      trueLogOdds,
+      bureau,
+      cashFlow,
+      offset,
     });
   }
   return accounts;
@@ -179,9 +199,10 @@ function sampleOf(accounts: Account[], size: number): Account[] {
 
 /** Every demo file's name and text; the same on every call. */
 export function buildSampleFiles(): Record<string, string> {
-  const accounts = simulate(ACCOUNTS);
+  const applications = simulate(APPLICATIONS);
+  const accounts = applications.slice(0, ACCOUNTS);
   return {
-    'tallowmere-holdout-2025.csv': holdoutCsv(accounts),
+    'tallowmere-holdout-2025.csv': throughTheDoorCsv(throughTheDoor(applications), refitPoints(applications)),
     'tallowmere-holdout-2025-sample-2k.csv': holdoutCsv(sampleOf(accounts, 2_000)),
     'tallowmere-holdout-2025-pd.csv': pdDriftCsv(accounts),
     'tallowmere-development-2023.csv': developmentCsv(),

@@ -16,7 +16,7 @@ export function workerEntries(dir) {
 
 /** The server's entry points: the server, the CLI, the benchmark and every worker thread. */
 export function serverEntryPoints() {
-  return ['server/index.ts', 'server/cli/compare.ts', 'server/cli/create-admin.ts', 'bench/index.ts', ...workerEntries('server/jobs'), ...workerEntries('server/stats')];
+  return ['server/index.ts', 'server/worker.ts', 'server/cli/compare.ts', 'server/cli/create-admin.ts', 'bench/index.ts', ...workerEntries('server/jobs'), ...workerEntries('server/stats')];
 }
 
 /**
@@ -24,22 +24,37 @@ export function serverEntryPoints() {
  * (server/jobs/analysis-worker.ts → <outdir>/server/jobs/analysis-worker.js). Our own code,
  * shared/ included, is bundled; packages stay external. `buildDir` (optional) is compiled in as
  * the folder where the bundles find each other's worker threads (server/runtime.ts); without it
- * they look in dist/.
+ * they look in dist/. `keepThreadPriority` (the test suite's build only) compiles the worker
+ * threads to run at the priority of the thread that starts them (jobs/worker-support.ts).
  */
-export async function bundleServer({ entryPoints, outdir, buildDir, sourcemap = true }) {
-  await build({
-    entryPoints,
+/**
+ * Entry points bundled with their packages too (all but the lazily imported exceljs): the
+ * compare command starts in a fresh process every time, and resolving and loading zod,
+ * seedrandom and papaparse file by file cost it about a third of a second (issue 20).
+ */
+const selfContained = new Set(['server/cli/compare.ts']);
+
+export async function bundleServer({ entryPoints, outdir, buildDir, sourcemap = true, keepThreadPriority = false }) {
+  const common = {
     outbase: '.',
     outdir,
     bundle: true,
     platform: 'node',
     format: 'esm',
     target: 'node20',
-    packages: 'external',
     sourcemap,
     logLevel: 'warning',
-    define: buildDir ? { __SCORECOURT_BUILD_DIR__: JSON.stringify(buildDir) } : {},
+    define: {
+      ...(buildDir ? { __SCORECOURT_BUILD_DIR__: JSON.stringify(buildDir) } : {}),
+      ...(keepThreadPriority ? { __SCORECOURT_KEEP_THREAD_PRIORITY__: 'true' } : {}),
+    },
     // Bundled ESM has no require(); some dependencies' CommonJS interop needs one.
     banner: { js: "import { createRequire as __scCreateRequire } from 'node:module'; const require = __scCreateRequire(import.meta.url);" },
-  });
+  };
+  const shared = entryPoints.filter((entry) => !selfContained.has(entry));
+  const alone = entryPoints.filter((entry) => selfContained.has(entry));
+  await Promise.all([
+    shared.length > 0 ? build({ ...common, entryPoints: shared, packages: 'external' }) : null,
+    alone.length > 0 ? build({ ...common, entryPoints: alone, external: ['exceljs'] }) : null,
+  ]);
 }

@@ -11,7 +11,7 @@ import { createPassport } from './auth/passport';
 import { authRoutes } from './auth/router';
 import { SqliteSessionStore } from './auth/session-store';
 import { comparisonRoutes } from './comparisons/router';
-import type { Config } from './config';
+import { databaseAddress, type Config } from './config';
 import type { AppContext } from './context';
 import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
@@ -23,6 +23,7 @@ import { healthRoutes } from './http/health';
 import { mountRoutes, type RouteDefinition } from './http/routes';
 import { wellFormedReviver } from './http/well-formed';
 import { writeLimiter } from './http/write-limits';
+import type { AnalysisQueue } from './jobs/queue';
 import { JobRunner } from './jobs/runner';
 import { createLogger, type Logger } from './log';
 import type { Mailer } from './mail/mailer';
@@ -32,6 +33,7 @@ import { policyRoutes } from './policy/router';
 import { projectRoot } from './runtime';
 import { userRoutes } from './users/router';
 import { analysisHandlers } from './comparisons/analysis-handlers';
+import { createPreparedCache, type PreparedCache } from './comparisons/prepared-cache';
 
 export interface AppDeps {
   config: Config;
@@ -46,9 +48,11 @@ export interface AppDeps {
    * The analysis queue, started by the caller (server/index.ts, the tests). Without one, the app
    * makes and starts its own, and closeApp stops it.
    */
-  jobs?: JobRunner;
+  jobs?: AnalysisQueue;
   /** Where uploads are streamed before they are stored; default: `uploads/` beside the database (holdouts/upload-dir.ts). */
   uploadDir?: string;
+  /** The prepared swap-set cache, shared with the queue's handlers (made here when not given). */
+  preparedCache?: PreparedCache;
 }
 
 /** Sessions last 8 hours from the last request. */
@@ -84,20 +88,21 @@ const requestId: RequestHandler = (_req, res, next) => {
 export function createApp(deps: AppDeps): Express {
   const { config, dataSource, mailer } = deps;
   const log = deps.log ?? createLogger(config.logLevel);
-  const uploadDir = deps.uploadDir ?? uploadDirFor(config.databasePath);
+  const uploadDir = deps.uploadDir ?? config.uploadDir ?? uploadDirFor(config.databasePath);
   mkdirSync(uploadDir, { recursive: true });
+  const preparedCache = deps.preparedCache ?? createPreparedCache(dataSource);
   const ownJobs = deps.jobs === undefined;
   const jobs =
     deps.jobs ??
     new JobRunner({
       dataSource,
-      databasePath: config.databasePath,
+      databasePath: databaseAddress(config),
       concurrency: config.analysisConcurrency,
       log,
-      handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+      handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl, preparedCache }),
     });
   if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
-  const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir };
+  const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir, preparedCache };
 
   const app = express();
   app.set('trust proxy', config.trustProxy);
@@ -150,7 +155,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(passport.initialize());
   api.use(passport.session());
   api.use(csrfProtection);
-  mountRoutes(api, routes, { writeLimit: writeLimiter(config.writesPerMinute) });
+  mountRoutes(api, routes, { writeLimit: writeLimiter(config.writesPerMinute, dataSource) });
   api.use(apiNotFound);
   app.use('/api', api);
 

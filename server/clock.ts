@@ -10,14 +10,26 @@
  *
  * Within a replay time only moves forward and never past the real time, so the audit trail's
  * timestamps keep their order.
+ *
+ * `atMoment(moment, body)` holds the time still at `moment` for `body` and what it awaits (only
+ * that unit of work: other requests keep the running time). A decision is written twice at one
+ * moment: once to lay out its pack, rolled back, then for good (pack/service.ts, decideWithPack).
  */
+import { AsyncLocalStorage } from 'node:async_hooks';
 
 let offsetMs = 0;
 let replaying = false;
+const held = new AsyncLocalStorage<number>();
 
-/** The current time (real, or the demo seed's replayed time). */
+/** The current time (real, or the demo seed's replayed time, or the moment a unit of work holds). */
 export function now(): Date {
-  return new Date(Date.now() + offsetMs);
+  const moment = held.getStore();
+  return new Date(moment ?? Date.now() + offsetMs);
+}
+
+/** Runs `body` with `now()` held at `moment`. */
+export function atMoment<T>(moment: Date, body: () => Promise<T>): Promise<T> {
+  return held.run(moment.getTime(), body);
 }
 
 export async function replay<T>(from: Date, body: (advanceTo: (moment: Date) => void) => Promise<T>): Promise<T> {

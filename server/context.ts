@@ -1,6 +1,7 @@
 import type { DataSource } from 'typeorm';
 import type { Config } from './config';
-import type { JobRunner } from './jobs/runner';
+import type { PreparedCache } from './comparisons/prepared-cache';
+import type { AnalysisQueue } from './jobs/queue';
 import type { Logger } from './log';
 import type { Mailer } from './mail/mailer';
 
@@ -11,7 +12,13 @@ export interface AppContext {
   mailer: Mailer;
   log: Logger;
   /** The analysis queue: `jobs.kick()` after queueing a run. */
-  jobs: JobRunner;
+  jobs: AnalysisQueue;
   /** Where uploads are streamed before they are read and stored (files are removed afterwards). */
   uploadDir: string;
+  /**
+   * Done runs' data prepared for swap sets, kept in this process (comparisons/prepared-cache.ts);
+   * shared with the analysis queue's handlers, which hand over what a finished analysis prepared.
+   * Another instance that lacks a run prepares it again from the stored columns.
+   */
+  preparedCache: PreparedCache;
 }

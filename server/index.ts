@@ -2,18 +2,22 @@ import type { Server } from 'node:http';
 import { comparisonStateLabels } from '@shared/comparisons';
 import { verifyWholeAuditChain } from './audit/chain-state';
 import { closeApp, createApp } from './app';
-import { ConfigError, loadConfig, type Config } from './config';
+import { databaseAddress, redactedUrl, type Config } from './config';
 import { openDatabase } from './db/data-source';
 import { WalCheckpointer } from './db/checkpointer';
 import { storedSessionSecret } from './db/settings';
-import { clearUploadDir, uploadDirFor } from './holdouts/upload-dir';
-import { JobRunner } from './jobs/runner';
-import { createLogger, guardStandardStreams } from './log';
+import { startUploadStaging } from './holdouts/staged-uploads';
+import { uploadDirFor } from './holdouts/upload-dir';
+import { createAnalysisQueue } from './jobs/create-queue';
+import type { Logger } from './log';
 import { Mailer } from './mail/mailer';
 import { createMailTransport } from './mail/transport';
 import { databaseIsEmpty, demoPassword, presentDemoPeople, seedDemo, type SeedResult } from './seed';
 import { formatFixed } from '@shared/format';
 import { analysisHandlers } from './comparisons/analysis-handlers';
+import { createPreparedCache } from './comparisons/prepared-cache';
+import { stopPackThreads } from './pack/render-thread';
+import { startProcess, stopOnSignals } from './start-up';
 
 /**
  * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
@@ -23,47 +27,33 @@ import { analysisHandlers } from './comparisons/analysis-handlers';
  * SIGTERM or SIGINT.
  */
 
-function readConfig(): Config {
-  try {
-    return loadConfig();
-  } catch (error) {
-    if (error instanceof ConfigError) {
-      console.error(error.message);
-      process.exit(1);
-    }
-    throw error;
-  }
-}
-
-async function main(): Promise<void> {
-  guardStandardStreams();
-  const config = readConfig();
-  const log = createLogger(config.logLevel);
-
-  const dataSource = await openDatabase(config.databasePath);
-  // WAL checkpoints on their own thread, not after a large commit on this one.
-  const checkpointer = new WalCheckpointer(dataSource, config.databasePath, log);
-  await checkpointer.start();
+async function main(config: Config, log: Logger): Promise<void> {
+  const dataSource = await openDatabase(databaseAddress(config));
+  // SQLite: WAL checkpoints on their own thread, not after a large commit on this one.
+  const checkpointer = config.databaseUrl ? null : new WalCheckpointer(dataSource, config.databasePath, log);
+  await checkpointer?.start();
   const sessionSecret = config.sessionSecret ?? (await storedSessionSecret(dataSource));
 
   const mail = await createMailTransport(config, dataSource, log);
   const mailer = new Mailer(dataSource, mail.transport, { from: config.mailFrom, log });
   await mailer.start();
 
-  // Re-queues (or fails) analyses a previous process left running, then starts the queue.
-  const jobs = new JobRunner({
+  // Done runs' data prepared for swap sets: filled by the queue's handlers, read by the routes.
+  const preparedCache = createPreparedCache(dataSource);
+  // SQLite: re-queues (or fails) analyses a previous process left running, then starts the queue.
+  // PostgreSQL: pg-boss on the same database; this server runs analyses too unless ANALYSIS_IN_SERVER=false.
+  const jobs = await createAnalysisQueue({
+    config,
     dataSource,
-    databasePath: config.databasePath,
-    concurrency: config.analysisConcurrency,
     log,
-    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl, preparedCache }),
+    workers: config.databaseUrl && !config.analysisInServer ? 0 : config.analysisConcurrency,
   });
   await jobs.start();
 
-  // Uploads a killed process left half-received are removed (they were never stored).
-  const uploadDir = uploadDirFor(config.databasePath);
-  const leftovers = clearUploadDir(uploadDir);
-  if (leftovers > 0) log.info(`removed ${leftovers} unfinished upload(s) from ${uploadDir}`);
+  // Uploads a stopped process left: stored or removed (holdouts/staged-uploads.ts).
+  const uploadDir = config.uploadDir ?? uploadDirFor(config.databasePath);
+  const stagedWatch = await startUploadStaging({ config, dataSource, log, uploadDir });
 
   // The demo, on an empty database only, before anyone can sign in (the scenario replays the
   // past weeks' timestamps, which no request may see: clock.ts).
@@ -72,7 +62,7 @@ async function main(): Promise<void> {
     const started = performance.now();
     if (config.demoScenario) console.log('The database is empty: adding the demo people and the demo comparisons, whose analyses run now (a few seconds)…');
     try {
-      seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir } : null });
+      seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir, preparedCache } : null });
       if (seeded.comparisons.length > 0) console.log(`The demo is ready (${formatFixed((performance.now() - started) / 1000, 1)} s).`);
     } catch (error) {
       log.error(
@@ -91,19 +81,24 @@ async function main(): Promise<void> {
     (error: unknown) => log.error('the audit chain could not be verified at start-up', error),
   );
 
-  const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir });
+  const app = createApp({ config, dataSource, mailer, sessionSecret, log, jobs, uploadDir, preparedCache });
   const server: Server = await new Promise((resolve, reject) => {
     const listening = config.host ? app.listen(config.port, config.host) : app.listen(config.port);
     listening.once('listening', () => resolve(listening));
     listening.once('error', reject);
   });
+  // Idle keep-alive connections stay open longer than a load balancer's (commonly 60 s) or a
+  // client's own idle timeout: Node's default of 5 s closes them first, and a request already on
+  // its way over such a connection fails (ECONNRESET / EPIPE at the client: test:scale's uploads).
+  server.keepAliveTimeout = 65_000;
+  server.headersTimeout = 66_000;
   const address = server.address();
   const port = address && typeof address === 'object' ? address.port : config.port;
 
   const lines = [
     '',
     `Scorecourt is running at http://localhost:${port} (ready ${Math.round(performance.now())} ms after the process started)`,
-    `  database: ${config.databasePath}`,
+    `  database: ${config.databaseUrl ? `PostgreSQL at ${redactedUrl(config.databaseUrl)}` : config.databasePath}`,
     `  mail:     ${mail.description}`,
   ];
   if (!config.isProduction) {
@@ -120,39 +115,25 @@ async function main(): Promise<void> {
   }
   console.log(lines.join('\n') + '\n');
 
-  let stopping = false;
-  const shutdown = (signal: string) => {
-    if (stopping) return;
-    stopping = true;
-    log.info(`${signal}: shutting down`);
-    const force = setTimeout(() => {
-      log.warn('shutdown took longer than 10 s; exiting');
-      process.exit(1);
-    }, 10_000);
-    force.unref();
-    server.close(() => {
-      (async () => {
-        closeApp(app);
-        await jobs.stop();
-        await mailer.stop();
-        await mail.sink?.close();
-        await checkpointer.stop();
-        await dataSource.destroy();
-      })().then(
-        () => process.exit(0),
-        (error: unknown) => {
-          log.error('error while shutting down', error);
-          process.exit(1);
-        },
-      );
-    });
-    server.closeIdleConnections();
-  };
-  process.on('SIGTERM', () => shutdown('SIGTERM'));
-  process.on('SIGINT', () => shutdown('SIGINT'));
+  stopOnSignals(log, {
+    announce: (signal) => `${signal}: shutting down`,
+    graceMs: 10_000,
+    overrun: 'shutdown took longer than 10 s; exiting',
+    failure: 'error while shutting down',
+    async stop() {
+      const closed = new Promise<void>((resolve) => server.close(() => resolve()));
+      server.closeIdleConnections();
+      await closed;
+      closeApp(app);
+      await stagedWatch.stop();
+      await jobs.stop();
+      await stopPackThreads();
+      await mailer.stop();
+      await mail.sink?.close();
+      await checkpointer?.stop();
+      await dataSource.destroy();
+    },
+  });
 }
 
-main().catch((error: unknown) => {
-  console.error('Scorecourt could not start:', error);
-  process.exit(1);
-});
+startProcess({ failure: 'Scorecourt could not start:' }, main);

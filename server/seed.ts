@@ -44,11 +44,12 @@ export interface SeedOptions {
   /** The real date the scenario's calendar counts back from (default: now). */
   today?: Date;
   /**
-   * Bootstrap replicates of the scenario's analyses (default: demoSettings', 2,000). The unit and
-   * API suite plays the scenario with a few, so it runs in seconds; the reliability suite and
-   * every real first start play it in full.
+   * Bootstrap replicates of the scenario's analyses (default: demoSettings', 2,000): fewer for a
+   * quicker trial seed; the reliability suite and every real first start play it in full.
    */
   replicates?: number;
+  /** The folder of the scenario's files (default: sample-data/; see ScenarioOptions.dataDir). */
+  dataDir?: string;
 }
 
 async function addPeople(dataSource: DataSource, passwordHash: string): Promise<User[] | null> {
@@ -102,11 +103,11 @@ export async function seedDemo(dataSource: DataSource, options: SeedOptions): Pr
     const people = await addPeople(dataSource, passwordHash);
     return people ? { seeded: true, people, comparisons: [] } : notSeeded;
   }
-  const today = options.today ?? new Date();
+  const today = options.today ?? now();
   return replay(momentOf('people', today), async (advanceTo) => {
     const people = await addPeople(dataSource, passwordHash);
     if (!people) return notSeeded;
-    const comparisons = await playScenario(ctx, byRole(people), { today, at: (step) => advanceTo(momentOf(step, today)), replicates: options.replicates });
+    const comparisons = await playScenario(ctx, byRole(people), { today, at: (step) => advanceTo(momentOf(step, today)), replicates: options.replicates, dataDir: options.dataDir });
     return { seeded: true, people, comparisons };
   });
 }

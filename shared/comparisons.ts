@@ -1,10 +1,12 @@
 import { z } from 'zod';
 import {
   analysisSettingsSchema,
+  approvalPatternsSchema,
   columnMappingSchema,
   criterionSchema,
   higherIsSchema,
   intervalSchema,
+  mappingModelProblems,
   strategyCurveSchema,
   swapMatrixSchema,
   swapSetsSchema,
@@ -49,6 +51,8 @@ export const mappingGuessSchema = z.object({
   id: z.string().nullable(),
   segments: z.array(z.string()),
   exposure: z.string().nullable(),
+  /** Outcome codes that look like "no outcome" (e.g. R for the declined of a through-the-door sample): proposed as applicants without an outcome. */
+  unknownValues: z.array(z.string()).optional(),
 });
 export type MappingGuess = z.infer<typeof mappingGuessSchema>;
 
@@ -67,6 +71,8 @@ export const holdoutSchema = z.object({
   sha256: z.string(),
   bytes: z.number().int(),
   rowCount: z.number().int(),
+  /** The worksheet read, for an .xlsx workbook (the one chosen at upload, else its first); null for CSV. */
+  sheet: z.string().nullable().default(null),
   columns: z.array(holdoutColumnSchema),
   /** The first 20 data rows, as text, in column order: cells cut to 200 characters, 64 KB in all; empty for roles other than modeler and analyst. */
   preview: z.array(z.array(z.string())),
@@ -100,6 +106,9 @@ export const mappingInputSchema = columnMappingSchema.extend({
     .max(maxSegmentColumns, `at most ${maxSegmentColumns} segment columns`)
     .refine((names) => new Set(names).size === names.length, { message: 'name each segment column at most once' })
     .optional(),
+}).superRefine((mapping, context) => {
+  // Several challengers: distinct score columns and names (a 400 naming them, before any reading).
+  for (const message of mappingModelProblems(mapping)) context.addIssue({ code: 'custom', message, path: ['moreChallengers'] });
 });
 
 /** POST /api/holdouts/:id/validate { mapping, dropMissing? } → the wizard's validation report. */
@@ -197,6 +206,17 @@ export type ComparisonHeadline = z.infer<typeof comparisonHeadlineSchema>;
  * the one the decision was made on), with the policy version it was judged under. Older records
  * are the history (GET …/governance). Null until a run is done.
  */
+/** One challenger's verdict within a verdict record. */
+export const challengerVerdictSchema = z.object({
+  challenger: z.number().int(),
+  column: z.string(),
+  name: z.string(),
+  outcome: verdictOutcomeSchema,
+  criteria: z.array(criterionSchema),
+  summary: z.string(),
+});
+export type ChallengerVerdict = z.infer<typeof challengerVerdictSchema>;
+
 export const currentVerdictSchema = z.object({
   id: z.number().int(),
   runId: z.number().int(),
@@ -205,6 +225,10 @@ export const currentVerdictSchema = z.object({
   criteria: z.array(criterionSchema),
   summary: z.string(),
   createdAt: z.string(),
+  /** Several challengers: each one's verdict in this record, the recommended one and its sentence (empty, null, '' otherwise). */
+  challengers: z.array(challengerVerdictSchema).default([]),
+  recommended: z.number().int().nullable().default(null),
+  choiceSummary: z.string().default(''),
 });
 export type CurrentVerdict = z.infer<typeof currentVerdictSchema>;
 
@@ -219,6 +243,18 @@ export const comparisonSummarySchema = z.object({
   latestRun: analysisRunSchema.pick({ id: true, status: true, progress: true, stage: true }).nullable(),
   headline: comparisonHeadlineSchema.nullable(),
   verdict: currentVerdictSchema.nullable(),
+  /**
+   * A decided comparison: the decision's outcome and the model it chose (the champion, or the
+   * adopted challenger by index and name; null for defer and for decisions recorded before
+   * decisions named a model). Null until decided.
+   */
+  decided: z
+    .object({
+      outcome: z.enum(['adopt', 'keep', 'defer']),
+      chosen: z.object({ model: z.enum(['champion', 'challenger']), challenger: z.number().int().nullable(), column: z.string(), name: z.string() }).nullable(),
+    })
+    .nullable()
+    .default(null),
 });
 export type ComparisonSummary = z.infer<typeof comparisonSummarySchema>;
 
@@ -286,6 +322,22 @@ export const swapResultSchema = z.object({
 });
 export type SwapResult = z.infer<typeof swapResultSchema>;
 
+/**
+ * POST /api/comparisons/:id/challengers/swap (any signed-in person) { approvalRate }: every
+ * challenger's swap sets against the champion at the same approval rate (each model at its own
+ * cut-off for the rate), side by side, and who each model approves (the approval patterns), on
+ * the current run. A two-model comparison answers with its one challenger.
+ */
+export const challengersSwapQuerySchema = z.object({ approvalRate: z.number().gt(0).lt(1) });
+export type ChallengersSwapQuery = z.infer<typeof challengersSwapQuerySchema>;
+export const challengersSwapResultSchema = z.object({
+  approvalRate: z.number(),
+  /** The primary first (index 0), as the report's `challengers`. */
+  challengers: z.array(z.object({ challenger: z.number().int(), column: z.string(), name: z.string(), swap: swapSetsSchema })),
+  patterns: approvalPatternsSchema,
+});
+export type ChallengersSwapResult = z.infer<typeof challengersSwapResultSchema>;
+
 /** GET /api/comparisons/:id/scenarios; POST (policy role) → 201 the scenario. */
 export const scenarioInputSchema = z.object({
   name: z.string().trim().min(1, 'Name the scenario').max(120),
@@ -294,6 +346,18 @@ export const scenarioInputSchema = z.object({
   note: z.string().trim().max(4000).default(''),
 });
 export type ScenarioInput = z.infer<typeof scenarioInputSchema>;
+/**
+ * A swap set of a saved scenario: rows and the bad rate of known outcomes; with weights or
+ * applicants without an outcome also the accounts (weighted) and the inferred bad rate under the
+ * run's reject inference (null under known-only).
+ */
+const scenarioCellSchema = z.object({
+  count: z.number().int(),
+  badRate: z.number().nullable(),
+  accounts: z.number().optional(),
+  inferredBadRate: z.number().nullable().optional(),
+});
+
 export const scenarioSchema = z.object({
   id: z.number().int(),
   name: z.string(),
@@ -301,8 +365,8 @@ export const scenarioSchema = z.object({
   approvalRate: z.number().nullable(),
   note: z.string(),
   /** Swap-in and swap-out at save time, so a list can show them without recomputing. */
-  swapIn: z.object({ count: z.number().int(), badRate: z.number().nullable() }),
-  swapOut: z.object({ count: z.number().int(), badRate: z.number().nullable() }),
+  swapIn: scenarioCellSchema,
+  swapOut: scenarioCellSchema,
   createdBy: personRefSchema,
   createdAt: z.string(),
   /** Saved after the committee's decision: not part of what it saw. */

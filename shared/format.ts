@@ -173,6 +173,13 @@ export function formatNumber(value: Maybe, digits = 2): string {
   return Number(text.replace(/,/g, '')) === 0 ? text.replace('-', '') : realMinus(text);
 }
 
+/** A number to at most `digits` decimals without trailing zeros (an α, a threshold): 0.05 → "0.05", 0.1 → "0.1", 0.0125 → "0.013". */
+export function formatDecimal(value: Maybe, digits: number): string {
+  if (!isNumber(value)) return MISSING;
+  const text = formatFixed(value, digits);
+  return text.includes('.') ? text.replace(/\.?0+$/, '') : text;
+}
+
 /** A signed plain number (a z statistic, a difference of scores): 2.345 → "+2.35". */
 export function formatSignedNumber(value: Maybe, digits = 2): string {
   if (!isNumber(value)) return MISSING;

@@ -1,8 +1,8 @@
 import { z } from 'zod';
-import { comparisonStateSchema } from './comparisons';
+import { comparisonStateSchema, currentVerdictSchema } from './comparisons';
 import { adoptionPolicySchema, defaultSegmentRule, segmentRuleSchema } from './policy';
-import { mixedStrategyResultSchema } from './mixed-strategy';
-import { criterionSchema, verdictOutcomeSchema } from './report';
+import { mixedStrategyQuerySchema, mixedStrategyResultSchema } from './mixed-strategy';
+import { MAX_CHALLENGERS } from './report';
 
 /**
  * API contract for the review workflow, committee decisions, notes, the adoption policy, verdict
@@ -11,6 +11,8 @@ import { criterionSchema, verdictOutcomeSchema } from './report';
  */
 
 const personRefSchema = z.object({ id: z.number().int(), name: z.string() });
+/** A person as they were at an act (vote, review, decision, audit event): the name and e-mail they had then. */
+const personAtTheTimeSchema = personRefSchema.extend({ email: z.string().optional() });
 
 // --- transitions --------------------------------------------------------------------------
 /** POST /api/comparisons/:id/submit (modeler): analysed → in review. Body may be empty. */
@@ -31,10 +33,19 @@ export const voteChoiceLabels: Record<VoteChoice, string> = {
   defer: 'Defer',
 };
 
+/** A challenger of a comparison by its index in the report's `challengers` (0 = the primary). */
+export const challengerIndexSchema = z.number().int().min(0).max(MAX_CHALLENGERS - 1);
+
 /** POST /api/comparisons/:id/votes (committee; state validated): one vote per person, a new vote replaces theirs. */
 export const voteInputSchema = z.object({
   vote: voteChoiceSchema,
   comment: z.string().trim().max(4000).default(''),
+  /**
+   * With vote adopt: which challenger, by its index in the report's `challengers` (0 = the primary).
+   * Absent = 0; required with adopt when the comparison has two or more challengers (409 otherwise);
+   * refused (400) with keep or defer, or beyond the comparison's challengers.
+   */
+  challenger: challengerIndexSchema.optional(),
 });
 export type VoteInput = z.infer<typeof voteInputSchema>;
 
@@ -50,6 +61,22 @@ export const decisionInputSchema = z.object({
    * explicit acknowledgement and a rationale of at least MIN_RATIONALE_AGAINST_RECORD characters.
    */
   acknowledgeAgainstRecord: z.boolean().default(false),
+  /**
+   * Adoption with exceptions (only with outcome adopt): the segment values that keep the champion;
+   * the server computes the mixed strategy's figures on the decided run for the adopted
+   * challenger (`challenger` below; its `challenger`, when given, must name the same one) and
+   * stores them with it.
+   */
+  strategy: mixedStrategyQuerySchema.optional(),
+  /**
+   * With outcome adopt: which challenger is adopted, by its index in the report's `challengers`
+   * (0 = the primary). Absent = 0; required with adopt when the comparison has two or more
+   * challengers (409 otherwise); refused (400) with keep or defer. With two or more challengers,
+   * adopting one whose verdict (the run's newest verdict record) is not "supported", or one other
+   * than the challenger most adopt votes named, is a decision against the record: it needs
+   * acknowledgeAgainstRecord and the longer rationale, as deciding against the votes does.
+   */
+  challenger: challengerIndexSchema.optional(),
 });
 /** The shortest rationale for a decision against the votes or without quorum (a real reason, not "x"). */
 export const MIN_RATIONALE_AGAINST_RECORD = 80;
@@ -59,15 +86,30 @@ export const reviewSchema = z.object({
   id: z.number().int(),
   outcome: z.enum(['validated', 'returned']),
   findings: z.string(),
-  reviewer: personRefSchema,
+  reviewer: personAtTheTimeSchema,
   runId: z.number().int(),
   createdAt: z.string(),
 });
+/**
+ * The model a decision (or an adopt vote) chose: the champion (keep) or one challenger (adopt),
+ * with its column and name as the report gives them.
+ */
+export const chosenModelSchema = z.object({
+  model: z.enum(['champion', 'challenger']),
+  /** Index into the report's `challengers`; null for the champion. */
+  challenger: z.number().int().nullable(),
+  column: z.string(),
+  name: z.string(),
+});
+export type ChosenModel = z.infer<typeof chosenModelSchema>;
+
 export const voteSchema = z.object({
   id: z.number().int(),
   vote: voteChoiceSchema,
+  /** With vote adopt: the challenger's index (0 for votes cast before several challengers); null otherwise. */
+  challenger: z.number().int().nullable().default(null),
   comment: z.string(),
-  voter: personRefSchema,
+  voter: personAtTheTimeSchema,
   createdAt: z.string(),
 });
 export const decisionSchema = z.object({
@@ -76,7 +118,7 @@ export const decisionSchema = z.object({
   rationale: z.string(),
   conditions: z.string().nullable(),
   effectiveDate: z.string().nullable(),
-  decidedBy: personRefSchema,
+  decidedBy: personAtTheTimeSchema,
   runId: z.number().int(),
   policyVersion: z.number().int(),
   createdAt: z.string(),
@@ -86,18 +128,24 @@ export const decisionSchema = z.object({
   acknowledgedAgainstRecord: z.boolean().default(false),
   /** Adoption with exceptions: the mixed strategy as computed when it was decided. */
   strategy: mixedStrategyResultSchema.nullable().default(null),
+  /**
+   * The model the committee chose: the champion (keep) or the adopted challenger (adopt); null for
+   * defer. Decisions recorded before several challengers are shown with the primary challenger
+   * (adopt) or the champion (keep).
+   */
+  chosen: chosenModelSchema.nullable().default(null),
 });
 
 // --- verdict records ----------------------------------------------------------------------
-/** A verdict as stored: the policy version it used is pinned; a new policy never rewrites it. */
-export const verdictRecordSchema = z.object({
-  id: z.number().int(),
-  runId: z.number().int(),
-  policyVersion: z.number().int(),
-  outcome: verdictOutcomeSchema,
-  criteria: z.array(criterionSchema),
-  summary: z.string(),
-  createdAt: z.string(),
+// One challenger's verdict within a verdict record: shared/comparisons.ts (the current verdict carries them too).
+export { challengerVerdictSchema, type ChallengerVerdict } from './comparisons';
+
+/**
+ * A verdict as stored: the policy version it used is pinned; a new policy never rewrites it. The
+ * fields of the current verdict (shared/comparisons.ts: every challenger judged under the same
+ * version, the recommended one and its sentence), with who recorded it (null: Scorecourt).
+ */
+export const verdictRecordSchema = currentVerdictSchema.extend({
   createdBy: personRefSchema.nullable(),
 });
 export type VerdictRecord = z.infer<typeof verdictRecordSchema>;
@@ -123,6 +171,8 @@ export const governanceSchema = z.object({
   tally: z.record(voteChoiceSchema, z.number().int()),
   /** The choice with strictly the most votes, or null (no votes, or a tie). */
   majority: voteChoiceSchema.nullable(),
+  /** Adopt votes of the current round per challenger (index into the report's `challengers`); one entry per challenger. */
+  adoptVotesByChallenger: z.array(z.number().int()).default([]),
   /**
    * The people who shaped the evidence — created the comparison, uploaded one of its holdouts or
    * set up one of its analyses. The four-eyes rule bars them from reviewing, voting on or deciding it.
@@ -179,7 +229,8 @@ export const policyVersionsSchema = z.object({ versions: z.array(policyVersionSc
 // --- audit --------------------------------------------------------------------------------
 export const auditEventSchema = z.object({
   id: z.number().int(),
-  actor: personRefSchema.nullable(),
+  /** Who acted, with the name and e-mail they had at the act. */
+  actor: personAtTheTimeSchema.nullable(),
   action: z.string(),
   targetType: z.string(),
   targetId: z.string().nullable(),

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { calibrationSchema, stabilitySchema } from './calibration';
 import { adoptionPolicySchema } from './policy';
+import { statedBadRate } from './stated-bad-rate';
 
 /**
  * The comparison report: what the engine computes for one holdout scored by both models.
@@ -176,9 +177,14 @@ export const swapSegmentRowSchema = z.object({
 });
 export type SwapSegmentRow = z.infer<typeof swapSegmentRowSchema>;
 
-/** The swap-in's bad rate above the swap-out's (both defined): the challenger trades in riskier accounts there. */
+// The bad rate a swap cell states (inferred when the run infers): one rule for swap cells and the mixed strategy.
+export { statedBadRate } from './stated-bad-rate';
+
+/** The swap-in's stated bad rate above the swap-out's (both defined): the challenger trades in riskier accounts there. */
 export function swapInRiskier(row: Pick<SwapSegmentRow, 'swapIn' | 'swapOut'>): boolean {
-  return row.swapIn.badRate !== null && row.swapOut.badRate !== null && row.swapIn.badRate > row.swapOut.badRate;
+  const rateIn = statedBadRate(row.swapIn);
+  const rateOut = statedBadRate(row.swapOut);
+  return rateIn !== null && rateOut !== null && rateIn > rateOut;
 }
 
 export const swapSetsSchema = z.object({
@@ -243,14 +249,25 @@ export const strategyCurveSchema = z.object({
       challenger: strategyModelPointSchema,
     }),
   ),
-  /** At the report's approval rate. */
+  /** At the report's approval rate, both books of the same size (strategy-curve.ts). */
   atApprovalRate: z.object({
     approvalRate: z.number(),
-    /** Known bads approved (weighted). */
+    /**
+     * How the books' bads are counted when some applicants have no outcome: 'inferred' (known bads
+     * plus the run's inferred bads, rates over all accounts) or 'known-only' (bads of the accounts
+     * with an outcome; those without count as none, a caution the words state); absent otherwise.
+     */
+    bads: z.enum(['inferred', 'known-only']).optional(),
+    /** Accounts approved in both books: the champion's book at its cut-off for the rate (weighted). */
+    accounts: z.number(),
+    /** Known bads approved (weighted) in the champion's book. */
     championBads: z.number(),
+    /** Known bads among the challenger's `accounts` safest accounts (the tie block at the edge in proportion; can be fractional). */
     challengerBads: z.number(),
-    /** Champion's approved bads minus the challenger's, at the same approval rate. */
+    /** Champion's approved bads minus the challenger's, at the same number of accounts approved. */
     badsAvoided: z.number(),
+    /** The challenger's book at its own cut-off for the rate (what the swap sets show). */
+    challengerAtCutoff: z.object({ accounts: z.number(), bads: z.number() }),
     /** Extra approvals the challenger makes while keeping the champion's portfolio bad rate. */
     approvalsGainedAtEqualBadRate: z.number().nullable(),
   }),
@@ -409,6 +426,21 @@ export type Verdict = z.infer<typeof verdictSchema>;
  */
 export const maxAmountMagnitude = 1e15;
 
+/** The most challengers one comparison holds beside its champion. */
+export const MAX_CHALLENGERS = 5;
+
+/** A model's name as the modeler gives it: one line of at most 80 characters. */
+export const modelNameSchema = z.string().trim().min(1, 'Name the model').max(80).regex(/^[^\r\n]*$/, 'A model name is one line');
+
+/** A challenger after the primary one: its score column, orientation, and the modeler's name for it. */
+export const extraChallengerSchema = z.object({
+  column: z.string().min(1),
+  higherIs: higherIsSchema,
+  /** Absent = the column name. */
+  name: modelNameSchema.optional(),
+});
+export type ExtraChallenger = z.infer<typeof extraChallengerSchema>;
+
 export const columnMappingSchema = z.object({
   outcome: z.string().min(1),
   /** The outcome value that means bad (the event); the other observed value means good. */
@@ -436,6 +468,18 @@ export const columnMappingSchema = z.object({
   unknownValues: z.array(z.string().trim().min(1)).max(20).optional(),
   /** A column with each unknown row's probability of bad (0 to 1), for reject inference by column. */
   inferredBad: z.string().min(1).nullable().optional(),
+  // --- several challengers (see modelsOf below) ---
+  /** The modeler's name for the champion (e.g. "CF-2 scorecard"); absent = the column name. */
+  championName: modelNameSchema.optional(),
+  /** The modeler's name for the primary challenger (`challenger`); absent = the column name. */
+  challengerName: modelNameSchema.optional(),
+  /**
+   * Challengers after the primary, 0 to MAX_CHALLENGERS − 1: each a score column of the same
+   * holdout with its own orientation and name. Absent or empty = a two-model comparison, exactly
+   * as before. Every score column (champion and challengers) must be distinct, and so must the
+   * names (mappingModelProblems).
+   */
+  moreChallengers: z.array(extraChallengerSchema).max(MAX_CHALLENGERS - 1, `at most ${MAX_CHALLENGERS} challengers`).optional(),
 });
 export type ColumnMapping = z.infer<typeof columnMappingSchema>;
 
@@ -493,9 +537,166 @@ export const populationSchema = z.object({
 });
 export type Population = z.infer<typeof populationSchema>;
 
+// --- several challengers (one champion, 1 to MAX_CHALLENGERS challengers) -------------------
+/**
+ * A comparison may hold one champion and 1 to 5 challengers scored on the same holdout. The first
+ * challenger (mapping.challenger) is the primary: the report's `challenger`, `difference`, `swap`,
+ * curves, bands, segments, calibration and `verdict` stay about it, so a two-model comparison reads
+ * exactly as before. The sections below cover every challenger (the primary first, index 0).
+ */
+/** One model of a comparison as the mapping names it. */
+export interface ModelSpec {
+  column: string;
+  higherIs: HigherIs;
+  /** The modeler's name, or the column name when none was given. */
+  name: string;
+}
+
+/** The champion as the mapping names it. */
+export function championOf(mapping: Pick<ColumnMapping, 'champion' | 'championName' | 'higherIs'>): ModelSpec {
+  return { column: mapping.champion, higherIs: mapping.higherIs.champion, name: mapping.championName ?? mapping.champion };
+}
+
+/** Every challenger of a mapping, the primary first (index 0): the order of `Report.challengers`. */
+export function challengersOf(mapping: Pick<ColumnMapping, 'challenger' | 'challengerName' | 'higherIs' | 'moreChallengers'>): ModelSpec[] {
+  return [
+    { column: mapping.challenger, higherIs: mapping.higherIs.challenger, name: mapping.challengerName ?? mapping.challenger },
+    ...(mapping.moreChallengers ?? []).map((extra) => ({ column: extra.column, higherIs: extra.higherIs, name: extra.name ?? extra.column })),
+  ];
+}
+
+/**
+ * What is wrong with a mapping's models, in words (empty when nothing): 1 to MAX_CHALLENGERS
+ * challengers, every score column distinct, every name distinct (case and surrounding spaces
+ * ignored), none of them the outcome column. The reader and the API refuse such a mapping with
+ * these words; the mapping form shows them.
+ */
+export function mappingModelProblems(mapping: ColumnMapping): string[] {
+  const problems: string[] = [];
+  const models = [championOf(mapping), ...challengersOf(mapping)];
+  if (models.length - 1 > MAX_CHALLENGERS) problems.push(`a comparison has at most ${MAX_CHALLENGERS} challengers; this mapping names ${models.length - 1}`);
+  const role = (index: number) => (index === 0 ? 'the champion' : index === 1 ? 'the primary challenger' : `challenger ${index}`);
+  const seenColumns = new Map<string, number>();
+  const seenNames = new Map<string, number>();
+  models.forEach((model, index) => {
+    if (model.column === mapping.outcome) problems.push(`column "${model.column}" is the outcome and cannot also be ${role(index)}'s score`);
+    const column = seenColumns.get(model.column);
+    if (column !== undefined) problems.push(`column "${model.column}" is both ${role(column)} and ${role(index)}; each model needs its own score column`);
+    else seenColumns.set(model.column, index);
+    const key = model.name.trim().toLowerCase();
+    const name = seenNames.get(key);
+    if (name !== undefined && column === undefined) problems.push(`the name "${model.name}" is given to both ${role(name)} and ${role(index)}; give each model its own name`);
+    else if (name === undefined) seenNames.set(key, index);
+  });
+  return problems;
+}
+
+/**
+ * One challenger against the champion. For index 0 (the primary) `metrics`, `difference` and
+ * `verdict` equal the report's `challenger`, `difference` and `verdict`.
+ */
+export const challengerResultSchema = z.object({
+  column: z.string(),
+  name: z.string(),
+  metrics: modelMetricsSchema,
+  /** This challenger − the champion: paired DeLong, bootstrap ΔGini and ΔKS (same replicates for every model). */
+  difference: differenceSchema,
+  /** Holm-adjusted one- and two-sided p across the K challengers' tests against the champion (= the plain p with K = 1). */
+  pOneSidedHolm: z.number().nullable(),
+  pTwoSidedHolm: z.number().nullable(),
+  /** This challenger judged under the report's policy; with K ≥ 2 the significance criterion uses the Holm-adjusted p and says so. */
+  verdict: verdictSchema,
+  /**
+   * Swap sets against the champion at the report's approval rate (settings.approvalRate; both
+   * models at their cut-offs for that rate, even when the report's own `swap` uses fixed cut-offs).
+   */
+  swap: swapSetsSchema,
+  /** Data quality of this model's score: its summary, and its correlation with the champion's score as given. */
+  score: scoreSummarySchema,
+  scoreCorrelation: z.object({ pearson: z.number().nullable(), spearman: z.number().nullable() }),
+  /** Replicate distributions of this challenger (same resampled rows as every model), binned; null without bootstrap. */
+  histograms: z.object({ deltaGini: histogramSchema, deltaKs: histogramSchema, challengerKs: histogramSchema }).nullable(),
+  /**
+   * Challengers after the primary only (the primary's are the report's own `segments`,
+   * `calibration`, `stability`): this challenger against the champion within each segment value,
+   * and its calibration and stability sections — the evidence its verdict was judged on (a
+   * further challenger is never marked as a PD and has no PSI reference scores).
+   */
+  segments: z.array(segmentRowSchema).optional(),
+  calibration: calibrationSchema.optional(),
+  stability: stabilitySchema.optional(),
+  /**
+   * Challengers after the primary only (the primary's is the report's `bands.challenger`): this
+   * challenger's band table on its own score (the champion's is the report's `bands.champion`).
+   */
+  bands: bandTableSchema.optional(),
+});
+export type ChallengerResult = z.infer<typeof challengerResultSchema>;
+
+/** A pair of challengers: b − a (indices into `challengers`, a < b), paired DeLong. */
+export const challengerPairSchema = z.object({
+  a: z.number().int(),
+  b: z.number().int(),
+  /** Gini of b − Gini of a. */
+  deltaGini: z.number(),
+  /** DeLong standard error of that ΔGini; it, z and p are null without a variance (fewer than 2 goods or bads). */
+  se: z.number().nullable(),
+  z: z.number().nullable(),
+  pTwoSided: z.number().nullable(),
+});
+export type ChallengerPair = z.infer<typeof challengerPairSchema>;
+
+/**
+ * The joint test that every challenger's AUC equals the champion's (DeLong, DeLong &
+ * Clarke-Pearson 1988): χ² = (Lθ)ᵀ(LSLᵀ)⁻(Lθ), df = rank of the contrast covariance. With K = 1 it
+ * is the paired test's z², df 1. Null without a variance or when every challenger ranks as the champion.
+ */
+export const jointTestSchema = z.object({ chi2: z.number(), df: z.number().int(), p: z.number() });
+export type JointTestResult = z.infer<typeof jointTestSchema>;
+
+/**
+ * The recommended challenger (shared/choose-challenger.ts): among those whose verdict is
+ * supported, the highest Gini, ties by the lower swap-in bad rate at the policy's approval rate.
+ */
+export const challengerChoiceSchema = z.object({
+  /** Index into `challengers`; null: none is supported, the champion stays. */
+  recommended: z.number().int().nullable(),
+  /** One plain sentence naming the recommended challenger (or none) and why. */
+  summary: z.string(),
+});
+export type ChallengerChoice = z.infer<typeof challengerChoiceSchema>;
+
+/**
+ * Who each model approves at one matched approval rate: every model at its own cut-off for the
+ * rate (the cut-off rule of the swap sets), and the accounts in each combination of approve /
+ * decline across the models (2^(K+1) combinations, champion first, every combination listed).
+ */
+export const approvalPatternsSchema = z.object({
+  approvalRate: z.number(),
+  /** Champion first, then the challengers in order. */
+  models: z.array(z.object({ name: z.string(), column: z.string(), cutoff: z.number(), approvalRate: z.number() })),
+  combinations: z.array(
+    z.object({
+      /** Per model (champion first): approved at its cut-off. */
+      approved: z.array(z.boolean()),
+      /** Rows of the file. */
+      count: z.number().int(),
+      /** Applicants (weighted), known outcome among them, and their bads (weighted). */
+      accounts: z.number(),
+      known: z.number(),
+      bads: z.number(),
+      /** bads / known; null when none has a known outcome. */
+      badRate: z.number().nullable(),
+    }),
+  ),
+});
+export type ApprovalPatterns = z.infer<typeof approvalPatternsSchema>;
+// --- end of several challengers ---
+
 export const reportSchema = z.object({
   engineVersion: z.string(),
-  input: z.object({ fileName: z.string(), sha256: z.string(), bytes: z.number().int() }),
+  /** `sheet`: the worksheet read, when the holdout is an .xlsx workbook. */
+  input: z.object({ fileName: z.string(), sha256: z.string(), bytes: z.number().int(), sheet: z.string().optional() }),
   mapping: columnMappingSchema,
   settings: analysisSettingsSchema,
   /** The adoption policy the verdict was evaluated under. */
@@ -523,6 +724,15 @@ export const reportSchema = z.object({
   /** Optional: reports stored before engine 1.2 have neither. */
   calibration: calibrationSchema.optional(),
   stability: stabilitySchema.optional(),
+  // Several challengers (absent in reports stored before them; present for every new report, K = 1 included).
+  /** Every challenger against the champion, the primary first. */
+  challengers: z.array(challengerResultSchema).optional(),
+  /** Every pair of challengers (empty with one challenger). */
+  pairwise: z.array(challengerPairSchema).optional(),
+  joint: jointTestSchema.nullable().optional(),
+  choice: challengerChoiceSchema.optional(),
+  /** At the report's approval rate (settings.approvalRate). */
+  approvalPatterns: approvalPatternsSchema.optional(),
 });
 export type Report = z.infer<typeof reportSchema>;
 

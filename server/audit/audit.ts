@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { DataSource, EntityManager } from 'typeorm';
 import { now } from '../clock';
-import { AuditEvent } from '../db/entities/index';
+import { AuditEvent, User } from '../db/entities/index';
 import { canonicalJson } from './canonical-json';
 
 /**
@@ -9,7 +9,8 @@ import { canonicalJson } from './canonical-json';
  *
  * hash_i = SHA-256( prevHash_i + "\n" + canonical_i ), prevHash_i = hash_{i−1} (64 zeros for the
  * first event), canonical_i = canonical JSON of { action, actorId, createdAt (ISO 8601),
- * details, prevHash, targetId, targetType }. Changing, removing or reordering any stored event
+ * details, prevHash, targetId, targetType }, plus actorName and actorEmail when the event has them
+ * (events recorded before names were kept have neither, so their hashes are unchanged). Changing, removing or reordering any stored event
  * breaks the chain at that event or the next; `verifyAuditChain` finds where. (Removing only the
  * newest events cannot be detected from the chain alone.)
  *
@@ -19,17 +20,21 @@ import { canonicalJson } from './canonical-json';
 export const genesisHash = '0'.repeat(64);
 
 export interface AuditInput {
-  /** The signed-in person, or null for the system. */
-  actor: { id: number } | null;
+  /** The signed-in person, or null for the system. Name and e-mail are looked up when not given. */
+  actor: { id: number; name?: string; email?: string } | null;
   action: string;
   target: { type: string; id: string | number | null };
   details?: Record<string, unknown>;
 }
 
-function canonicalEvent(event: Pick<AuditEvent, 'action' | 'actorId' | 'createdAt' | 'details' | 'prevHash' | 'targetId' | 'targetType'>): string {
+function canonicalEvent(
+  event: Pick<AuditEvent, 'action' | 'actorId' | 'createdAt' | 'details' | 'prevHash' | 'targetId' | 'targetType'> & Partial<Pick<AuditEvent, 'actorName' | 'actorEmail'>>,
+): string {
   return canonicalJson({
     action: event.action,
     actorId: event.actorId,
+    ...(event.actorName != null ? { actorName: event.actorName } : {}),
+    ...(event.actorEmail != null ? { actorEmail: event.actorEmail } : {}),
     createdAt: event.createdAt.toISOString(),
     details: JSON.parse(event.details) as unknown,
     prevHash: event.prevHash,
@@ -52,8 +57,18 @@ export async function recordAudit(manager: EntityManager, input: AuditInput): Pr
   }
   const repository = manager.getRepository(AuditEvent);
   const [last] = await repository.find({ order: { id: 'DESC' }, take: 1, select: { id: true, hash: true } });
+  // The name and e-mail the actor has now, at the act (a later rename does not rewrite the event).
+  let actor: { name: string; email: string } | null = null;
+  if (input.actor) {
+    actor =
+      input.actor.name !== undefined && input.actor.email !== undefined
+        ? { name: input.actor.name, email: input.actor.email }
+        : await manager.getRepository(User).findOne({ where: { id: input.actor.id }, select: { id: true, name: true, email: true } });
+  }
   const event = repository.create({
     actorId: input.actor?.id ?? null,
+    actorName: actor?.name ?? null,
+    actorEmail: actor?.email ?? null,
     action: input.action,
     targetType: input.target.type,
     targetId: input.target.id === null ? null : String(input.target.id),

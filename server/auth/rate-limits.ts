@@ -1,7 +1,10 @@
 import { errorCodes } from '@shared/errors';
 import type { RequestHandler } from 'express';
-import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import { ipKeyGenerator, rateLimit, type Store } from 'express-rate-limit';
+import type { DataSource } from 'typeorm';
+import { isPostgres } from '../db/driver';
 import { AppError } from '../errors';
+import { DatabaseRateLimitStore } from './rate-limit-store';
 
 /** The key for per-account, per-address limits: the e-mail (already normalised) and the client address. */
 function accountAndAddress(req: Parameters<RequestHandler>[0]): string {
@@ -20,10 +23,11 @@ function limited(message: string): RequestHandler {
 
 /**
  * Sign-in: 10 failed attempts in 15 minutes for one account from one address → 429 until the
- * window passes. Successful sign-ins are not counted. Each app gets its own counters (in memory:
- * the server is one process).
+ * window passes. Successful sign-ins are not counted. Each app gets its own counters: in memory
+ * on SQLite (the server is one process), in the database on PostgreSQL (every instance counts the
+ * same attempts: rate-limit-store.ts).
  */
-export function signInLimiter(): RequestHandler {
+export function signInLimiter(dataSource?: DataSource): RequestHandler {
   const onLimit = limited('Too many failed sign-in attempts for this account.');
   return rateLimit({
     windowMs: 15 * 60_000,
@@ -33,11 +37,17 @@ export function signInLimiter(): RequestHandler {
     legacyHeaders: false,
     keyGenerator: accountAndAddress,
     handler: (req, res, next) => onLimit(req, res, next),
+    store: sharedStore(dataSource, 'sign-in:'),
   });
 }
 
+/** The counters' store: in the database on PostgreSQL, else express-rate-limit's memory store. */
+export function sharedStore(dataSource: DataSource | undefined, prefix: string): Store | undefined {
+  return dataSource && isPostgres(dataSource) ? new DatabaseRateLimitStore(dataSource, prefix) : undefined;
+}
+
 /** Password-reset requests: 5 in 15 minutes for one address and account, so the form cannot flood an inbox. */
-export function resetRequestLimiter(): RequestHandler {
+export function resetRequestLimiter(dataSource?: DataSource): RequestHandler {
   const onLimit = limited('Too many password-reset requests.');
   return rateLimit({
     windowMs: 15 * 60_000,
@@ -46,5 +56,6 @@ export function resetRequestLimiter(): RequestHandler {
     legacyHeaders: false,
     keyGenerator: accountAndAddress,
     handler: (req, res, next) => onLimit(req, res, next),
+    store: sharedStore(dataSource, 'password-reset:'),
   });
 }

@@ -63,7 +63,7 @@ export function authRoutes(ctx: AppContext, passport: PassportInstance): RouteDe
       access: 'public',
       summary: 'Sign in with { email, password } → { user }; 401 wrong, 403 deactivated, 429 too many failures',
       validate: { body: loginInputSchema },
-      before: [signInLimiter()],
+      before: [signInLimiter(ctx.dataSource)],
       handler: async (req, res) => {
         const user = await authenticate(passport, req, res);
         if (!user) throw invalidCredentials();
@@ -105,7 +105,7 @@ export function authRoutes(ctx: AppContext, passport: PassportInstance): RouteDe
       access: 'public',
       summary: 'E-mail a one-hour password-reset link → 202 { ok: true }, known address or not',
       validate: { body: passwordResetRequestSchema },
-      before: [resetRequestLimiter()],
+      before: [resetRequestLimiter(ctx.dataSource)],
       handler: async (req, res) => {
         const user = await dataSource.getRepository(User).findOneBy({ email: req.body.email });
         if (user && user.active) {

@@ -1,6 +1,8 @@
 import session from 'express-session';
+import { now } from '../clock';
 import { LessThan, type DataSource } from 'typeorm';
 import { Session } from '../db/entities/index';
+import { isPostgres, rawQuery } from '../db/driver';
 import { withWriteLock } from '../db/transaction';
 import type { Logger } from '../log';
 
@@ -14,6 +16,11 @@ import type { Logger } from '../log';
  * most two hours, oldest dropped first: asking for tokens without signing in costs no disk (5,000
  * anonymous calls left 5,000 rows for 8 hours before). Such a session is lost on a restart; the
  * client fetches a new token when its old one is refused.
+ *
+ * On PostgreSQL, where several server instances behind a load balancer share the database, a
+ * session without a person is stored too (for at most two hours, pruned like the others): the
+ * CSRF token fetched through one instance must be known to the instance that receives the
+ * sign-in. The expiry cache below then only skips touches; a stale entry costs one write.
  */
 export class SqliteSessionStore extends session.Store {
   private readonly timer: NodeJS.Timeout;
@@ -26,6 +33,8 @@ export class SqliteSessionStore extends session.Store {
   /** Sessions without a signed-in person, in memory only (insertion order: oldest first). */
   private readonly anonymous = new Map<string, { data: string; expiresAt: number }>();
   static readonly anonymousMax = 20_000;
+  /** SQLite: sessions without a person stay in this process; PostgreSQL: stored, for every instance. */
+  private readonly anonymousInMemory: boolean;
   static readonly anonymousTtlMs = 2 * 60 * 60_000;
 
   constructor(
@@ -34,6 +43,7 @@ export class SqliteSessionStore extends session.Store {
     private readonly options: { defaultTtlMs: number; pruneEveryMs: number } = { defaultTtlMs: 86_400_000, pruneEveryMs: 10 * 60_000 },
   ) {
     super();
+    this.anonymousInMemory = !isPostgres(dataSource);
     this.timer = setInterval(() => {
       this.prune().catch((error: unknown) => this.log.warn('session prune failed', error));
     }, this.options.pruneEveryMs);
@@ -47,7 +57,14 @@ export class SqliteSessionStore extends session.Store {
   private expiry(data: session.SessionData): Date {
     const expires = data.cookie?.expires;
     if (expires) return new Date(expires);
-    return new Date(Date.now() + this.options.defaultTtlMs);
+    return new Date(now().getTime() + this.options.defaultTtlMs);
+  }
+
+  /** The expiry a stored row gets: a session without a person (stored on PostgreSQL only) lasts two hours at most. */
+  private rowExpiry(data: session.SessionData): Date {
+    const expiry = this.expiry(data);
+    if (SqliteSessionStore.userIdOf(data) !== null) return expiry;
+    return new Date(Math.min(expiry.getTime(), now().getTime() + SqliteSessionStore.anonymousTtlMs));
   }
 
   private static userIdOf(data: session.SessionData): number | null {
@@ -63,26 +80,26 @@ export class SqliteSessionStore extends session.Store {
   private keepAnonymous(sid: string, data: session.SessionData): void {
     this.anonymous.delete(sid);
     if (this.anonymous.size >= SqliteSessionStore.anonymousMax) this.anonymous.delete(this.anonymous.keys().next().value!);
-    const expiresAt = Math.min(this.expiry(data).getTime(), Date.now() + SqliteSessionStore.anonymousTtlMs);
+    const expiresAt = Math.min(this.expiry(data).getTime(), now().getTime() + SqliteSessionStore.anonymousTtlMs);
     this.anonymous.set(sid, { data: JSON.stringify(data), expiresAt });
   }
 
   override get(sid: string, callback: (err: unknown, session?: session.SessionData | null) => void): void {
     const kept = this.anonymous.get(sid);
     if (kept) {
-      if (kept.expiresAt > Date.now()) return callback(null, JSON.parse(kept.data) as session.SessionData);
+      if (kept.expiresAt > now().getTime()) return callback(null, JSON.parse(kept.data) as session.SessionData);
       this.anonymous.delete(sid);
       return callback(null, null);
     }
     // A plain query: this runs on every request, and the row needs no entity.
-    (this.dataSource.query('SELECT "data", "expiresAt" FROM "sessions" WHERE "sid" = ?', [sid]) as Promise<{ data: string; expiresAt: string }[]>)
+    rawQuery<{ data: string; expiresAt: string | Date }>(this.dataSource, 'SELECT "data", "expiresAt" FROM "sessions" WHERE "sid" = ?', [sid])
       .then(([row]) => {
         if (!row) {
           this.storedExpiry.delete(sid);
           return callback(null, null);
         }
         const expiresAt = storedDate(row.expiresAt);
-        if (!(expiresAt > Date.now())) {
+        if (!(expiresAt > now().getTime())) {
           this.destroy(sid);
           return callback(null, null);
         }
@@ -93,7 +110,7 @@ export class SqliteSessionStore extends session.Store {
   }
 
   override set(sid: string, data: session.SessionData, callback?: (err?: unknown) => void): void {
-    if (SqliteSessionStore.userIdOf(data) === null) {
+    if (SqliteSessionStore.userIdOf(data) === null && this.anonymousInMemory) {
       this.keepAnonymous(sid, data);
       // A stored session that no longer has a person (signed out without a new id) leaves the database.
       if (!this.storedExpiry.has(sid)) {
@@ -107,7 +124,7 @@ export class SqliteSessionStore extends session.Store {
       return;
     }
     this.anonymous.delete(sid);
-    const row = { sid, data: JSON.stringify(data), expiresAt: this.expiry(data), userId: SqliteSessionStore.userIdOf(data) };
+    const row = { sid, data: JSON.stringify(data), expiresAt: this.rowExpiry(data), userId: SqliteSessionStore.userIdOf(data) };
     withWriteLock(this.dataSource, () => this.repository.upsert(row, ['sid']))
       .then(() => {
         this.remember(sid, row.expiresAt.getTime());
@@ -126,7 +143,7 @@ export class SqliteSessionStore extends session.Store {
       callback?.();
       return;
     }
-    const expiresAt = this.expiry(data);
+    const expiresAt = this.rowExpiry(data);
     const known = this.storedExpiry.get(sid);
     if (known !== undefined && expiresAt.getTime() - known < 60_000) {
       callback?.();
@@ -166,7 +183,7 @@ export class SqliteSessionStore extends session.Store {
 
   /** Removes expired sessions; returns how many. */
   async prune(): Promise<number> {
-    const result = await withWriteLock(this.dataSource, () => this.repository.delete({ expiresAt: LessThan(new Date()) }));
+    const result = await withWriteLock(this.dataSource, () => this.repository.delete({ expiresAt: LessThan(now()) }));
     return result.affected ?? 0;
   }
 

@@ -1,3 +1,7 @@
+import { flaggedSegmentsOf } from '@shared/challenger-sections';
+import { segmentFlagsText } from '@shared/challengers-words';
+import { equalApprovalSentence } from '@shared/equal-approval-words';
+import { segmentPSidedness } from '@shared/pack/evidence-words';
 import { parseArgs } from 'node:util';
 import { MISSING, formatCount, formatFixed, formatGini, formatPStatement, formatPercent, formatSignedNumber } from '@shared/format';
 import {
@@ -6,6 +10,8 @@ import {
   fullSwapCell,
   type HigherIs,
   inferenceOf,
+  MAX_CHALLENGERS,
+  modelNameSchema,
   populationOf,
   type RejectInference,
   rejectInferenceMethods,
@@ -13,6 +19,7 @@ import {
   swapInRiskier,
 } from '@shared/report';
 import { HoldoutInputError } from '@server/reader/errors';
+import { fileWithSheet } from '@shared/input-file';
 import { loadHoldout } from '@server/reader/load';
 import { loadReference } from '@server/reader/load-reference';
 import { calibrationStabilityLines } from './calibration-text';
@@ -32,14 +39,20 @@ Compares a challenger credit-scoring model with the champion on one holdout CSV 
 account: the observed outcome and both models' scores) and prints the report.
 
 Columns
+  --sheet NAME               for an .xlsx holdout: the worksheet to read (default: the first;
+                             a --reference workbook is read from its first sheet)
   --outcome COL              outcome column (default: bad)
   --bad-value V              the outcome value that means bad (default: 1)
   --champion COL             champion's score column (default: champion)
-  --challenger COL           challenger's score column (default: challenger)
+  --challenger COL           challenger's score column (default: challenger); repeat it for
+                             several challengers (1 to 5; the first is the primary one)
+  --challenger-name NAME     the modeler's name of each challenger, in the same order (optional)
+  --champion-name NAME       the modeler's name of the champion (optional)
   --higher-is safer|riskier  orientation of both scores (default: safer; points are safer,
                              probabilities of default riskier)
   --champion-higher-is safer|riskier     orientation of the champion's score only
-  --challenger-higher-is safer|riskier   orientation of the challenger's score only
+  --challenger-higher-is safer|riskier   orientation of the challenger's score only; with several
+                             challengers give it once per --challenger, in the same order
   --segment COL              a categorical column to compare within (repeatable)
   --exposure COL             exposure / amount column, summed in the swap sets
   --id COL                   account id column
@@ -90,13 +103,16 @@ duties apply; defer to your institution's model risk policy, local regulation an
 class UsageError extends Error {}
 
 const options = {
+  sheet: { type: 'string' },
   outcome: { type: 'string' },
   'bad-value': { type: 'string' },
   champion: { type: 'string' },
-  challenger: { type: 'string' },
+  challenger: { type: 'string', multiple: true },
+  'challenger-name': { type: 'string', multiple: true },
+  'champion-name': { type: 'string' },
   'higher-is': { type: 'string' },
   'champion-higher-is': { type: 'string' },
-  'challenger-higher-is': { type: 'string' },
+  'challenger-higher-is': { type: 'string', multiple: true },
   bootstrap: { type: 'string' },
   seed: { type: 'string' },
   confidence: { type: 'string' },
@@ -132,6 +148,8 @@ export interface CompareCommand {
   settings: Partial<AnalysisSettings>;
   /** The development sample's file, for the PSI; null without one. */
   reference: string | null;
+  /** The worksheet of an .xlsx holdout (and reference) to read; null: the first. */
+  sheet: string | null;
 }
 
 function orientation(value: string | undefined, fallback: HigherIs, flag: string): HigherIs {
@@ -170,25 +188,46 @@ export function parseCommand(argv: string[]): CompareCommand {
   }
   const { values, positionals } = parsed;
   if (values.help) {
-    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {}, reference: null };
+    return { help: true, file: '', json: false, dropMissing: false, mapping: {} as ColumnMapping, settings: {}, reference: null, sheet: null };
   }
   if (positionals.length !== 1) {
     throw new UsageError(positionals.length === 0 ? 'give the holdout CSV file (see --help)' : `give one holdout file, got ${positionals.length}: ${positionals.join(', ')}`);
   }
   const both = orientation(values['higher-is'], 'safer', '--higher-is');
+  // Several challengers: --challenger repeated (the first is the primary), each orientation and
+  // name in the same order.
+  const challengers = values.challenger ?? ['challenger'];
+  const orientations = values['challenger-higher-is'] ?? [];
+  const names = values['challenger-name'] ?? [];
+  if (challengers.length > MAX_CHALLENGERS) throw new UsageError(`give at most ${MAX_CHALLENGERS} --challenger columns, got ${challengers.length}`);
+  if (orientations.length > 0 && orientations.length !== challengers.length) {
+    throw new UsageError(`give --challenger-higher-is once per --challenger, in the same order (${challengers.length} challengers, ${orientations.length} orientations)`);
+  }
+  if (names.length > 0 && names.length !== challengers.length) {
+    throw new UsageError(`give --challenger-name once per --challenger, in the same order (${challengers.length} challengers, ${names.length} names)`);
+  }
+  const higherOf = (k: number) => orientation(orientations[k], both, '--challenger-higher-is');
   const mapping: ColumnMapping = {
     outcome: values.outcome ?? 'bad',
     badValue: values['bad-value'] ?? '1',
     champion: values.champion ?? 'champion',
-    challenger: values.challenger ?? 'challenger',
+    challenger: challengers[0],
     higherIs: {
       champion: orientation(values['champion-higher-is'], both, '--champion-higher-is'),
-      challenger: orientation(values['challenger-higher-is'], both, '--challenger-higher-is'),
+      challenger: higherOf(0),
     },
     id: values.id ?? null,
     segments: values.segment ?? [],
     exposure: values.exposure ?? null,
   };
+  for (const [flag, name] of [['--champion-name', values['champion-name']], ...names.map((name) => ['--challenger-name', name] as const)] as const) {
+    if (name !== undefined && !modelNameSchema.safeParse(name).success) throw new UsageError(`${flag} must be one line of 1 to 80 characters, got "${name}"`);
+  }
+  if (values['champion-name'] !== undefined) mapping.championName = values['champion-name'].trim();
+  if (names.length > 0) mapping.challengerName = names[0].trim();
+  if (challengers.length > 1) {
+    mapping.moreChallengers = challengers.slice(1).map((column, k) => ({ column, higherIs: higherOf(k + 1), ...(names.length > 0 ? { name: names[k + 1].trim() } : {}) }));
+  }
   // Calibration and stability columns, only when given (the mapping stays the CLI's earlier form otherwise).
   const pdModels = values.pd ?? [];
   for (const model of pdModels) {
@@ -211,7 +250,7 @@ export function parseCommand(argv: string[]): CompareCommand {
     if (!values['keep-unknown']) throw new UsageError('--inferred-bad needs --keep-unknown');
     mapping.inferredBad = values['inferred-bad'];
   }
-  for (const [flag, value] of Object.entries({ '--outcome': mapping.outcome, '--bad-value': mapping.badValue, '--champion': mapping.champion, '--challenger': mapping.challenger })) {
+  for (const [flag, value] of [['--outcome', mapping.outcome], ['--bad-value', mapping.badValue], ['--champion', mapping.champion], ...challengers.map((column) => ['--challenger', column])]) {
     if (value.trim() === '') throw new UsageError(`${flag} must not be empty`);
   }
   const settings: Partial<AnalysisSettings> = {};
@@ -245,7 +284,7 @@ export function parseCommand(argv: string[]): CompareCommand {
     if (chosen === 'column' && mapping.inferredBad === undefined) throw new UsageError('--reject-inference column needs --inferred-bad COL');
     settings.rejectInference = { method: chosen, parcelFactor: parcelFactor ?? 1 };
   }
-  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings, reference: values.reference ?? null };
+  return { help: false, file: positionals[0], json: values.json ?? false, dropMissing: settings.dropMissing, mapping, settings, reference: values.reference ?? null, sheet: values.sheet ?? null };
 }
 
 // --- the readable summary ------------------------------------------------------------------
@@ -263,7 +302,7 @@ export function summary(report: Report): string {
   const level = `${Math.round(report.settings.confidence * 1000) / 10}%`;
   const lines: string[] = [];
   const { champion, challenger, difference, swap } = report;
-  lines.push(`Scorecourt comparison of ${report.input.fileName}`);
+  lines.push(`Scorecourt comparison of ${fileWithSheet(report.input)}`);
   lines.push(`  ${int(report.rows)} accounts, ${int(report.bads)} bads (bad rate ${pct(report.badRate, 2)}); SHA-256 ${report.input.sha256}`);
   if (report.population) {
     const p = populationOf(report);
@@ -318,15 +357,7 @@ export function summary(report: Report): string {
   }
   const test = swap.test;
   lines.push(`  swap-in vs swap-out bad rate: ${test.method}${test.z === null ? '' : `, z = ${formatFixed(test.z, 3)}`}, ${test.p === null ? `p — (${test.reason})` : pStatement(test.p)}`);
-  const atRate = report.strategyCurve.atApprovalRate;
-  const avoided = atRate.badsAvoided;
-  const badsWords = avoided === 0 ? 'as many bads as the champion' : `${int(Math.abs(avoided))} ${avoided > 0 ? 'fewer' : 'more'} bads`;
-  const gained = atRate.approvalsGainedAtEqualBadRate;
-  const gainedWords =
-    gained === null
-      ? ''
-      : `; at the champion's bad rate it approves ${gained === 0 ? 'as many' : `${int(Math.abs(gained))} ${gained > 0 ? 'more' : 'fewer'}`} accounts`;
-  lines.push(`  at ${pct(atRate.approvalRate)} approval the challenger approves ${badsWords}${gainedWords}`);
+  lines.push(`  ${equalApprovalSentence(report.strategyCurve.atApprovalRate)}`);
   const segmentLabel = (row: { column: string; value: string }) => `${row.column} = ${row.value}`;
   const labelWidth = (rows: { column: string; value: string }[]) => Math.max(30, ...rows.map((row) => segmentLabel(row).length + 2));
   if (swap.bySegment.length > 0) {
@@ -338,20 +369,23 @@ export function summary(report: Report): string {
     for (const row of swap.bySegment) {
       const approvals = `approves ${pct(row.champion.approvalRate)} → ${pct(row.challenger.approvalRate)}`;
       const badRates = `bad rate ${pct(row.champion.approvedBadRate, 2)} → ${pct(row.challenger.approvedBadRate, 2)}`;
-      const swaps = `swap-in ${int(Math.round(row.swapIn.accounts ?? row.swapIn.count))} (${pct(row.swapIn.badRate, 2)}), swap-out ${int(Math.round(row.swapOut.accounts ?? row.swapOut.count))} (${pct(row.swapOut.badRate, 2)})`;
+      // The rate the run states: inferred (and named so) for cells with applicants without an outcome.
+      const rate = (cell: typeof row.swapIn) => ((cell.unknown ?? 0) > 0 && cell.inferred ? `${pct(cell.inferred.badRate, 2)} inferred` : pct(cell.badRate, 2));
+      const swaps = `swap-in ${int(Math.round(row.swapIn.accounts ?? row.swapIn.count))} (${rate(row.swapIn)}), swap-out ${int(Math.round(row.swapOut.accounts ?? row.swapOut.count))} (${rate(row.swapOut)})`;
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(approvals, 26)}${pad(badRates, 28)}${swaps}${swapInRiskier(row) ? '  (swap-in riskier)' : ''}`);
     }
     lines.push("  (swap-in riskier): its bad rate is above the swap-out's. Point estimates: a small value moves a lot with a few accounts (intervals in --json)");
   }
   if (report.segments.length > 0) {
     lines.push('');
-    lines.push(`Segments (ΔGini in points; p ${report.policy.sided}, Holm-adjusted across all segment rows)`);
+    lines.push(`Segments (ΔGini in points; p ${segmentPSidedness(report)}, Holm-adjusted across all segment rows)`);
     const width = labelWidth(report.segments);
     for (const row of report.segments) {
       const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  ${pStatement(row.p!)}  Holm ${pStatement(row.pHolm!)}`;
       lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
     }
   }
+  lines.push(...severalChallengerLines(report, level));
   lines.push(...calibrationStabilityLines(report.calibration, report.stability));
   if (report.dataQuality.warnings.length > 0) {
     lines.push('');
@@ -367,6 +401,31 @@ export function summary(report: Report): string {
   lines.push("model changes who is approved and declined, so fair-lending and adverse-action duties apply. Defer to the");
   lines.push("institution's model risk policy, local regulation and licensed advice.");
   return lines.join('\n') + '\n';
+}
+
+/** Several challengers (two or more): each against the champion, the joint test, every pair, the recommended one. None for one challenger. */
+function severalChallengerLines(report: Report, level: string): string[] {
+  const challengers = report.challengers ?? [];
+  if (challengers.length < 2) return [];
+  const lines = ['', `Challengers against the champion (ΔGini in points, ${level} CI by DeLong; p ${report.policy.sided}, Holm-adjusted across ${challengers.length})`];
+  const width = Math.max(24, ...challengers.map((challenger) => challenger.name.length + 2));
+  challengers.forEach((challenger, index) => {
+    const { difference } = challenger;
+    const p = report.policy.sided === 'one-sided' ? challenger.pOneSidedHolm : challenger.pTwoSidedHolm;
+    lines.push(
+      `  ${pad(challenger.name, width)}Gini ${pad(points(challenger.metrics.gini), 7)}ΔGini ${pad(signed(difference.gini, 2), 8)}${pad(range(difference.giniCi, (v) => signed(v, 2)), 20)}Holm ${pad(pStatement(p), 24)}${challenger.verdict.outcome}`,
+    );
+    // Its flagged segment values (the rows its segment rule was judged on; the first's are under Segments too).
+    const flagged = flaggedSegmentsOf(report, index);
+    if (flagged.length > 0) lines.push(`  ${pad('', width)}worse than the champion in ${flagged.map((row) => `${row.column} = ${row.value} (${segmentFlagsText(row.flags).toLowerCase()})`).join(', ')}`);
+  });
+  const joint = report.joint;
+  lines.push(joint ? `  Joint test that every challenger equals the champion: χ² = ${formatFixed(joint.chi2, 3)}, df ${joint.df}, ${pStatement(joint.p)}` : '  Joint test: none (no variance)');
+  for (const pair of report.pairwise ?? []) {
+    lines.push(`  ${challengers[pair.b].name} − ${challengers[pair.a].name}: ΔGini ${signed(pair.deltaGini, 2)}, two-sided ${pStatement(pair.pTwoSided)}`);
+  }
+  if (report.choice) lines.push(`  ${report.choice.summary}`);
+  return lines;
 }
 
 // --- running -------------------------------------------------------------------------------
@@ -392,7 +451,7 @@ export async function runCompare(argv: string[], io: CompareIo): Promise<number>
   }
   const { file } = command;
   try {
-    const loaded = await loadHoldout({ path: file }, command.mapping, { dropMissing: command.dropMissing });
+    const loaded = await loadHoldout({ path: file, sheet: command.sheet }, command.mapping, { dropMissing: command.dropMissing });
     const reference = command.reference === null ? null : await loadReference({ path: command.reference }, command.mapping, { dropMissing: command.dropMissing });
     let shown = -1;
     const report = await buildReport({

@@ -3,7 +3,7 @@ import { passwordResetRequestSchema } from '@shared/users';
 import { recordAudit } from '../audit/audit';
 import { issueToken, tokenLink } from '../auth/tokens';
 import { now } from '../clock';
-import { ConfigError, loadConfig } from '../config';
+import { ConfigError, databaseAddress, loadConfig } from '../config';
 import { openDatabase } from '../db/data-source';
 import { User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
@@ -42,7 +42,7 @@ async function main(): Promise<number> {
     }
     throw error;
   }
-  const dataSource = await openDatabase(config.databasePath);
+  const dataSource = await openDatabase(databaseAddress(config));
   try {
     const result = await inTransaction(dataSource, async (manager) => {
       const users = manager.getRepository(User);

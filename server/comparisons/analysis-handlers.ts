@@ -5,18 +5,20 @@ import type { JobHandlers } from '../jobs/handlers';
 import type { Mailer } from '../mail/mailer';
 import { currentPolicy } from '../policy/service';
 import { engineVersion } from '../stats/report';
-import { preparedCacheFor } from './prepared-cache';
+import type { PreparedCache } from './prepared-cache';
 import { recordFinishedRun, recordUnstoredRun } from './run-finished';
+import { rawQuery } from '../db/driver';
 
 /**
  * What the analysis queue does when a comparison's run is claimed and when it ends: the worker
  * judges the run under the adoption policy current when it starts; a finished run is stored by
  * recordFinishedRun (the run, the verdict record, the state change, the audit event and the
  * creator's e-mail, in one transaction); the e-mail goes out after the commit; the data the worker
- * prepared for swap sets goes to the cache and its sort orders to run_columns.
+ * prepared for swap sets goes to the app's cache (when given: a worker process has none) and its
+ * sort orders to run_columns.
  */
-export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer; publicUrl?: string }): JobHandlers {
-  const { dataSource, mailer, publicUrl } = deps;
+export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer; publicUrl?: string; preparedCache?: PreparedCache }): JobHandlers {
+  const { dataSource, mailer, publicUrl, preparedCache } = deps;
   return {
     engineVersion,
     jobInput: async (manager) => ({ policy: await currentPolicy(manager) }),
@@ -31,6 +33,7 @@ export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer
               engineVersion: outcome.message.engineVersion,
               headline: outcome.message.headline,
               verdict: outcome.message.verdict,
+              choice: outcome.message.choice,
             }
           : outcome,
         { mailer, publicUrl },
@@ -39,14 +42,18 @@ export function analysisHandlers(deps: { dataSource: DataSource; mailer?: Mailer
     afterFinished: () => mailer?.kick(),
     keepPrepared: async (run, message) => {
       const { prepared } = message;
-      preparedCacheFor(dataSource).put({ runId: run.id, input: run.input, settings: run.settings, data: prepared, matrix: message.swapMatrix });
+      preparedCache?.put({ runId: run.id, input: run.input, settings: run.settings, data: prepared, matrix: message.swapMatrix });
       // The sort orders, kept so that preparing swap sets after a restart skips the sort. Written
       // after the result, one model at a time with a turn for requests between (4 MB each at
       // 1,000,000 accounts); should the process stop before, the preparation sorts instead.
       for (const model of ['champion', 'challenger'] as const) {
         await new Promise<void>((resolve) => setImmediate(resolve));
         await withWriteLock(dataSource, () =>
-          dataSource.query('INSERT OR REPLACE INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [run.id, orderColumn(model), encodeOrder(prepared[model].order)]),
+          rawQuery(
+            dataSource,
+            'INSERT INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?) ON CONFLICT ("runId", "name") DO UPDATE SET "data" = excluded."data"',
+            [run.id, orderColumn(model), encodeOrder(prepared[model].order)],
+          ),
         );
       }
     },

@@ -1,6 +1,7 @@
 import type { CurrentVerdict } from '@shared/comparisons';
 import { In, type DataSource, type EntityManager } from 'typeorm';
 import { VerdictRecord } from '../db/entities/index';
+import { rawQuery } from '../db/driver';
 
 /**
  * The one verdict each comparison shows everywhere (header badge, verdict tab, list, e-mails):
@@ -12,14 +13,15 @@ export async function currentVerdicts(source: DataSource | EntityManager, compar
   const result = new Map<number, CurrentVerdict>();
   if (comparisonIds.length === 0) return result;
   const placeholders = comparisonIds.map(() => '?').join(', ');
-  const rows = (await source.query(
+  const rows = await rawQuery<{ id: number | null }>(
+    source,
     `SELECT COALESCE(` +
       `(SELECT d."verdictId" FROM "decisions" d WHERE d."comparisonId" = c."id" AND d."verdictId" IS NOT NULL ORDER BY d."id" DESC LIMIT 1), ` +
       `(SELECT MAX(v."id") FROM "verdict_records" v WHERE v."comparisonId" = c."id" AND v."runId" = ` +
       `(SELECT MAX(r."id") FROM "analysis_runs" r WHERE r."comparisonId" = c."id" AND r."status" = 'done'))) AS "id" ` +
       `FROM "comparisons" c WHERE c."id" IN (${placeholders})`,
     [...comparisonIds],
-  )) as { id: number | null }[];
+  );
   const ids = rows.flatMap((row) => (row.id === null ? [] : [row.id]));
   if (ids.length === 0) return result;
   const records = await source.getRepository(VerdictRecord).find({ where: { id: In(ids) } });
@@ -36,6 +38,9 @@ export function presentCurrentVerdict(record: VerdictRecord): CurrentVerdict {
     criteria: record.criteria,
     summary: record.summary,
     createdAt: record.createdAt.toISOString(),
+    challengers: record.challengers ?? [],
+    recommended: record.recommended,
+    choiceSummary: record.choiceSummary ?? '',
   };
 }
 

@@ -1,3 +1,4 @@
+import { type ChoiceInWords, choiceMailLines } from '@shared/challengers-words';
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { OutgoingMail } from '../mail/mailer';
 import { giniLine, signature } from '../mail/templates';
@@ -11,6 +12,8 @@ export function analysisFinishedMail(input: {
   comparison: string;
   link: string;
   outcome: { status: 'done'; headline: ComparisonHeadline } | { status: 'failed'; error: string };
+  /** Several challengers: the run's verdict record's choice (nothing is added with one challenger). */
+  choice?: ChoiceInWords | null;
 }): OutgoingMail {
   const { outcome } = input;
   const body =
@@ -20,6 +23,7 @@ export function analysisFinishedMail(input: {
           '',
           `${giniLine(outcome.headline)}.`,
           '',
+          ...choiceMailLines(input.choice),
           'Read the results, and submit the comparison for review when you are ready:',
         ]
       : [`The analysis of "${input.comparison}" could not be completed:`, '', `  ${outcome.error}`, '', 'Check the mapping and settings, then run it again:'];

@@ -25,6 +25,7 @@ export function presentSummary(
   latestRun: AnalysisRun | null,
   currentRun: AnalysisRun | null,
   verdict: CurrentVerdict | null,
+  decided: ComparisonSummary['decided'] = null,
 ): ComparisonSummary {
   return {
     id: comparison.id,
@@ -37,13 +38,20 @@ export function presentSummary(
     latestRun: latestRun ? { id: latestRun.id, status: latestRun.status, progress: latestRun.progress, stage: latestRun.stage } : null,
     headline: currentRun?.headline ?? null,
     verdict,
+    decided: comparison.state === 'decided' ? decided : null,
   };
 }
 
 /** `runs` newest first. */
-export function presentDetail(comparison: Comparison, runs: AnalysisRun[], authors: ReadonlySet<number>, verdict: CurrentVerdict | null): ComparisonDetail {
+export function presentDetail(
+  comparison: Comparison,
+  runs: AnalysisRun[],
+  authors: ReadonlySet<number>,
+  verdict: CurrentVerdict | null,
+  decided: ComparisonSummary['decided'] = null,
+): ComparisonDetail {
   const current = runs.find((run) => run.status === 'done') ?? null;
-  const summary = presentSummary(comparison, runs[0] ?? null, current, verdict);
+  const summary = presentSummary(comparison, runs[0] ?? null, current, verdict, decided);
   return {
     ...summary,
     description: comparison.description,

@@ -4,7 +4,10 @@ import {
   scenarioInputSchema,
   setupComparisonInputSchema,
   swapQuerySchema,
+  challengersSwapQuerySchema,
 } from '@shared/comparisons';
+import { mixedStrategyQuerySchema } from '@shared/mixed-strategy';
+import { MAX_CHALLENGERS } from '@shared/report';
 import { z } from 'zod';
 import { currentUser } from '../auth/guards';
 import type { AppContext } from '../context';
@@ -12,17 +15,22 @@ import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
 import { exportBands, exportReport, exportSwap } from './exports';
 import { listScenarios, saveScenario } from './scenarios';
+import { mixedStrategyPreview } from './mixed-strategy';
 import { createComparison, currentReportJson, getComparisonDetail, listComparisons, setupComparison } from './service';
-import { swapOnDemand } from './swap';
+import { challengersSwapOnDemand, swapOnDemand } from './swap';
 
 /** A query parameter holding a finite number, or absent. */
 const optionalNumber = z.string().trim().min(1).transform(Number).pipe(z.number()).optional();
+
+/** Several challengers: which one against the champion, by its index in the report's challengers (default 0, the primary). */
+const challengerIndexParam = z.string().trim().min(1).transform(Number).pipe(z.number().int().min(0).max(MAX_CHALLENGERS - 1)).optional();
 
 const swapExportQuerySchema = z
   .object({
     championCutoff: optionalNumber,
     challengerCutoff: optionalNumber,
     approvalRate: z.string().trim().min(1).transform(Number).pipe(z.number().gt(0).lt(1)).optional(),
+    challenger: challengerIndexParam,
   })
   .refine((query) => (query.championCutoff === undefined) === (query.challengerCutoff === undefined), {
     message: 'Give both championCutoff and challengerCutoff, or neither',
@@ -90,6 +98,22 @@ export function comparisonRoutes(ctx: AppContext): RouteDefinition[] {
       handler: async (req) => swapOnDemand(ctx, req.params.id, req.body),
     }),
     defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/challengers/swap',
+      access: 'signed-in',
+      summary: 'Several challengers side by side: each challenger\'s swap sets against the champion at { approvalRate }, and who each model approves, on the current run',
+      validate: { params: idParams, body: challengersSwapQuerySchema },
+      handler: async (req) => challengersSwapOnDemand(ctx, req.params.id, req.body),
+    }),
+    defineRoute({
+      method: 'post',
+      path: '/comparisons/:id/mixed-strategy',
+      access: ['policy', 'committee'],
+      summary: 'Conditional adoption: the challenger except in { keepChampion } segment values → the mixed strategy beside pure adoption, on the current run',
+      validate: { params: idParams, body: mixedStrategyQuerySchema },
+      handler: async (req) => mixedStrategyPreview(ctx, req.params.id, req.body),
+    }),
+    defineRoute({
       method: 'get',
       path: '/comparisons/:id/scenarios',
       access: 'signed-in',
@@ -113,17 +137,17 @@ export function comparisonRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'get',
       path: '/comparisons/:id/export/bands.csv',
       access: 'signed-in',
-      summary: "Both models' band tables as CSV",
-      validate: { params: idParams },
+      summary: "The champion's and a challenger's band tables as CSV; ?challenger=k for a further challenger (default 0, the primary)",
+      validate: { params: idParams, query: z.object({ challenger: challengerIndexParam }) },
       handler: async (req, res) => {
-        await exportBands(ctx, req.params.id, res);
+        await exportBands(ctx, req.params.id, req.query, res);
       },
     }),
     defineRoute({
       method: 'get',
       path: '/comparisons/:id/export/swap.csv',
       access: ['policy'],
-      summary: 'Swap-in and swap-out accounts as CSV: ?championCutoff=&challengerCutoff= or ?approvalRate= (default: the report’s)',
+      summary: 'Swap-in and swap-out accounts as CSV: ?championCutoff=&challengerCutoff= or ?approvalRate= (default: the report’s); &challenger=k for a further challenger',
       validate: { params: idParams, query: swapExportQuerySchema },
       handler: async (req, res) => {
         await exportSwap(ctx, req.params.id, req.query, res);

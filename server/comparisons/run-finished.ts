@@ -1,5 +1,6 @@
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { Verdict } from '@shared/report';
+import type { ChoiceRecord } from '../jobs/messages';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit } from '../audit/audit';
 import { now } from '../clock';
@@ -30,6 +31,8 @@ export type RunOutcome =
       engineVersion: string;
       headline: ComparisonHeadline;
       verdict: Verdict;
+      /** Several challengers: every challenger's verdict and the recommended one; absent or null for none. */
+      choice?: ChoiceRecord | null;
     }
   | { status: 'failed'; error: string };
 
@@ -87,7 +90,7 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
   }
 
   // The verdict record of a done run: the report's verdict under the policy version it names.
-  if (outcome.status === 'done') await recordRunVerdict(manager, run, outcome.verdict);
+  if (outcome.status === 'done') await recordRunVerdict(manager, run, outcome.verdict, outcome.choice ?? null);
 
   if (context.mailer && newest?.id === runId) {
     for (const creator of await creatorOf(manager, comparison)) {
@@ -99,6 +102,7 @@ export async function recordFinishedRun(manager: EntityManager, runId: number, o
           comparison: comparison.name,
           link: comparisonLink(context.publicUrl ?? '', comparison.id),
           outcome: outcome.status === 'done' ? { status: 'done', headline: outcome.headline } : { status: 'failed', error: outcome.error },
+          choice: outcome.status === 'done' ? (outcome.choice ?? null) : null,
         }),
       );
     }

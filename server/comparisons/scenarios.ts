@@ -18,12 +18,18 @@ export function presentScenario(scenario: CutoffScenario): Scenario {
     cutoffs: { champion: scenario.championCutoff, challenger: scenario.challengerCutoff },
     approvalRate: scenario.approvalRate,
     note: scenario.note,
-    swapIn: { count: scenario.swap.swapIn.count, badRate: scenario.swap.swapIn.badRate },
-    swapOut: { count: scenario.swap.swapOut.count, badRate: scenario.swap.swapOut.badRate },
+    swapIn: scenarioCell(scenario.swap.swapIn),
+    swapOut: scenarioCell(scenario.swap.swapOut),
     createdBy: { id: scenario.createdBy.id, name: scenario.createdBy.name },
     createdAt: scenario.createdAt.toISOString(),
     afterDecision: scenario.afterDecision,
   };
+}
+
+/** Rows and known bad rate; accounts and the inferred bad rate when the holdout has weights or unknown outcomes. */
+function scenarioCell(cell: CutoffScenario['swap']['swapIn']): Scenario['swapIn'] {
+  if (cell.accounts === undefined) return { count: cell.count, badRate: cell.badRate };
+  return { count: cell.count, badRate: cell.badRate, accounts: cell.accounts, inferredBadRate: cell.inferred?.badRate ?? null };
 }
 
 /** Newest first. */

@@ -13,10 +13,15 @@ import { now } from '../clock';
 import type { AppContext } from '../context';
 import { AnalysisRun, Comparison, type Holdout, type RunInput, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
+import { isPostgres, jsonNumberSql, likeSql, numberOf, rawQuery } from '../db/driver';
 import { conflict, notFound } from '../errors';
 import type { EncodedColumn } from '../holdouts/columns';
 import { findHoldout, mapHoldout, mapReference } from '../holdouts/service';
 import { currentVerdict, currentVerdicts } from './current-verdict';
+import { decidedOf } from './decided';
+
+// The verdict a comparison shows everywhere, for the workflow's e-mails too.
+export { currentVerdict } from './current-verdict';
 import { authorsOf } from './authors';
 import { presentDetail, presentSummary } from './present';
 import { setupStates } from '@shared/workflow';
@@ -58,6 +63,12 @@ export function normaliseMapping(mapping: ColumnMapping): ColumnMapping {
     normal.grades = { champion: mapping.grades.champion ?? null, challenger: mapping.grades.challenger ?? null };
   }
   if (mapping.period) normal.period = mapping.period;
+  // Several challengers: names and further challengers only when given (a two-model mapping keeps its form).
+  if (mapping.championName !== undefined) normal.championName = mapping.championName;
+  if (mapping.challengerName !== undefined) normal.challengerName = mapping.challengerName;
+  if (mapping.moreChallengers && mapping.moreChallengers.length > 0) {
+    normal.moreChallengers = mapping.moreChallengers.map((extra) => ({ column: extra.column, higherIs: extra.higherIs, ...(extra.name !== undefined ? { name: extra.name } : {}) }));
+  }
   return normal;
 }
 
@@ -156,7 +167,7 @@ async function insertRun(manager: EntityManager, comparisonId: number, prepared:
     }),
   );
   for (const column of prepared.columns) {
-    await manager.query('INSERT INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [run.id, column.name, column.data]);
+    await rawQuery(manager, 'INSERT INTO "run_columns" ("runId", "name", "data") VALUES (?, ?, ?)', [run.id, column.name, column.data]);
     // A turn for other requests between columns (8 MB each at 1,000,000 accounts).
     await new Promise<void>((resolve) => setImmediate(resolve));
   }
@@ -278,17 +289,26 @@ export async function getComparisonDetail(source: DataSource | EntityManager, id
       referenceHoldoutId: true,
     },
   });
-  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs), await currentVerdict(source, id));
+  const decided = comparison.state === 'decided' ? ((await decidedOf(source, [id])).get(id) ?? null) : null;
+  return presentDetail(comparison, runs, await authorsOf(source, comparison, runs), await currentVerdict(source, id), decided);
 }
 
-const sortSql: Record<ListComparisonsQuery['sort'], string> = {
-  'updated-desc': 'c."updatedAt" DESC, c."id" DESC',
-  'created-desc': 'c."createdAt" DESC, c."id" DESC',
-  'name-asc': 'c."name" COLLATE NOCASE ASC, c."id" ASC',
-  'delta-gini-desc':
-    `(SELECT json_extract(r."headline", '$.deltaGini') FROM "analysis_runs" r WHERE r."comparisonId" = c."id" AND r."status" = 'done' ` +
-    `ORDER BY r."id" DESC LIMIT 1) DESC NULLS LAST, c."updatedAt" DESC, c."id" DESC`,
-};
+/** ORDER BY for each sort (names ignore ASCII case on both databases). */
+function sortSql(source: DataSource, sort: ListComparisonsQuery['sort']): string {
+  switch (sort) {
+    case 'updated-desc':
+      return 'c."updatedAt" DESC, c."id" DESC';
+    case 'created-desc':
+      return 'c."createdAt" DESC, c."id" DESC';
+    case 'name-asc':
+      return isPostgres(source) ? `LOWER(c."name") COLLATE "C" ASC, c."id" ASC` : 'c."name" COLLATE NOCASE ASC, c."id" ASC';
+    case 'delta-gini-desc':
+      return (
+        `(SELECT ${jsonNumberSql(source, 'r."headline"', 'deltaGini')} FROM "analysis_runs" r WHERE r."comparisonId" = c."id" AND r."status" = 'done' ` +
+        `ORDER BY r."id" DESC LIMIT 1) DESC NULLS LAST, c."updatedAt" DESC, c."id" DESC`
+      );
+  }
+}
 
 /** Filter by state, search in the name and description, sort, one page; headline numbers from each current run. */
 export async function listComparisons(source: DataSource, query: ListComparisonsQuery): Promise<ComparisonList> {
@@ -300,16 +320,18 @@ export async function listComparisons(source: DataSource, query: ListComparisons
   }
   if (query.q) {
     const like = `%${query.q.replace(/[\\%_]/g, (character) => `\\${character}`)}%`;
-    where.push(`(c."name" LIKE ? ESCAPE '\\' OR c."description" LIKE ? ESCAPE '\\')`);
+    const match = likeSql(source);
+    where.push(`(c."name" ${match} ? ESCAPE '\\' OR c."description" ${match} ? ESCAPE '\\')`);
     parameters.push(like, like);
   }
   const whereSql = where.length > 0 ? `WHERE ${where.join(' AND ')}` : '';
-  const [{ total }] = (await source.query(`SELECT COUNT(*) AS "total" FROM "comparisons" c ${whereSql}`, parameters)) as { total: number }[];
-  const page = (await source.query(`SELECT c."id" AS "id" FROM "comparisons" c ${whereSql} ORDER BY ${sortSql[query.sort]} LIMIT ? OFFSET ?`, [
+  const [counted] = await rawQuery<{ total: number | string }>(source, `SELECT COUNT(*) AS "total" FROM "comparisons" c ${whereSql}`, parameters);
+  const total = numberOf(counted.total);
+  const page = await rawQuery<{ id: number }>(source, `SELECT c."id" AS "id" FROM "comparisons" c ${whereSql} ORDER BY ${sortSql(source, query.sort)} LIMIT ? OFFSET ?`, [
     ...parameters,
     query.pageSize,
     (query.page - 1) * query.pageSize,
-  ])) as { id: number }[];
+  ]);
   const ids = page.map((row) => row.id);
   if (ids.length === 0) return { items: [], total, page: query.page, pageSize: query.pageSize };
 
@@ -324,11 +346,12 @@ export async function listComparisons(source: DataSource, query: ListComparisons
     .addSelect(['holdout.id', 'holdout.fileName', 'holdout.rowCount'])
     .where('comparison.id IN (:...ids)', { ids })
     .getMany();
-  const runIds = (await source.query(
+  const runIds = await rawQuery<{ id: number }>(
+    source,
     `SELECT MAX("id") AS "id" FROM "analysis_runs" WHERE "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId" ` +
       `UNION SELECT MAX("id") FROM "analysis_runs" WHERE "status" = 'done' AND "comparisonId" IN (${ids.map(() => '?').join(', ')}) GROUP BY "comparisonId"`,
     [...ids, ...ids],
-  )) as { id: number }[];
+  );
   // Only what the list shows of each run (not its mapping, settings and input).
   const runs =
     runIds.length > 0
@@ -339,9 +362,13 @@ export async function listComparisons(source: DataSource, query: ListComparisons
       : [];
   const byId = new Map(comparisons.map((comparison) => [comparison.id, comparison]));
   const verdicts = await currentVerdicts(source, ids);
+  const decided = await decidedOf(
+    source,
+    comparisons.filter((comparison) => comparison.state === 'decided').map((comparison) => comparison.id),
+  );
   const items = ids.map((id) => {
     const mine = runs.filter((run) => run.comparisonId === id).sort((a, b) => b.id - a.id);
-    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null, verdicts.get(id) ?? null);
+    return presentSummary(byId.get(id)!, mine[0] ?? null, mine.find((run) => run.status === 'done') ?? null, verdicts.get(id) ?? null, decided.get(id) ?? null);
   });
   return { items, total, page: query.page, pageSize: query.pageSize };
 }
@@ -352,10 +379,11 @@ export async function listComparisons(source: DataSource, query: ListComparisons
  * text is sent as it is stored, without building the run's entity.
  */
 export async function currentReportJson(source: DataSource | EntityManager, comparisonId: number): Promise<{ runId: number; json: string }> {
-  const [row] = (await source.query(
+  const [row] = await rawQuery<{ id: number; report: string | null }>(
+    source,
     `SELECT "id", "report" FROM "analysis_runs" WHERE "comparisonId" = ? AND "status" = 'done' ORDER BY "id" DESC LIMIT 1`,
     [comparisonId],
-  )) as { id: number; report: string | null }[];
+  );
   if (!row) {
     await requireCurrentRun(source, comparisonId); // throws the 404 or the 409 that says why
     throw new Error(`comparison ${comparisonId}: no done run, yet requireCurrentRun found one`);

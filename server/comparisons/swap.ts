@@ -1,12 +1,13 @@
-import type { SwapQuery, SwapResult } from '@shared/comparisons';
-import type { SwapSets } from '@shared/report';
+import type { ChallengersSwapQuery, ChallengersSwapResult, SwapQuery, SwapResult } from '@shared/comparisons';
+import { championOf, challengersOf, type SwapSets } from '@shared/report';
+import { approvalPatterns } from '../stats/approval-patterns';
+import { pairData } from '../stats/policy-data';
 import type { AppContext } from '../context';
 import type { AnalysisRun } from '../db/entities/index';
-import { locateCutoff, type LocatedCutoff } from '../stats/cutoffs';
-import type { PreparedHoldout } from '../stats/policy-data';
-import { strategyCurve } from '../stats/strategy-curve';
+import { locateCutoff } from '../stats/cutoffs';
+import { equalApproval, strategyCurve } from '../stats/strategy-curve';
 import { swapSets, type SwapRequest } from '../stats/swap-sets';
-import { preparedCacheFor, type PreparedRun } from './prepared-cache';
+import type { PreparedRun } from './prepared-cache';
 import { requireCurrentRun } from './service';
 
 /**
@@ -21,10 +22,11 @@ import { requireCurrentRun } from './service';
  * - at an approval rate r: the report's strategy-curve figures at r (both models at the cut-offs
  *   that give r, tie rule of cutoffs.ts) — identical to the report's `atApprovalRate` when r is
  *   the report's approval rate;
- * - at given cut-offs: `approvalRate` is the champion's achieved approval rate; championBads and
- *   challengerBads are the bads each model approves at its own cut-off, badsAvoided their
- *   difference; approvalsGainedAtEqualBadRate is measured against the champion's book at its
- *   cut-off (null when the champion approves nobody).
+ * - at given cut-offs: `approvalRate` is the champion's achieved approval rate; the champion's
+ *   book at its cut-off sets the number of accounts, the challenger's bads are counted in a book
+ *   of that size (equalApproval in strategy-curve.ts), its own cut-off's book is stated beside;
+ *   approvalsGainedAtEqualBadRate is measured against the champion's book at its cut-off (null
+ *   when the champion approves nobody).
  * Both: championApprovalRate and challengerApprovalRate are the rates each cut-off achieves.
  */
 
@@ -32,10 +34,6 @@ export function swapRequestOf(query: { cutoffs?: { champion: number; challenger:
   if (query.cutoffs) return { basis: 'cutoffs', cutoffs: query.cutoffs };
   if (query.approvalRate === undefined || query.approvalRate === null) throw new Error('give cut-offs or an approval rate');
   return { basis: 'approval-rate', approvalRate: query.approvalRate };
-}
-
-function approvedBads(data: PreparedHoldout, model: 'champion' | 'challenger', located: LocatedCutoff): number {
-  return data.bads - data[model].badsBefore[located.start];
 }
 
 export function swapAt(entry: PreparedRun, request: SwapRequest): SwapResult {
@@ -51,15 +49,9 @@ export function swapAt(entry: PreparedRun, request: SwapRequest): SwapResult {
   } else {
     const champion = locateCutoff(data.champion, { cutoff: request.cutoffs.champion });
     const challenger = locateCutoff(data.challenger, { cutoff: request.cutoffs.challenger });
-    const championBads = approvedBads(data, 'champion', champion);
-    const challengerBads = approvedBads(data, 'challenger', challenger);
-    const rate = champion.position.approvalRate;
     position = {
-      approvalRate: rate,
-      championBads,
-      challengerBads,
-      badsAvoided: championBads - challengerBads,
-      approvalsGainedAtEqualBadRate: rate > 0 ? strategyCurve(data, rate).atApprovalRate.approvalsGainedAtEqualBadRate : null,
+      approvalRate: champion.position.approvalRate,
+      ...equalApproval(data, champion, challenger),
       championApprovalRate: champion.position.approvalRate,
       challengerApprovalRate: challenger.position.approvalRate,
     };
@@ -70,11 +62,33 @@ export function swapAt(entry: PreparedRun, request: SwapRequest): SwapResult {
 /** The current run, prepared (409 while no run is done). */
 export async function preparedCurrentRun(ctx: AppContext, comparisonId: number): Promise<{ run: AnalysisRun; entry: PreparedRun }> {
   const run = await requireCurrentRun(ctx.dataSource, comparisonId);
-  const entry = await preparedCacheFor(ctx.dataSource).get(ctx.dataSource, run);
+  const entry = await ctx.preparedCache.get(ctx.dataSource, run);
   return { run, entry };
 }
 
 export async function swapOnDemand(ctx: AppContext, comparisonId: number, query: SwapQuery): Promise<SwapResult> {
   const { entry } = await preparedCurrentRun(ctx, comparisonId);
   return swapAt(entry, swapRequestOf(query));
+}
+
+/**
+ * Several challengers, side by side: every challenger's swap sets against the champion at one
+ * approval rate (each model at its own cut-off for the rate), and who each model approves (the
+ * approval patterns). On the current run's prepared data, which holds every challenger: O(K·n).
+ */
+export async function challengersSwapOnDemand(ctx: AppContext, comparisonId: number, query: ChallengersSwapQuery): Promise<ChallengersSwapResult> {
+  const { run, entry } = await preparedCurrentRun(ctx, comparisonId);
+  const specs = challengersOf(run.mapping);
+  const pairs = specs.map((_, k) => pairData(entry.data, k));
+  const request = { basis: 'approval-rate' as const, approvalRate: query.approvalRate };
+  const champion = championOf(run.mapping);
+  return {
+    approvalRate: query.approvalRate,
+    challengers: specs.map((spec, k) => ({ challenger: k, column: spec.column, name: spec.name, swap: swapSets(pairs[k], request, entry.settings.confidence) })),
+    patterns: approvalPatterns(
+      [{ name: champion.name, column: champion.column, prepared: entry.data.champion }, ...pairs.map((pair, k) => ({ name: specs[k].name, column: specs[k].column, prepared: pair.challenger }))],
+      { bad: entry.data.bad, weight: entry.data.weight, known: entry.data.known },
+      query.approvalRate,
+    ),
+  };
 }

@@ -27,7 +27,28 @@ export function fileSystemFailure(error: unknown): StorageFailureKind | null {
   return null;
 }
 
+/**
+ * PostgreSQL's SQLSTATE for the same failures: 53100 disk full, 53200 out of memory, 53300 too
+ * many connections, 58030 I/O error, 57P03 cannot connect now (starting or stopping), 25006 a
+ * read-only transaction (a standby). Null for any other error.
+ */
+export function postgresStorageFailure(error: unknown): StorageFailureKind | null {
+  for (let e: unknown = error, depth = 0; e && typeof e === 'object' && depth < 4; depth++) {
+    const code = (e as { code?: unknown }).code;
+    const isPg = typeof code === 'string' && /^[0-9A-Z]{5}$/.test(code) && typeof (e as { severity?: unknown }).severity === 'string';
+    if (isPg) {
+      if (code === '53100') return 'full';
+      if (['53200', '53300', '58030', '57P03', '25006'].includes(code)) return 'unavailable';
+      return null;
+    }
+    e = (e as { driverError?: unknown }).driverError ?? (e as { cause?: unknown }).cause;
+  }
+  return null;
+}
+
 export function storageFailureKind(error: unknown): StorageFailureKind | null {
+  const postgres = postgresStorageFailure(error);
+  if (postgres !== null) return postgres;
   const code = sqliteCode(error);
   if (code !== null) {
     if (code === 'SQLITE_FULL') return 'full';

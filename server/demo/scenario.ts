@@ -2,7 +2,9 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { createComparisonInputSchema, scenarioInputSchema, type ComparisonState } from '@shared/comparisons';
 import { decisionInputSchema, noteInputSchema, reviewInputSchema, submitInputSchema, voteInputSchema } from '@shared/governance';
+import { mixedStrategyQuerySchema } from '@shared/mixed-strategy';
 import type { ColumnMapping, Report } from '@shared/report';
+import { mixedStrategyPreview } from '../comparisons/mixed-strategy';
 import { saveScenario } from '../comparisons/scenarios';
 import { createComparison, currentReportJson, getComparisonDetail } from '../comparisons/service';
 import type { AppContext } from '../context';
@@ -19,11 +21,16 @@ import * as words from './wording';
  * analysis queue, submission, review, scenarios, notes, votes, decision), each step by the demo
  * person whose role it is and at its moment of the past weeks (the seed replays the clock):
  *
- * 1. decided (adopted): the full 60,000-account holdout, points against points, with its whole
+ * 1. decided (adopted): the through-the-door holdout of 2025 (58,699 rows standing for 120,001
+ *    applicants; declined ones without an outcome, goods weighted 4, the swap-in's bad rate
+ *    inferred from the bureau's column), points against points, two challengers (the cash-flow
+ *    model CF-3, and a refit of the champion on recent data, which the verdict recommends since
+ *    CF-3 fails the segment rule; the committee adopts CF-3 except brokered cards, acknowledging
+ *    that this goes against the record), with its whole
  *    history — submitted, validated with findings that name the brokered-cards weakness, the
  *    policy role's saved scenarios and swap-set annotations, discussion, two votes, the decision
  *    with conditions, and the e-mails each step sends;
- * 2. in review: the same accounts with the challenger as a PD (its calibration by band, stability
+ * 2. in review: the first 60,000 applications, every outcome observed, with the challenger as a PD (its calibration by band, stability
  *    by month, and the PSI against the 2023 development sample uploaded beside it), submitted,
  *    waiting for the analyst;
  * 3. a draft waiting for its mapping: the 2,000-account sample, uploaded and named.
@@ -52,7 +59,22 @@ const baseMapping = {
 } as const;
 
 export const demoMappings: { full: ColumnMapping; pd: ColumnMapping } = {
-  full: { ...baseMapping, segments: [...baseMapping.segments], challenger: 'challenger_points', higherIs: { champion: 'safer', challenger: 'safer' } },
+  // The through-the-door holdout (sample-data/through-the-door.ts): declined applicants have no
+  // outcome, goods are sampled one in four (sample_weight 4), the bureau's probability of bad
+  // states the swap-in's bad rate.
+  full: {
+    ...baseMapping,
+    segments: [...baseMapping.segments],
+    challenger: 'challenger_points',
+    higherIs: { champion: 'safer', challenger: 'safer' },
+    weight: 'sample_weight',
+    keepUnknown: true,
+    inferredBad: 'bureau_pd_12m',
+    // Two challengers: the cash-flow model, and a refit of the champion on recent data (sample-data/refit.ts).
+    championName: 'AS-19 application scorecard',
+    challengerName: 'CF-3 cash-flow',
+    moreChallengers: [{ column: 'refit_points', higherIs: 'safer', name: 'AS-19 refit 2024' }],
+  },
   pd: {
     ...baseMapping,
     segments: [...baseMapping.segments],
@@ -66,6 +88,8 @@ export const demoMappings: { full: ColumnMapping; pd: ColumnMapping } = {
 
 /** The analysis settings of both analysed comparisons (the defaults, written out). */
 export const demoSettings = { bootstrap: 2000, seed: 1, confidence: 0.95, approvalRate: 0.7 } as const;
+/** The decided comparison states the unknown applicants' bad rate through the bureau's column. */
+export const demoInference = { method: 'column', parcelFactor: 1 } as const;
 
 export interface DemoPeople {
   admin: User;
@@ -133,15 +157,21 @@ export interface ScenarioOptions {
   analysisTimeoutMs?: number;
   /** Bootstrap replicates of the analyses (default: demoSettings'). */
   replicates?: number;
+  /**
+   * The folder holding demoFiles (default: sample-data/). The unit and API suite plays the
+   * scenario on smaller files of the same names (every twentieth row of each).
+   */
+  dataDir?: string;
 }
 
 export async function playScenario(ctx: AppContext, people: DemoPeople, options: ScenarioOptions): Promise<DemoComparison[]> {
   const { at } = options;
   const settings = { ...demoSettings, bootstrap: options.replicates ?? demoSettings.bootstrap };
+  const dataDir = options.dataDir ?? sampleDataDir;
   for (const name of Object.values(demoFiles)) {
-    if (!existsSync(join(sampleDataDir, name))) throw new Error(`the demo scenario needs sample-data/${name}, which is missing (npm run sample-data writes it)`);
+    if (!existsSync(join(dataDir, name))) throw new Error(`the demo scenario needs ${join(dataDir, name)}, which is missing (npm run sample-data writes the demo's files)`);
   }
-  const upload = (person: User, name: string) => uploadHoldout(ctx, person, { path: join(sampleDataDir, name), originalname: name });
+  const upload = (person: User, name: string) => uploadHoldout(ctx, person, { path: join(dataDir, name), originalname: name });
 
   /** Runs the queue until the comparison's analysis is done; the e-mail it sends is delivered too. */
   const analysed = async (id: number): Promise<Report> => {
@@ -164,7 +194,12 @@ export async function playScenario(ctx: AppContext, people: DemoPeople, options:
   const full = await createComparison(
     ctx,
     people.modeler,
-    createComparisonInputSchema.parse({ ...words.comparisons.decided, holdoutId: fullHoldout.id, mapping: demoMappings.full, settings }),
+    createComparisonInputSchema.parse({
+      ...words.comparisons.decided,
+      holdoutId: fullHoldout.id,
+      mapping: demoMappings.full,
+      settings: { ...settings, rejectInference: demoInference },
+    }),
   );
   const report = await analysed(full.id);
 
@@ -211,11 +246,23 @@ export async function playScenario(ctx: AppContext, people: DemoPeople, options:
 
   at('decision');
   const decidedAt = momentOf('decision', options.today);
+  // Adoption except brokered cards: the committee previews the mixed strategy (the route the
+  // decision form calls), words its rationale from those figures, and the decision stores them.
+  const exception = { keepChampion: [{ column: words.brokeredCards.column, value: words.brokeredCards.value }] };
+  const strategy = await mixedStrategyPreview(ctx, full.id, mixedStrategyQuerySchema.parse(exception));
   await recordDecision(
     ctx,
     people.committee,
     full.id,
-    decisionInputSchema.parse({ outcome: 'adopt', ...words.decision(report), effectiveDate: dateAfter(decidedAt, 14) }),
+    decisionInputSchema.parse({
+      outcome: 'adopt',
+      challenger: 0,
+      ...words.decision(report, strategy),
+      effectiveDate: dateAfter(decidedAt, 14),
+      strategy: exception,
+      // CF-3 is not the recommended challenger (the refit is): a decision against the record.
+      acknowledgeAgainstRecord: true,
+    }),
   );
   await delivered();
 

@@ -5,7 +5,8 @@ import { auditDetails, type ChainCheck } from '../audit/audit';
 import { auditChainStatus } from '../audit/chain-state';
 import { findComparison } from '../comparisons/service';
 import { AnalysisRun, AuditEvent, Decision, VerdictRecord } from '../db/entities/index';
-import { iso, personRef } from './people';
+import { iso } from './people';
+import { atTheTime } from './present';
 
 /**
  * A comparison's audit trail: every event recorded against the comparison (creation, set-ups,
@@ -21,7 +22,8 @@ type Source = DataSource | EntityManager;
 export function presentAuditEvent(event: AuditEvent): AuditEventBody {
   return {
     id: event.id,
-    actor: event.actor ? personRef(event.actor) : null,
+    // The name and e-mail at the act; events from before names were kept show the person's current ones.
+    actor: event.actor ? atTheTime(event.actor, event.actorName, event.actorEmail) : null,
     action: event.action,
     targetType: event.targetType,
     targetId: event.targetId,

@@ -1,8 +1,11 @@
+import { type ChoiceInWords, choiceMailLines } from '@shared/challengers-words';
 import { voteChoiceLabels, type VoteChoice } from '@shared/governance';
 import type { ComparisonHeadline } from '@shared/comparisons';
 import type { OutgoingMail } from '../mail/mailer';
 import { giniLine, signature } from '../mail/templates';
 import { formatCount } from '@shared/format';
+import type { MixedStrategyResult } from '@shared/mixed-strategy';
+import { keptValuesText, mixedStrategySentences } from '@shared/mixed-strategy-words';
 
 /**
  * Wording of the workflow e-mails, one per transition, to the people who act next: plain text,
@@ -27,7 +30,8 @@ interface Base {
   link: string;
 }
 
-export function submittedMail(input: Base & { submittedBy: string; message: string; headline: ComparisonHeadline | null }): OutgoingMail {
+/** `choice`: several challengers, the current verdict record's choice (nothing is added with one challenger). */
+export function submittedMail(input: Base & { submittedBy: string; message: string; headline: ComparisonHeadline | null; choice?: ChoiceInWords | null }): OutgoingMail {
   return {
     to: input.to,
     subject: `Ready for review: ${input.comparison}`,
@@ -37,6 +41,7 @@ export function submittedMail(input: Base & { submittedBy: string; message: stri
       `${input.submittedBy} has submitted "${input.comparison}" for validation.`,
       '',
       ...headlineLine(input.headline),
+      ...choiceMailLines(input.choice),
       ...(input.message ? ['Their note:', ...quote(input.message), ''] : []),
       'Please read the evidence, write your findings, and either validate the comparison or return it to the modeler:',
       input.link,
@@ -46,7 +51,8 @@ export function submittedMail(input: Base & { submittedBy: string; message: stri
   };
 }
 
-export function validatedMail(input: Base & { reviewer: string; findings: string; quorum: number; pack: string }): OutgoingMail {
+export function validatedMail(input: Base & { reviewer: string; findings: string; quorum: number; pack: string; choice?: ChoiceInWords | null }): OutgoingMail {
+  const several = (input.choice?.challengers.length ?? 0) >= 2;
   return {
     to: input.to,
     subject: `Validated, waiting for the committee: ${input.comparison}`,
@@ -61,10 +67,13 @@ export function validatedMail(input: Base & { reviewer: string; findings: string
       input.quorum > 0
         ? `The adoption policy needs ${input.quorum} committee ${input.quorum === 1 ? 'vote' : 'votes'} before the decision can be recorded.`
         : 'The adoption policy sets no quorum of votes.',
-      'Vote to adopt the challenger, keep the champion or defer, and record the decision here:',
+      ...(several ? ['', ...choiceMailLines(input.choice)] : []),
+      several
+        ? 'Vote to adopt one of the challengers (naming it), keep the champion or defer, and record the decision here:'
+        : 'Vote to adopt the challenger, keep the champion or defer, and record the decision here:',
       input.link,
       '',
-      'The committee pack (PDF, with the charts; sign in to open it):',
+      'The committee pack (PDF, with the charts; sign in if asked, then download it from the page):',
       input.pack,
       '',
       'The verdict only advises: statistical significance is not business approval, and a new model changes who is approved and declined.',
@@ -94,7 +103,16 @@ export function returnedMail(input: Base & { reviewer: string; findings: string 
 }
 
 export function decidedMail(
-  input: Base & { decidedBy: string; outcome: VoteChoice; rationale: string; conditions: string | null; effectiveDate: string | null },
+  input: Base & {
+    decidedBy: string;
+    outcome: VoteChoice;
+    rationale: string;
+    conditions: string | null;
+    effectiveDate: string | null;
+    strategy?: MixedStrategyResult | null;
+    /** Several challengers: the name of the challenger adopted (absent with one challenger). */
+    adopted?: string | null;
+  },
 ): OutgoingMail {
   return {
     to: input.to,
@@ -102,8 +120,11 @@ export function decidedMail(
     text: [
       `Hello ${input.name},`,
       '',
-      `${input.decidedBy} has recorded the committee's decision on "${input.comparison}": ${voteChoiceLabels[input.outcome].toLowerCase()}.`,
+      `${input.decidedBy} has recorded the committee's decision on "${input.comparison}": ${voteChoiceLabels[input.outcome].toLowerCase()}${input.adopted ? ` “${input.adopted}”` : ''}${
+        input.strategy ? `, except in ${keptValuesText(input.strategy)}, where the champion is kept` : ''
+      }.`,
       ...(input.effectiveDate ? [`It applies from ${input.effectiveDate}.`] : []),
+      ...(input.strategy ? ['', 'The strategy adopted, on the holdout:', ...mixedStrategySentences(input.strategy).map((line) => `  ${line}`)] : []),
       '',
       'Rationale:',
       ...quote(input.rationale),

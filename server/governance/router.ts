@@ -4,6 +4,7 @@ import type { AppContext } from '../context';
 import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
 import { pageQuerySchema } from '@shared/paging';
+import { workflowSteps } from '@shared/workflow';
 import { comparisonAuditTrail } from './audit-trail';
 import { sendEvidencePack } from './evidence';
 import { castVote, getGovernance, recordDecision, reviewComparison, submitComparison } from './service';
@@ -25,32 +26,33 @@ export function governanceRoutes(ctx: AppContext): RouteDefinition[] {
     }),
     defineRoute({
       method: 'post',
-      path: '/comparisons/:id/submit',
-      access: ['modeler'],
+      path: `/comparisons/:id/${workflowSteps.submit.path}`,
+      access: [workflowSteps.submit.role],
       summary: 'Submit for review: analysed → in review, or returned → in review after a new run (409 otherwise); e-mails the analysts',
       validate: { params: idParams, body: submitInputSchema },
       handler: (req) => submitComparison(ctx, currentUser(req), req.params.id, req.body),
     }),
     defineRoute({
       method: 'post',
-      path: '/comparisons/:id/review',
-      access: ['analyst'],
+      path: `/comparisons/:id/${workflowSteps.validate.path}`,
+      // One route for both outcomes of a review (shared/workflow.ts: validate and return).
+      access: [...new Set([workflowSteps.validate.role, workflowSteps.return.role])],
       summary: 'Findings and outcome: in review → validated (e-mails the committee) or returned (e-mails the creator); not on your own comparison',
       validate: { params: idParams, body: reviewInputSchema },
       handler: (req) => reviewComparison(ctx, currentUser(req), req.params.id, req.body),
     }),
     defineRoute({
       method: 'post',
-      path: '/comparisons/:id/votes',
-      access: ['committee'],
+      path: `/comparisons/:id/${workflowSteps.vote.path}`,
+      access: [workflowSteps.vote.role],
       summary: 'Vote adopt, keep or defer while validated; a new vote replaces your earlier one; not on your own comparison',
       validate: { params: idParams, body: voteInputSchema },
       handler: (req) => castVote(ctx, currentUser(req), req.params.id, req.body),
     }),
     defineRoute({
       method: 'post',
-      path: '/comparisons/:id/decision',
-      access: ['committee'],
+      path: `/comparisons/:id/${workflowSteps.decide.path}`,
+      access: [workflowSteps.decide.role],
       summary: "Record the decision: validated → decided, once the policy's quorum is met (409); not on your own comparison; e-mails the creator",
       validate: { params: idParams, body: decisionInputSchema },
       handler: (req) => recordDecision(ctx, currentUser(req), req.params.id, req.body),

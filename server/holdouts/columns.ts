@@ -1,4 +1,4 @@
-import type { ColumnMapping } from '@shared/report';
+import { challengersOf, type ColumnMapping } from '@shared/report';
 import type { RunInput } from '../db/entities/analysis-run';
 import type { Holdout as EngineHoldout } from '../stats/holdout';
 
@@ -11,6 +11,8 @@ import type { Holdout as EngineHoldout } from '../stats/holdout';
  *
  *   bad                 Uint8    1 = bad, 0 = good
  *   champion/challenger Float64  scores as given
+ *   challenger.<k>      Float64  scores of challenger k (1 …, after the primary), as given, when
+ *                                the mapping has more challengers (mapping.moreChallengers)
  *   exposure            Float64  when mapped
  *   segment.<i>         Uint32   codes into RunInput.segments[i].levels
  *   ids                 UTF-8    account ids joined by NUL (the reader never lets NUL through)
@@ -56,6 +58,7 @@ export function encodeHoldout(holdout: EngineHoldout): EncodedColumn[] {
     { name: 'champion', data: bytesOf(holdout.champion) },
     { name: 'challenger', data: bytesOf(holdout.challenger) },
   ];
+  holdout.moreChallengers?.forEach((extra, index) => columns.push({ name: `challenger.${index + 1}`, data: bytesOf(extra.scores) }));
   if (holdout.exposure) columns.push({ name: 'exposure', data: bytesOf(holdout.exposure) });
   holdout.segments.forEach((segment, index) => columns.push({ name: `segment.${index}`, data: bytesOf(segment.codes) }));
   if (holdout.ids) columns.push({ name: 'ids', data: Buffer.from(holdout.ids.join('\0'), 'utf8') });
@@ -88,7 +91,9 @@ export function decodeHoldout(input: RunInput, mapping: ColumnMapping, stored: R
   const weight = stored.get('weight');
   const known = stored.get('known');
   const inferredBad = stored.get('inferredBad');
+  const more = challengersOf(mapping).slice(1);
   return {
+    ...(more.length > 0 ? { moreChallengers: more.map((extra, k) => ({ ...extra, scores: viewAs(Float64Array, get(`challenger.${k + 1}`), n, `challenger.${k + 1}`) })) } : {}),
     ...extras,
     ...(weight ? { weight: viewAs(Float64Array, weight, n, 'weight') } : {}),
     ...(known ? { known: viewAs(Uint8Array, known, n, 'known') } : {}),

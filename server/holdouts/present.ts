@@ -25,6 +25,7 @@ export function presentHoldout(holdout: Holdout, viewer: { roles: readonly Role[
     sha256: holdout.sha256,
     bytes: holdout.bytes,
     rowCount: holdout.rowCount,
+    sheet: holdout.sheet,
     columns: holdout.columns,
     preview: shown ? boundPreview(holdout.preview) : [],
     ...(shown ? {} : { previewWithheld: true }),

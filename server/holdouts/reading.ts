@@ -1,7 +1,7 @@
 import type { ValidationReport } from '@shared/comparisons';
 import type { ColumnMapping } from '@shared/report';
-import Database from 'better-sqlite3';
 import type { RunInput } from '../db/entities/analysis-run';
+import { openReader } from '../db/reader-connection';
 import { HoldoutInputError, type HoldoutInputCode } from '../reader/errors';
 import { loadHoldout, validateHoldout } from '../reader/load';
 import { type HoldoutScan, scanHoldout } from '../reader/scan';
@@ -20,7 +20,7 @@ import { encodeHoldout, encodeReference, type EncodedColumn } from './columns';
  */
 
 export type ReaderTask =
-  | { task: 'scan'; path: string; fileName: string }
+  | { task: 'scan'; path: string; fileName: string; sheet: string | null }
   | { task: 'map'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean }
   | { task: 'validate'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean }
   | { task: 'reference'; databasePath: string; holdoutId: number; mapping: ColumnMapping; dropMissing: boolean };
@@ -51,37 +51,37 @@ export type ReaderReply =
   | { ok: false; kind: 'other'; message: string };
 
 /** A stored holdout's file, reassembled from its chunks, through a read-only connection of its own. */
-export function storedFile(databasePath: string, holdoutId: number): { bytes: Buffer; fileName: string; sha256: string } {
-  const db = new Database(databasePath, { readonly: true, fileMustExist: true });
+export async function storedFile(databaseAddress: string, holdoutId: number): Promise<{ bytes: Buffer; fileName: string; sha256: string; sheet: string | null }> {
+  const db = await openReader(databaseAddress);
   try {
-    db.pragma('busy_timeout = 5000');
-    const holdout = db.prepare('SELECT "fileName", "sha256", "bytes", "chunkCount" FROM "holdouts" WHERE "id" = ?').get(holdoutId) as
-      | { fileName: string; sha256: string; bytes: number; chunkCount: number }
-      | undefined;
+    const [holdout] = await db.all<{ fileName: string; sha256: string; bytes: number; chunkCount: number; sheet: string | null }>(
+      'SELECT "fileName", "sha256", "bytes", "chunkCount", "sheet" FROM "holdouts" WHERE "id" = ?',
+      [holdoutId],
+    );
     if (!holdout) throw new Error(`holdout ${holdoutId} is not in the database`);
     const out = Buffer.allocUnsafe(holdout.bytes);
     let offset = 0;
-    const chunk = db.prepare('SELECT "data" FROM "holdout_chunks" WHERE "holdoutId" = ? AND "seq" = ?');
     for (let seq = 0; seq < holdout.chunkCount; seq++) {
-      const row = chunk.get(holdoutId, seq) as { data: Buffer } | undefined;
+      const [row] = await db.all<{ data: Buffer }>('SELECT "data" FROM "holdout_chunks" WHERE "holdoutId" = ? AND "seq" = ?', [holdoutId, seq]);
       if (!row || offset + row.data.length > out.length) throw new Error(`holdout ${holdoutId}: stored chunk ${seq} is missing or too long`);
       row.data.copy(out, offset);
       offset += row.data.length;
     }
     if (offset !== holdout.bytes) throw new Error(`holdout ${holdoutId}: stored chunks hold ${offset} bytes, the file had ${holdout.bytes}`);
-    return { bytes: out, fileName: holdout.fileName, sha256: holdout.sha256 };
+    return { bytes: out, fileName: holdout.fileName, sha256: holdout.sha256, sheet: holdout.sheet };
   } finally {
-    db.close();
+    await db.close();
   }
 }
 
 async function mapStored(task: Extract<ReaderTask, { task: 'map' }>): Promise<MappedHoldout> {
-  const file = storedFile(task.databasePath, task.holdoutId);
-  const loaded = await loadHoldout({ bytes: file.bytes, fileName: file.fileName }, task.mapping, { dropMissing: task.dropMissing });
+  const file = await storedFile(task.databasePath, task.holdoutId);
+  const loaded = await loadHoldout({ bytes: file.bytes, fileName: file.fileName, sheet: file.sheet }, task.mapping, { dropMissing: task.dropMissing });
   if (loaded.input.sha256 !== file.sha256) throw new Error(`holdout ${task.holdoutId}: the stored bytes no longer match the upload's SHA-256`);
   const { read, holdout } = loaded;
   const input: RunInput = {
     fileName: loaded.input.fileName,
+    ...(loaded.input.sheet === undefined ? {} : { sheet: loaded.input.sheet }),
     sha256: loaded.input.sha256,
     bytes: loaded.input.bytes,
     n: holdout.n,
@@ -107,8 +107,8 @@ async function mapStored(task: Extract<ReaderTask, { task: 'map' }>): Promise<Ma
 }
 
 async function referenceStored(task: Extract<ReaderTask, { task: 'reference' }>): Promise<MappedReference> {
-  const file = storedFile(task.databasePath, task.holdoutId);
-  const loaded = await loadReference({ bytes: file.bytes, fileName: file.fileName }, task.mapping, { dropMissing: task.dropMissing });
+  const file = await storedFile(task.databasePath, task.holdoutId);
+  const loaded = await loadReference({ bytes: file.bytes, fileName: file.fileName, sheet: file.sheet }, task.mapping, { dropMissing: task.dropMissing });
   return {
     reference: { holdoutId: task.holdoutId, fileName: loaded.fileName, sha256: loaded.sha256, rows: loaded.champion.length },
     columns: encodeReference(loaded),
@@ -117,11 +117,11 @@ async function referenceStored(task: Extract<ReaderTask, { task: 'reference' }>)
 
 /** Does the task on this thread (what the worker runs). */
 export async function performReaderTask(task: ReaderTask): Promise<unknown> {
-  if (task.task === 'scan') return scanHoldout({ path: task.path, fileName: task.fileName });
+  if (task.task === 'scan') return scanHoldout({ path: task.path, fileName: task.fileName, sheet: task.sheet });
   if (task.task === 'map') return mapStored(task);
   if (task.task === 'reference') return referenceStored(task);
-  const file = storedFile(task.databasePath, task.holdoutId);
-  const result = await validateHoldout({ bytes: file.bytes, fileName: file.fileName }, task.mapping, { dropMissing: task.dropMissing, maxErrors: 50 });
+  const file = await storedFile(task.databasePath, task.holdoutId);
+  const result = await validateHoldout({ bytes: file.bytes, fileName: file.fileName, sheet: file.sheet }, task.mapping, { dropMissing: task.dropMissing, maxErrors: 50 });
   return { ok: result.ok, errors: result.errors, summary: result.summary } satisfies ValidationReport;
 }
 

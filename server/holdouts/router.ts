@@ -10,7 +10,18 @@ import { AppError } from '../errors';
 import { defineRoute, type RouteDefinition } from '../http/routes';
 import { idParams } from '../http/validate';
 import { ensureRoomFor } from './free-space';
-import { getHoldout, uploadHoldout, validateMapping } from './service';
+import { getHoldout, validateMapping } from './service';
+import { storeUpload } from './staged-uploads';
+
+/** The multipart field `sheet`: a worksheet's name (1 to 100 characters), or absent / empty for the first sheet. */
+function uploadSheet(body: Record<string, unknown>): string | null {
+  const sheet = body.sheet;
+  if (sheet === undefined || sheet === '') return null;
+  if (typeof sheet !== 'string' || sheet.length > 100) {
+    throw new AppError(errorCodes.badInput, 'The field "sheet" must be one worksheet\'s name (at most 100 characters).', 400, { field: 'sheet' });
+  }
+  return sheet;
+}
 
 export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
   // Streamed to a random name in the upload folder (never the client's name), at most
@@ -54,13 +65,16 @@ export function holdoutRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'post',
       path: '/holdouts',
       access: ['modeler'],
-      summary: 'Upload a holdout CSV (multipart field `file`) → 201 the holdout with columns, preview and guess; 400 naming row and column; 413 over the limit; 507 when the disk has no room for it',
+      summary:
+        'Upload a holdout CSV or .xlsx (multipart field `file`; for a workbook, optional field `sheet`: the worksheet to read, default the first) → 201 the holdout with columns, preview and guess; 400 naming sheet, row and column, or a sheet the workbook lacks; 413 over the limit; 507 when the disk has no room for it',
       before: [receiveFile],
       handler: async (req, res) => {
         const file = (req as unknown as { file?: Express.Multer.File }).file;
         if (!file) throw new AppError(errorCodes.badInput, 'Attach the holdout CSV as the multipart field "file".', 400);
         try {
-          const holdout = await uploadHoldout(ctx, currentUser(req), { path: file.path, originalname: file.originalname });
+          const sheet = uploadSheet((req.body ?? {}) as Record<string, unknown>);
+          // Recorded as staged while it is stored: another instance finishes it if this one stops (staged-uploads.ts).
+          const holdout = await storeUpload(ctx, currentUser(req), { path: file.path, originalname: file.originalname, sheet });
           res.status(201);
           return holdout;
         } finally {

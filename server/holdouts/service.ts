@@ -12,7 +12,9 @@ import { asBadInput } from './input-error';
 import { presentHoldout } from './present';
 import { type MappedHoldout, type MappedReference, runReaderTask } from './reading';
 import { ensureRoomFor } from './free-space';
+import { unstage } from './staged-rows';
 import { CHUNK_BYTES, storeHoldoutFile } from './storage';
+import { databaseAddress } from '../config';
 
 /**
  * Holdouts: an upload is scanned by the engine's reader on a worker thread (columns, row count,
@@ -27,21 +29,31 @@ export interface UploadedFile {
   path: string;
   /** The client's file name: untrusted, only shown after sanitising. */
   originalname: string;
+  /** For an .xlsx workbook: the worksheet to read (default: the first); refused for CSV. */
+  sheet?: string | null;
+  /**
+   * Its row in staged_uploads (staged-uploads.ts): removed in the storing transaction, which is
+   * refused when the row is gone (another instance stored it). `resumed`: this instance took it
+   * over from one that stopped.
+   */
+  staged?: { id: number; resumed: boolean };
 }
 
-export async function uploadHoldout(ctx: AppContext, actor: User, file: UploadedFile): Promise<HoldoutInfo> {
+export async function uploadHoldout(ctx: Pick<AppContext, 'config' | 'dataSource'>, actor: User, file: UploadedFile): Promise<HoldoutInfo> {
   const fileName = sanitiseFileName(file.originalname);
-  const scan = await asBadInput(() => runReaderTask({ task: 'scan', path: file.path, fileName }));
+  const scan = await asBadInput(() => runReaderTask({ task: 'scan', path: file.path, fileName, sheet: file.sheet ?? null }));
   const chunkCount = Math.ceil(scan.bytes / CHUNK_BYTES);
   // The received file is on disk: its chunks (in the WAL, then the database) must fit too, or 507.
   ensureRoomFor(ctx.config.databasePath, scan.bytes, 2);
   const id = await inTransaction(ctx.dataSource, async (manager) => {
+    if (file.staged) await unstage(manager, file.staged.id);
     const holdout = await manager.save(
       manager.create(Holdout, {
         fileName,
         sha256: scan.sha256,
         bytes: scan.bytes,
         rowCount: scan.rowCount,
+        sheet: scan.sheet,
         delimiter: scan.delimiter,
         columns: scan.columns,
         preview: scan.preview,
@@ -60,7 +72,7 @@ export async function uploadHoldout(ctx: AppContext, actor: User, file: Uploaded
       actor,
       action: 'holdout.uploaded',
       target: { type: 'holdout', id: holdout.id },
-      details: { fileName, sha256: scan.sha256, bytes: scan.bytes, rowCount: scan.rowCount, columns: scan.columns.map((column) => column.name) },
+      details: { fileName, ...(scan.sheet === null ? {} : { sheet: scan.sheet }), ...(file.staged?.resumed ? { resumedByAnotherInstance: true } : {}), sha256: scan.sha256, bytes: scan.bytes, rowCount: scan.rowCount, columns: scan.columns.map((column) => column.name) },
     });
     return holdout.id;
   });
@@ -80,7 +92,7 @@ export async function getHoldout(source: DataSource | EntityManager, id: number,
 /** The upload wizard's validation report: the first 50 problems, each naming its row and column, or a summary. */
 export async function validateMapping(ctx: AppContext, id: number, mapping: ColumnMapping, dropMissing: boolean): Promise<ValidationReport> {
   await findHoldout(ctx.dataSource, id);
-  return runReaderTask({ task: 'validate', databasePath: ctx.config.databasePath, holdoutId: id, mapping, dropMissing });
+  return runReaderTask({ task: 'validate', databasePath: databaseAddress(ctx.config), holdoutId: id, mapping, dropMissing });
 }
 
 /**
@@ -90,9 +102,9 @@ export async function validateMapping(ctx: AppContext, id: number, mapping: Colu
  */
 /** The PSI's reference sample: the mapping's score columns read from another stored holdout (on the reader's thread). */
 export async function mapReference(ctx: AppContext, holdout: Holdout, mapping: ColumnMapping, dropMissing: boolean): Promise<MappedReference> {
-  return asBadInput(() => runReaderTask({ task: 'reference', databasePath: ctx.config.databasePath, holdoutId: holdout.id, mapping, dropMissing }));
+  return asBadInput(() => runReaderTask({ task: 'reference', databasePath: databaseAddress(ctx.config), holdoutId: holdout.id, mapping, dropMissing }));
 }
 
 export async function mapHoldout(ctx: AppContext, holdout: Holdout, mapping: ColumnMapping, dropMissing: boolean): Promise<MappedHoldout> {
-  return asBadInput(() => runReaderTask({ task: 'map', databasePath: ctx.config.databasePath, holdoutId: holdout.id, mapping, dropMissing }));
+  return asBadInput(() => runReaderTask({ task: 'map', databasePath: databaseAddress(ctx.config), holdoutId: holdout.id, mapping, dropMissing }));
 }

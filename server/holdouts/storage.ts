@@ -1,5 +1,6 @@
 import { closeSync, openSync, readSync } from 'node:fs';
 import type { EntityManager } from 'typeorm';
+import { rawQuery } from '../db/driver';
 
 /**
  * An uploaded file's bytes in SQLite, in fixed-size chunks (holdout_chunks), written in the
@@ -25,7 +26,7 @@ export async function storeHoldoutFile(manager: EntityManager, holdoutId: number
         filled += read;
       }
       if (filled === 0) break;
-      await manager.query('INSERT INTO "holdout_chunks" ("holdoutId", "seq", "data") VALUES (?, ?, ?)', [holdoutId, chunks, buffer.subarray(0, filled)]);
+      await rawQuery(manager, 'INSERT INTO "holdout_chunks" ("holdoutId", "seq", "data") VALUES (?, ?, ?)', [holdoutId, chunks, buffer.subarray(0, filled)]);
       chunks += 1;
       bytes += filled;
       if (filled < CHUNK_BYTES) break;

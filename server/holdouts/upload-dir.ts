@@ -1,4 +1,4 @@
-import { mkdirSync, readdirSync, rmSync } from 'node:fs';
+import { mkdirSync, readdirSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 
@@ -13,13 +13,30 @@ export function uploadDirFor(databasePath: string): string {
   return join(dirname(resolve(databasePath)), 'uploads');
 }
 
-/** Creates the folder, or empties it of files a previous process left (call before serving). */
-export function clearUploadDir(dir: string): number {
+/**
+ * Creates the folder, or empties it of files a previous process left (call before serving). With
+ * `olderThanMs`, only files untouched for that long: a folder several instances share (UPLOAD_DIR
+ * with PostgreSQL) holds the others' uploads in progress, so any instance removes what a killed
+ * one left once it is clearly abandoned, and nothing newer. `keep`: names left alone (files still
+ * recorded as staged, which holdouts/staged-uploads.ts stores or removes).
+ */
+export function clearUploadDir(dir: string, options: { olderThanMs?: number; keep?: ReadonlySet<string> } = {}): number {
   mkdirSync(dir, { recursive: true });
   let removed = 0;
+  const before = options.olderThanMs === undefined ? Infinity : Date.now() - options.olderThanMs;
   for (const name of readdirSync(dir)) {
-    rmSync(join(dir, name), { force: true, recursive: true });
+    if (options.keep?.has(name)) continue; // staged: another instance stores it (staged-uploads.ts)
+    const path = join(dir, name);
+    try {
+      if (statSync(path).mtimeMs >= before) continue;
+    } catch {
+      continue; // removed meanwhile by another instance
+    }
+    rmSync(path, { force: true, recursive: true });
     removed += 1;
   }
   return removed;
 }
+
+/** A staged upload not written to for this long is abandoned (its request has long ended). */
+export const abandonedUploadMs = 6 * 60 * 60_000;

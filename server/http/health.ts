@@ -4,6 +4,7 @@ import type { AppContext } from '../context';
 import { inTransaction } from '../db/transaction';
 import { noteWritable, writeHealth } from '../db/write-health';
 import { defineRoute, type RouteDefinition } from './routes';
+import { rawQuery } from '../db/driver';
 
 /**
  * Liveness and whether the database takes writes. After a storage failure (disk full, I/O error:
@@ -25,7 +26,7 @@ async function probe(dataSource: DataSource): Promise<void> {
   probes += 1;
   try {
     await inTransaction(dataSource, (manager) =>
-      manager.query(`INSERT INTO "app_settings" ("key", "value") VALUES ('health_probe', ?) ON CONFLICT ("key") DO UPDATE SET "value" = excluded."value"`, [String(probes)]),
+      rawQuery(manager, `INSERT INTO "app_settings" ("key", "value") VALUES ('health_probe', ?) ON CONFLICT ("key") DO UPDATE SET "value" = excluded."value"`, [String(probes)]),
     );
     noteWritable(dataSource);
   } catch {

@@ -1,6 +1,8 @@
 import { errorCodes } from '@shared/errors';
 import type { RequestHandler } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
+import type { DataSource } from 'typeorm';
+import { sharedStore } from '../auth/rate-limits';
 import { AppError } from '../errors';
 
 /**
@@ -9,10 +11,12 @@ import { AppError } from '../errors';
  * address when no one is signed in; over it → 429 with Retry-After, in the one error shape. So no
  * single account can fill the database (41,000 notes at 250 a second before) or the mail queue.
  * Sign-in and password-reset requests keep their own, stricter limits (auth/rate-limits.ts).
- * Counters are in memory: the server is one process.
+ * Counters are in memory on SQLite (the server is one process), in the database on PostgreSQL
+ * (several instances behind a load balancer share one budget per person: auth/rate-limit-store.ts).
  */
-export function writeLimiter(perMinute: number): RequestHandler {
+export function writeLimiter(perMinute: number, dataSource?: DataSource): RequestHandler {
   return rateLimit({
+    store: sharedStore(dataSource, 'writes:'),
     windowMs: 60_000,
     limit: perMinute,
     standardHeaders: 'draft-8',

@@ -5,12 +5,12 @@ import { argsortAscending, safety } from '../stats/order';
 import { preparePolicyData } from '../stats/policy-data';
 import { buildReport } from '../stats/report';
 import { StatisticError } from '../stats/statistic-error';
-import { type AnalysisJob, headlineOf, type WorkerMessage } from './messages';
+import { type AnalysisJob, choiceRecordOf, headlineOf, type WorkerMessage } from './messages';
 import { lowerPriority, readRun, transferable } from './worker-support';
 
 /**
  * One analysis run on its own thread (started by jobs/runner.ts through startWorker()). It opens
- * the database read-only (WAL lets it read while the main thread writes), loads the run's stored
+ * the database read-only (db/reader-connection.ts: SQLite's WAL lets it read while the main thread writes), loads the run's stored
  * columns, builds the report with the engine, and posts progress and the result back. It never
  * writes: the main thread stores the report, the state change and the audit event together.
  */
@@ -23,13 +23,13 @@ const post = (message: WorkerMessage, transfer: ArrayBuffer[] = []) => port.post
 
 async function main(): Promise<void> {
   post({ type: 'progress', fraction: 0, stage: 'Loading the holdout' });
-  const { mapping, settings, input, columns } = readRun(job.databasePath, job.runId);
+  const { mapping, settings, input, columns } = await readRun(job.databasePath, job.runId);
   const holdout = decodeHoldout(input, mapping, columns);
 
   let lastPost = 0;
   const report = await buildReport({
     holdout,
-    input: { fileName: input.fileName, sha256: input.sha256, bytes: input.bytes },
+    input: { fileName: input.fileName, sha256: input.sha256, bytes: input.bytes, ...(input.sheet === undefined ? {} : { sheet: input.sheet }) },
     mapping,
     settings,
     policy: job.policy,
@@ -60,6 +60,7 @@ async function main(): Promise<void> {
       engineVersion: report.engineVersion,
       headline: headlineOf(report),
       verdict: report.verdict,
+      choice: choiceRecordOf(report),
       prepared,
       swapMatrix: report.swapMatrix,
     },

@@ -1,17 +1,20 @@
-import { parentPort, workerData } from 'node:worker_threads';
+import { parentPort } from 'node:worker_threads';
 import { renderPackPdf } from '../pack/pdf';
 import type { PackInput } from '../pack/sections';
 import { lowerPriority } from './worker-support';
 
 /**
- * The committee pack's PDF on its own thread (started by pack/render-thread.ts): one input, one
- * PDF, then the thread ends, so laying out a long pack never holds up the requests.
+ * The committee pack's PDF on its own thread (kept by pack/render-thread.ts): it stays up and lays
+ * out one pack per message, so the fonts and the compiled code are loaded once, not per pack; the
+ * thread that answers requests only waits. Each reply names the job it answers.
  */
 lowerPriority(5);
-renderPackPdf(workerData as PackInput).then(
-  (pdf) => {
-    const bytes = new Uint8Array(pdf.buffer, pdf.byteOffset, pdf.byteLength).slice();
-    parentPort!.postMessage({ ok: true, bytes }, [bytes.buffer]);
-  },
-  (error: unknown) => parentPort!.postMessage({ ok: false, message: error instanceof Error ? (error.stack ?? error.message) : String(error) }),
-);
+parentPort!.on('message', ({ job, input }: { job: number; input: PackInput }) => {
+  renderPackPdf(input).then(
+    (pdf) => {
+      const bytes = new Uint8Array(pdf.buffer, pdf.byteOffset, pdf.byteLength).slice();
+      parentPort!.postMessage({ job, ok: true, bytes }, [bytes.buffer]);
+    },
+    (error: unknown) => parentPort!.postMessage({ job, ok: false, message: error instanceof Error ? (error.stack ?? error.message) : String(error) }),
+  );
+});

@@ -12,6 +12,7 @@ import { lowerPriority, readRun, transferable } from './worker-support';
  */
 
 export interface PrepareJob {
+  /** The SQLite file or PostgreSQL URL (db/reader-connection.ts). */
   databasePath: string;
   runId: number;
 }
@@ -19,11 +20,14 @@ export type PrepareMessage = { prepared: PreparedHoldout; matrix: SwapMatrix } |
 
 const job = workerData as PrepareJob;
 lowerPriority(5);
-try {
-  const run = readRun(job.databasePath, job.runId, { ids: false });
+
+async function main(): Promise<void> {
+  const run = await readRun(job.databasePath, job.runId, { ids: false });
   const { data, matrix } = prepareStored(run.input, run.mapping, run.settings, run.columns);
   const { prepared, buffers } = transferable(data);
   parentPort!.postMessage({ prepared, matrix } satisfies PrepareMessage, buffers);
-} catch (error) {
-  parentPort!.postMessage({ error: error instanceof Error ? error.message : String(error) } satisfies PrepareMessage);
 }
+
+main().catch((error: unknown) => {
+  parentPort!.postMessage({ error: error instanceof Error ? error.message : String(error) } satisfies PrepareMessage);
+});

@@ -1,10 +1,16 @@
 import { setPriority } from 'node:os';
-import Database from 'better-sqlite3';
 import type { AnalysisSettings, ColumnMapping } from '@shared/report';
 import type { RunInput } from '../db/entities/analysis-run';
+import { openReader } from '../db/reader-connection';
 import type { PreparedHoldout } from '../stats/policy-data';
 
 /** What the analysis and preparation workers share: reading a run, thread priority, handing data back. */
+
+/**
+ * Set to true by esbuild in the unit and API suite's build only (tests/setup/compile-once.ts,
+ * scripts/server-bundle.mjs `keepThreadPriority`).
+ */
+declare const __SCORECOURT_KEEP_THREAD_PRIORITY__: boolean | undefined;
 
 /**
  * Puts the calling worker thread below the thread that answers requests. On Linux the nice value
@@ -13,6 +19,10 @@ import type { PreparedHoldout } from '../stats/policy-data';
  * elsewhere.
  */
 export function lowerPriority(nice = 10): void {
+  // In the test suite's build the threads keep the test runner's priority: there the runner is
+  // what waits for them, and beside other CPU-bound processes a thread at nice 10 gets about a
+  // tenth of their share of a core (a 1-second analysis took tens of seconds beside two busy loops).
+  if (typeof __SCORECOURT_KEEP_THREAD_PRIORITY__ === 'boolean' && __SCORECOURT_KEEP_THREAD_PRIORITY__) return;
   try {
     setPriority(nice);
   } catch {
@@ -27,17 +37,14 @@ export interface StoredRun {
   columns: Map<string, Uint8Array>;
 }
 
-/** A run and its stored columns, through a read-only connection of its own (WAL: the main thread may write meanwhile). */
-export function readRun(databasePath: string, runId: number, options: { ids?: boolean } = {}): StoredRun {
-  const db = new Database(databasePath, { readonly: true, fileMustExist: true });
+/** A run and its stored columns, through a read-only connection of its own (the main thread may write meanwhile). */
+export async function readRun(databaseAddress: string, runId: number, options: { ids?: boolean } = {}): Promise<StoredRun> {
+  const db = await openReader(databaseAddress);
   try {
-    db.pragma('busy_timeout = 5000');
-    const run = db.prepare('SELECT "mapping", "settings", "input" FROM "analysis_runs" WHERE "id" = ?').get(runId) as
-      | { mapping: string; settings: string; input: string }
-      | undefined;
+    const [run] = await db.all<{ mapping: string; settings: string; input: string }>('SELECT "mapping", "settings", "input" FROM "analysis_runs" WHERE "id" = ?', [runId]);
     if (!run) throw new Error(`analysis run ${runId} is not in the database`);
     const sql = options.ids === false ? `SELECT "name", "data" FROM "run_columns" WHERE "runId" = ? AND "name" <> 'ids'` : 'SELECT "name", "data" FROM "run_columns" WHERE "runId" = ?';
-    const rows = db.prepare(sql).all(runId) as { name: string; data: Buffer }[];
+    const rows = await db.all<{ name: string; data: Buffer }>(sql, [runId]);
     return {
       mapping: JSON.parse(run.mapping) as ColumnMapping,
       settings: JSON.parse(run.settings) as AnalysisSettings,
@@ -45,7 +52,7 @@ export function readRun(databasePath: string, runId: number, options: { ids?: bo
       columns: new Map(rows.map((row) => [row.name, row.data])),
     };
   } finally {
-    db.close();
+    await db.close();
   }
 }
 
@@ -91,6 +98,7 @@ export function transferable(data: PreparedHoldout): { prepared: PreparedHoldout
     segments: data.segments.map((segment) => ({ ...segment, codes: own(segment.codes) })),
     champion: model(data.champion),
     challenger: model(data.challenger),
+    ...(data.moreChallengers ? { moreChallengers: data.moreChallengers.map((extra) => ({ model: model(extra.model), inferredBadsBefore: extra.inferredBadsBefore })) } : {}),
   };
   const buffers = new Set<ArrayBuffer>();
   for (const array of seen.values()) buffers.add(array.buffer as ArrayBuffer);

@@ -1,7 +1,8 @@
 import type { Transporter } from 'nodemailer';
-import { In, LessThanOrEqual, type DataSource, type EntityManager } from 'typeorm';
+import { In, LessThanOrEqual, MoreThan, type DataSource, type EntityManager } from 'typeorm';
 import { now } from '../clock';
 import { MailMessage } from '../db/entities/index';
+import { isPostgres } from '../db/driver';
 import { inTransaction, withWriteLock } from '../db/transaction';
 import type { Logger } from '../log';
 
@@ -31,6 +32,9 @@ export interface MailerOptions {
 
 /** The header that lets the local sink match what it receives to the outbox record. */
 export const outboxIdHeader = 'X-Scorecourt-Outbox-Id';
+
+/** How long a mailer holds a message it is sending before another may try it (longer than any SMTP conversation). */
+const claimMs = 5 * 60_000;
 
 export class Mailer {
   private readonly retryBaseMs: number;
@@ -114,7 +118,7 @@ export class Mailer {
 
   private async pass(): Promise<void> {
     const due = await this.dataSource.getRepository(MailMessage).find({
-      where: { status: 'queued', nextAttemptAt: LessThanOrEqual(new Date()) },
+      where: { status: 'queued', nextAttemptAt: LessThanOrEqual(now()) },
       order: { id: 'ASC' },
       take: 50,
     });
@@ -128,6 +132,12 @@ export class Mailer {
   private async attempt(message: MailMessage): Promise<void> {
     const attempts = message.attempts + 1;
     const repository = this.dataSource.getRepository(MailMessage);
+    // Claimed for a few minutes first: another server's mailer on the same database (PostgreSQL)
+    // skips it meanwhile, so a message is not sent twice by two instances.
+    const claimed = await withWriteLock(this.dataSource, () =>
+      repository.update({ id: message.id, status: 'queued', nextAttemptAt: LessThanOrEqual(now()) }, { nextAttemptAt: new Date(now().getTime() + claimMs) }),
+    );
+    if (!claimed.affected) return;
     try {
       const info = (await this.transport.sendMail({
         from: this.options.from,
@@ -154,7 +164,7 @@ export class Mailer {
             status: giveUp ? 'failed' : 'queued',
             attempts,
             lastError: reason.slice(0, 1000),
-            nextAttemptAt: giveUp ? null : new Date(Date.now() + delay),
+            nextAttemptAt: giveUp ? null : new Date(now().getTime() + delay),
           },
         ),
       );
@@ -164,11 +174,17 @@ export class Mailer {
     }
   }
 
-  /** Retries what a previous run left queued, then keeps looking for due retries. */
+  /**
+   * Retries what a previous run left queued, then keeps looking for due retries. On PostgreSQL
+   * other instances may be sending some of the queued messages right now (claimed for at most
+   * `claimMs`): only messages waiting longer than a claim are made due now; the others come due
+   * within five minutes anyway.
+   */
   async start(): Promise<void> {
     this.stopped = false;
+    const waiting = isPostgres(this.dataSource) ? { nextAttemptAt: MoreThan(new Date(now().getTime() + claimMs)) } : {};
     await withWriteLock(this.dataSource, () =>
-      this.dataSource.getRepository(MailMessage).update({ status: In(['queued']) }, { nextAttemptAt: new Date() }),
+      this.dataSource.getRepository(MailMessage).update({ status: In(['queued']), ...waiting }, { nextAttemptAt: now() }),
     );
     this.timer = setInterval(() => this.kick(), this.pollMs);
     this.timer.unref();

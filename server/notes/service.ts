@@ -9,7 +9,8 @@ import type { AppContext } from '../context';
 import { CutoffScenario, Note, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
 import { AppError, forbidden } from '../errors';
-import { iso, personRef } from '../governance/people';
+import { iso } from '@shared/format';
+import { personRef } from '../users/present';
 
 /**
  * Notes on a comparison: the discussion thread, open to everyone signed in, and annotations on

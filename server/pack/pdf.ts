@@ -335,6 +335,7 @@ export function renderPackPdf(input: PackInput): Promise<Buffer> {
   const layout = new Layout(doc);
   for (const section of packSections) {
     const content = section(input);
+    if (content === null) continue;
     layout.newPage(false);
     layout.paragraph(content.title, 14, { bold: true });
     doc.moveTo(MARGIN, layout.y - 4).lineTo(MARGIN + layout.width, layout.y - 4).lineWidth(1.2).strokeColor(inkColors.text).stroke();

@@ -1,25 +1,24 @@
+import { equalApprovalSentence } from '@shared/equal-approval-words';
+import { keptValuesText } from '@shared/mixed-strategy-words';
 import { comparisonStateLabels, type ComparisonState } from '@shared/comparisons';
 import {
-  formatAuc,
-  formatAucDelta,
-  formatBytes,
   formatCount,
   formatDateTime,
   formatGini,
-  formatGiniDelta,
-  formatInterval,
   formatKs,
-  formatKsDelta,
-  formatMoney,
   formatNumber,
   formatPercent,
-  formatPValue,
   formatScore,
-  formatSignedNumber,
 } from '@shared/format';
 import { voteChoiceLabels, type AuditEvent, type Governance, type Note } from '@shared/governance';
 import { type Chart, ksChart, rocChart, segmentIntervalsChart, strategyChart, swapGridChart, upliftChart } from '@shared/pack/charts';
-import { type BandTable, type Report, swapInRiskier } from '@shared/report';
+import { dataFacts, metricsTable, noSegmentsSentence, segmentsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
+import { committeeDecidesNote, criteriaTable, noDecisionSentence, notDecidedSentence, policyInOneSentence, shortenedHashesNote, verdictHeading, verdictRecordsNote } from '@shared/pack/record-words';
+import { type BandTable, type Report } from '@shared/report';
+import { strategyBlocks } from './strategy-blocks';
+import { calibrationStability } from './calibration-section';
+import { severalChallengers } from './challengers-section';
+import { chosenModelWords, hasSeveralChallengers } from '@shared/challengers-words';
 
 /**
  * The committee pack's content, from the stored report and the governance record, as a list of
@@ -74,12 +73,11 @@ export interface Section {
   blocks: Block[];
 }
 
-const orientation = { safer: 'higher is safer', riskier: 'higher is riskier' } as const;
 const utc = (value: string | Date) => `${formatDateTime(value, 'UTC')} UTC`;
 
 function summary(input: PackInput): Section {
   const { report, comparison, governance } = input;
-  const { settings, mapping, verdict } = report;
+  const { verdict } = report;
   const blocks: Block[] = [
     { kind: 'paragraph', text: comparison.name },
     ...(comparison.description ? [{ kind: 'paragraph' as const, text: comparison.description, muted: true }] : []),
@@ -88,57 +86,19 @@ function summary(input: PackInput): Section {
       muted: true,
       text: `Comparison ${comparison.id} · ${comparisonStateLabels[comparison.state]} · created by ${comparison.createdBy} on ${utc(comparison.createdAt)} · pack made ${utc(input.generatedAt)}${input.generatedFor ? ` for ${input.generatedFor}` : ''} by Scorecourt${input.archivedWithDecision ? ' · the pack archived with the committee’s decision' : ''}`,
     },
-    { kind: 'subheading', text: `Verdict under adoption policy version ${verdict.policyVersion}: ${verdictLabel(verdict.outcome)}` },
+    { kind: 'subheading', text: `${verdictHeading(verdict)}: ${verdictLabel(verdict.outcome)}` },
     { kind: 'paragraph', text: verdict.summary },
-    {
-      kind: 'table',
-      title: 'Adoption criteria',
-      head: ['Criterion', 'Result', 'Why'],
-      numeric: [],
-      rows: verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail]),
-    },
+    { kind: 'table', title: 'Adoption criteria', ...criteriaTable(verdict) },
     governance.decision
       ? {
           kind: 'paragraph',
-          text: `Decision: ${voteChoiceLabels[governance.decision.outcome]}, recorded by ${governance.decision.decidedBy.name} on ${utc(governance.decision.createdAt)}. ${governance.decision.rationale}`,
+          text: `Decision: ${voteChoiceLabels[governance.decision.outcome]}${hasSeveralChallengers(report) && governance.decision.chosen ? ` — ${chosenModelWords(governance.decision.chosen)}` : ''}${governance.decision.strategy ? `, except in ${keptValuesText(governance.decision.strategy)}, which keep the champion` : ''}, recorded by ${governance.decision.decidedBy.name} on ${utc(governance.decision.createdAt)}. ${governance.decision.rationale}`,
         }
-      : { kind: 'paragraph', muted: true, text: `No committee decision is recorded yet: this comparison is ${comparisonStateLabels[comparison.state].toLowerCase()}.` },
+      : { kind: 'paragraph', muted: true, text: noDecisionSentence(comparison.state) },
     { kind: 'subheading', text: 'Data' },
-    {
-      kind: 'facts',
-      rows: [
-        ['File', report.input.fileName],
-        ['SHA-256', report.input.sha256],
-        ['Size', formatBytes(report.input.bytes)],
-        ['Rows read / used', `${formatCount(report.dataQuality.rowsRead)} / ${formatCount(report.rows)}`],
-        ['Goods / bads', `${formatCount(report.goods)} / ${formatCount(report.bads)}`],
-        ['Bad rate', formatPercent(report.badRate, 2)],
-        ['Outcome', `${mapping.outcome} (bad = “${mapping.badValue}”)`],
-        ['Champion', `${mapping.champion} (${orientation[mapping.higherIs.champion]})`],
-        ['Challenger', `${mapping.challenger} (${orientation[mapping.higherIs.challenger]})`],
-        ['Segments', mapping.segments && mapping.segments.length > 0 ? mapping.segments.join(', ') : 'none'],
-        ['Exposure', mapping.exposure ?? 'none'],
-      ],
-    },
+    { kind: 'facts', rows: dataFacts(report) },
     { kind: 'subheading', text: 'Settings and engine' },
-    {
-      kind: 'facts',
-      rows: [
-        ['Random seed', String(settings.seed)],
-        ['Bootstrap', settings.bootstrap > 0 ? `${formatCount(settings.bootstrap)} paired, stratified replicates` : 'not run'],
-        ['Confidence', formatPercent(settings.confidence, 0)],
-        [
-          'Swap sets at',
-          settings.cutoffs
-            ? `cut-offs ${formatScore(settings.cutoffs.champion)} (champion) and ${formatScore(settings.cutoffs.challenger)} (challenger)`
-            : `a ${formatPercent(settings.approvalRate, 1)} approval rate for both models`,
-        ],
-        ['Bands', formatCount(settings.bands)],
-        ['Engine version', report.engineVersion],
-        ['Analysis run', comparison.runId === null ? '—' : String(comparison.runId)],
-        ['Adoption policy', `version ${report.policy.version}`],
-      ],
-    },
+    { kind: 'facts', rows: settingsFacts(report, comparison.runId === null ? '—' : String(comparison.runId)) },
     {
       kind: 'paragraph',
       muted: true,
@@ -156,57 +116,12 @@ function verdictLabel(outcome: Report['verdict']['outcome']): string {
 
 function metrics(input: PackInput): Section {
   const { report } = input;
-  const level = formatPercent(report.settings.confidence, 0);
-  const { champion, challenger, difference, swap, segments } = report;
-  const ks = (interval: [number, number] | null, format = formatKs) => (interval ? formatInterval(interval, format) : 'no bootstrap');
-  const holmSignificant = segments.filter((row) => row.pHolm !== null && row.pHolm < report.policy.alpha).length;
   return {
     title: 'Evidence: metrics and tests',
     blocks: [
-      {
-        kind: 'table',
-        title: 'Metrics',
-        note: `Point estimates with ${level} intervals: DeLong for AUC and Gini, paired bootstrap percentiles for KS. Gini and KS in points.`,
-        head: ['', 'Champion', 'Challenger', 'Challenger − champion'],
-        numeric: [1, 2, 3],
-        rows: [
-          ['AUC', formatAuc(champion.auc), formatAuc(challenger.auc), formatAucDelta(difference.auc)],
-          [`AUC ${level} interval`, formatInterval(champion.aucCi, formatAuc), formatInterval(challenger.aucCi, formatAuc), formatInterval(difference.aucCi, formatAucDelta)],
-          ['Gini', formatGini(champion.gini), formatGini(challenger.gini), formatGiniDelta(difference.gini)],
-          [`Gini ${level} interval`, formatInterval(champion.giniCi), formatInterval(challenger.giniCi), formatInterval(difference.giniCi, formatGiniDelta)],
-          ['ΔGini bootstrap interval', '', '', difference.giniBootstrapCi ? formatInterval(difference.giniBootstrapCi, formatGiniDelta) : 'no bootstrap'],
-          ['KS', formatKs(champion.ks), formatKs(challenger.ks), formatKsDelta(difference.ks)],
-          [`KS ${level} interval`, ks(champion.ksCi), ks(challenger.ksCi), ks(difference.ksCi, formatKsDelta)],
-          ['KS reached at score', formatScore(champion.ksScore), formatScore(challenger.ksScore), ''],
-        ],
-      },
+      { kind: 'table', title: 'Metrics', ...metricsTable(report) },
       { kind: 'chart', chart: upliftChart(report) },
-      {
-        kind: 'table',
-        title: 'Tests',
-        head: ['Test', 'Statistic', 'p-value', 'Result'],
-        numeric: [],
-        rows: [
-          [
-            'DeLong paired test of ΔAUC (DeLong, DeLong & Clarke-Pearson 1988)',
-            `z = ${formatSignedNumber(difference.z)}`,
-            `${formatPValue(difference.pOneSided)} one-sided, ${formatPValue(difference.pTwoSided)} two-sided`,
-            `se(ΔGini) = ${formatGini(difference.giniSe)} points; correlation of the AUCs ${difference.correlation === null ? '—' : formatNumber(difference.correlation, 3)}`,
-          ],
-          [
-            `Swap-in vs swap-out bad rate (${swap.test.method === 'fisher-exact' ? 'Fisher’s exact test' : 'two-proportion z test'})`,
-            swap.test.z === null ? '—' : `z = ${formatSignedNumber(swap.test.z)}`,
-            swap.test.p === null ? '—' : `${formatPValue(swap.test.p)} two-sided`,
-            swap.test.reason ?? `swap-in ${formatPercent(swap.swapIn.badRate)} vs swap-out ${formatPercent(swap.swapOut.badRate)}`,
-          ],
-          [
-            'Segments: DeLong per value, Holm-adjusted (Holm 1979)',
-            `${formatCount(segments.length)} rows`,
-            '',
-            segments.length === 0 ? 'no segment columns' : `${formatCount(holmSignificant)} with Holm-adjusted p below α = ${report.policy.alpha}`,
-          ],
-        ],
-      },
+      { kind: 'table', title: 'Tests', ...testsTable(report) },
       { kind: 'chart', chart: rocChart(report) },
       { kind: 'chart', chart: ksChart(report) },
     ],
@@ -243,78 +158,17 @@ function bands(input: PackInput): Section {
   };
 }
 
-const swapCells = [
-  ['bothAccept', 'Both accept'],
-  ['swapIn', 'Swap-in (champion declines, challenger accepts)'],
-  ['swapOut', 'Swap-out (champion accepts, challenger declines)'],
-  ['bothReject', 'Both decline'],
-] as const;
-
-const rateWithInterval = (cell: { badRate: number | null; badRateCi: [number, number] | null }) =>
-  cell.badRateCi ? `${formatPercent(cell.badRate)} (${formatInterval(cell.badRateCi, (v) => formatPercent(v))})` : formatPercent(cell.badRate);
 
 function swapSets(input: PackInput): Section {
   const { report } = input;
-  const { swap } = report;
-  const level = formatPercent(report.settings.confidence, 0);
-  const hasAmount = !!report.mapping.exposure;
-  const at = report.strategyCurve.atApprovalRate;
+  const segmentsTable = swapSegmentsTable(report);
   const blocks: Block[] = [
-    {
-      kind: 'paragraph',
-      text:
-        swap.basis === 'approval-rate'
-          ? `Both models at a ${formatPercent(swap.requestedApprovalRate, 1)} approval rate: cut-offs ${formatScore(swap.champion.cutoff)} (champion, ${formatPercent(swap.champion.approvalRate)} achieved) and ${formatScore(swap.challenger.cutoff)} (challenger, ${formatPercent(swap.challenger.approvalRate)}).`
-          : `Cut-offs ${formatScore(swap.champion.cutoff)} (champion, ${formatPercent(swap.champion.approvalRate)} approved) and ${formatScore(swap.challenger.cutoff)} (challenger, ${formatPercent(swap.challenger.approvalRate)} approved).`,
-    },
-    {
-      kind: 'table',
-      title: 'Swap sets at the report’s cut-offs',
-      note: `Bad rates with ${level} Wilson intervals.`,
-      head: ['', 'Accounts', 'Share', 'Bads', 'Bad rate', `${level} interval`, ...(hasAmount ? ['Amount'] : [])],
-      numeric: [1, 2, 3, 4, 5, 6],
-      rows: swapCells.map(([key, label]) => {
-        const cell = swap[key];
-        return [
-          label,
-          formatCount(cell.count),
-          formatPercent(cell.share),
-          formatCount(cell.bads),
-          formatPercent(cell.badRate),
-          formatInterval(cell.badRateCi, (value) => formatPercent(value)),
-          ...(hasAmount ? [formatMoney(cell.amount)] : []),
-        ];
-      }),
-    },
+    { kind: 'paragraph', text: swapBasisSentence(report.swap) },
+    { kind: 'table', title: 'Swap sets at the report’s cut-offs', ...swapSetsTable(report) },
     { kind: 'chart', chart: swapGridChart(report) },
-  ];
-  if (swap.bySegment.length > 0) {
-    blocks.push({
-      kind: 'table',
-      title: 'Swap sets by segment',
-      note: `The same cut-offs within each segment value; champion → challenger. Swap-in and swap-out bad rates with ${level} Wilson intervals. “Swap-in riskier” flags a value where the challenger trades in riskier accounts than it turns away.`,
-      head: ['Segment', 'Accounts', 'Approval rate', 'Net approvals', 'Bad rate of the approved book', 'Swap-in', 'Swap-in bad rate', 'Swap-out', 'Swap-out bad rate', 'Flag'],
-      numeric: [1, 3, 5, 7],
-      rows: swap.bySegment.map((row) => [
-        `${row.column} = ${row.value}`,
-        formatCount(row.accounts),
-        `${formatPercent(row.champion.approvalRate)} → ${formatPercent(row.challenger.approvalRate)}`,
-        formatSignedNumber(row.challenger.approved - row.champion.approved, 0),
-        `${formatPercent(row.champion.approvedBadRate)} → ${formatPercent(row.challenger.approvedBadRate)}`,
-        formatCount(row.swapIn.count),
-        rateWithInterval(row.swapIn),
-        formatCount(row.swapOut.count),
-        rateWithInterval(row.swapOut),
-        swapInRiskier(row) ? 'Swap-in riskier' : '',
-      ]),
-    });
-  }
-  blocks.push(
+    ...(segmentsTable ? [{ kind: 'table' as const, title: 'Swap sets by segment', ...segmentsTable }] : []),
     { kind: 'subheading', text: 'Strategy curve' },
-    {
-      kind: 'paragraph',
-      text: `At a ${formatPercent(at.approvalRate, 1)} approval rate the champion approves ${formatCount(at.championBads)} bads and the challenger ${formatCount(at.challengerBads)}: ${at.badsAvoided >= 0 ? `${formatCount(at.badsAvoided)} bads avoided` : `${formatCount(-at.badsAvoided)} more bads`}.${at.approvalsGainedAtEqualBadRate === null ? '' : ` At the champion’s bad rate the challenger could approve ${formatCount(at.approvalsGainedAtEqualBadRate)} more accounts.`}`,
-    },
+    { kind: 'paragraph', text: equalApprovalSentence(report.strategyCurve.atApprovalRate) },
     { kind: 'chart', chart: strategyChart(report) },
     {
       kind: 'table',
@@ -332,38 +186,18 @@ function swapSets(input: PackInput): Section {
         formatPercent(point.challenger.marginalBadRate, 2),
       ]),
     },
-  );
+  ];
   return { title: 'Who changes sides: swap sets and the strategy curve', blocks };
 }
 
 function segments(input: PackInput): Section {
   const { report } = input;
-  if (report.segments.length === 0) return { title: 'Segments', blocks: [{ kind: 'paragraph', text: 'No segment columns were mapped.' }] };
-  const sided = report.policy.sided === 'one-sided' ? 'one-sided' : 'two-sided';
+  const table = segmentsTable(report);
+  if (!table) return { title: 'Segments', blocks: [{ kind: 'paragraph', text: noSegmentsSentence }] };
   const chart = segmentIntervalsChart(report);
   return {
     title: 'Segments',
-    blocks: [
-      {
-        kind: 'table',
-        title: 'Segments',
-        note: `ΔGini per segment value with its DeLong p (${sided}) and the Holm-adjusted p across all rows. “Few bads” marks values with too few bads to read.`,
-        head: ['Segment', 'Accounts', 'Bads', 'Champion Gini', 'Challenger Gini', 'ΔGini', 'p', 'Holm p', 'Note'],
-        numeric: [1, 2, 3, 4, 5, 6, 7],
-        rows: report.segments.map((row) => [
-          `${row.column} = ${row.value}`,
-          formatCount(row.n),
-          formatCount(row.bads),
-          formatGini(row.championGini),
-          formatGini(row.challengerGini),
-          formatGiniDelta(row.deltaGini),
-          formatPValue(row.p),
-          formatPValue(row.pHolm),
-          [row.tooFewBads ? 'few bads' : null, row.note].filter(Boolean).join('; '),
-        ]),
-      },
-      ...(chart ? [{ kind: 'chart' as const, chart }] : []),
-    ],
+    blocks: [{ kind: 'table', title: 'Segments', ...table }, ...(chart ? [{ kind: 'chart' as const, chart }] : [])],
   };
 }
 
@@ -436,17 +270,12 @@ function dataQuality(input: PackInput): Section {
 
 function governanceRecord(input: PackInput): Section {
   const { governance, report, notes } = input;
-  const policy = report.policy;
   const blocks: Block[] = [
-    {
-      kind: 'paragraph',
-      muted: true,
-      text: `Policy version ${policy.version}: α = ${policy.alpha} (${policy.sided}), materiality ${policy.materialityGiniPoints} Gini points, interval above zero ${policy.requireIntervalAboveZero ? 'required' : 'not required'}, swap rule ${policy.swapRule.enabled ? `at a ${formatPercent(policy.swapRule.approvalRate, 1)} approval rate` : 'off'}, at least ${policy.minBads} bads, quorum ${policy.quorum || 'none'}.`,
-    },
+    { kind: 'paragraph', muted: true, text: policyInOneSentence(report.policy) },
     {
       kind: 'table',
       title: 'Verdict records',
-      note: 'Every verdict given, newest first, each under the policy version it used; a stored verdict never changes.',
+      note: verdictRecordsNote,
       head: ['When', 'Run', 'Policy', 'Verdict', 'By', 'Summary'],
       numeric: [1, 2],
       rows: governance.verdicts.map((record) => [utc(record.createdAt), String(record.runId), String(record.policyVersion), verdictLabel(record.outcome), record.createdBy?.name ?? 'Scorecourt', record.summary]),
@@ -463,7 +292,12 @@ function governanceRecord(input: PackInput): Section {
       title: `Committee votes (quorum ${governance.quorum || 'none'})`,
       head: ['When', 'Member', 'Vote', 'Comment'],
       numeric: [],
-      rows: governance.votes.map((vote) => [utc(vote.createdAt), vote.voter.name, voteChoiceLabels[vote.vote], vote.comment]),
+      rows: governance.votes.map((vote) => [
+        utc(vote.createdAt),
+        vote.voter.name,
+        `${voteChoiceLabels[vote.vote]}${hasSeveralChallengers(report) && vote.vote === 'adopt' && vote.challenger !== null ? `: ${report.challengers[vote.challenger]?.name ?? `challenger ${vote.challenger + 1}`}` : ''}`,
+        vote.comment,
+      ]),
     },
   ];
   const decision = governance.decision;
@@ -473,6 +307,7 @@ function governanceRecord(input: PackInput): Section {
       kind: 'facts',
       rows: [
         ['Outcome', voteChoiceLabels[decision.outcome]],
+        ...(hasSeveralChallengers(report) && decision.chosen ? ([['Model chosen', chosenModelWords(decision.chosen)!]] as [string, string][]) : []),
         ['Recorded by', decision.decidedBy.name],
         ['When', utc(decision.createdAt)],
         ['Analysis run', String(decision.runId)],
@@ -480,10 +315,12 @@ function governanceRecord(input: PackInput): Section {
         ['Effective', decision.effectiveDate ?? '—'],
         ['Rationale', decision.rationale],
         ['Conditions', decision.conditions ?? 'none'],
+        ...(decision.strategy ? ([['Champion kept in', keptValuesText(decision.strategy)]] as [string, string][]) : []),
       ],
     });
+    if (decision.strategy) blocks.push(...strategyBlocks(decision.strategy));
   } else {
-    blocks.push({ kind: 'paragraph', muted: true, text: 'Not decided yet.' });
+    blocks.push({ kind: 'paragraph', muted: true, text: notDecidedSentence });
   }
   if (notes.length > 0) {
     blocks.push({
@@ -491,10 +328,10 @@ function governanceRecord(input: PackInput): Section {
       title: 'Notes and discussion',
       head: ['When', 'Who', 'About', 'Note'],
       numeric: [],
-      rows: notes.map((note) => [utc(note.createdAt), note.author.name, note.anchor, note.body]),
+      rows: notes.map((note) => [utc(note.createdAt), note.author.name, note.afterDecision ? `${note.anchor} (after the decision)` : note.anchor, note.body]),
     });
   }
-  blocks.push({ kind: 'paragraph', muted: true, text: 'The verdict advises and the committee decides; the cautions on the first page apply to every decision recorded here.' });
+  blocks.push({ kind: 'paragraph', muted: true, text: committeeDecidesNote });
   return { title: 'Verdict, review and decision', blocks };
 }
 
@@ -505,18 +342,30 @@ function auditTrail(input: PackInput): Section {
     blocks: [
       {
         kind: 'paragraph',
-        text: `${formatCount(events.length)} events; the hash chain ${chainValid ? 'verifies' : 'does NOT verify'}. Hashes are shortened; the evidence pack holds them in full.`,
+        text: `${formatCount(events.length)} events; the hash chain ${chainValid ? 'verifies' : 'does NOT verify'}. ${shortenedHashesNote}`,
       },
       {
         kind: 'table',
         title: 'Audit trail',
         head: ['When (UTC)', 'Who', 'What', 'Hash'],
         numeric: [],
-        rows: events.map((event) => [formatDateTime(event.createdAt, 'UTC'), event.actor?.name ?? 'Scorecourt', event.action, `${event.hash.slice(0, 16)}…`]),
+        rows: events.map((event) => [formatDateTime(event.createdAt, 'UTC'), event.actor ? `${event.actor.name}${event.actor.email ? ` (${event.actor.email})` : ''}` : 'Scorecourt', event.action, `${event.hash.slice(0, 16)}…`]),
       },
     ],
   };
 }
 
-/** The pack's sections in order. A new section of the report is added here, in one place. */
-export const packSections: ((input: PackInput) => Section)[] = [summary, metrics, swapSets, segments, bands, swapMatrix, dataQuality, governanceRecord, auditTrail];
+/** The pack's sections in order; null: the report has nothing for it. A new section of the report is added here, in one place. */
+export const packSections: ((input: PackInput) => Section | null)[] = [
+  summary,
+  severalChallengers,
+  metrics,
+  swapSets,
+  segments,
+  calibrationStability,
+  bands,
+  swapMatrix,
+  dataQuality,
+  governanceRecord,
+  auditTrail,
+];

@@ -1,19 +1,21 @@
 import { createHash } from 'node:crypto';
+import { isDeepStrictEqual } from 'node:util';
 import type { Report } from '@shared/report';
 import type { Response } from 'express';
 import type { DataSource, EntityManager } from 'typeorm';
 import { recordAudit, verifyAuditChain } from '../audit/audit';
-import { now } from '../clock';
+import { atMoment, now } from '../clock';
 import { attachment, downloadName } from '../comparisons/csv';
 import { currentReportJson, findComparison } from '../comparisons/service';
 import type { AppContext } from '../context';
+import { isPostgres } from '../db/driver';
 import { DecisionPack, type User } from '../db/entities/index';
+import { inTransaction, insideUnitOfWork } from '../db/transaction';
 import { comparisonAuditEvents, presentAuditEvent } from '../governance/audit-trail';
 import { getGovernance } from '../governance/service';
 import { listNotes } from '../notes/service';
-import { renderPackPdf } from './pdf';
 import { renderPackOffThread } from './render-thread';
-import type { PackInput } from './sections';
+import { packSections, type PackInput } from './sections';
 import { buildWorkbook } from './workbook';
 
 /**
@@ -57,21 +59,22 @@ export function sha256Hex(bytes: Uint8Array): string {
 }
 
 /**
- * Inside the decision's transaction, after the decision and its state change are written: makes
- * the pack as decided, stores it with the decision and records its SHA-256 in the audit trail.
+ * Inside the decision's transaction, after the decision and its state change are written: stores
+ * the pack as decided (laid out by decideWithPack below) with the decision and records its SHA-256
+ * in the audit trail.
  */
-export async function archiveDecisionPack(manager: EntityManager, input: { comparisonId: number; decisionId: number; actor: User }): Promise<DecisionPack> {
-  const pack = await renderPackPdf(await packInput(manager, input.comparisonId, { generatedFor: input.actor.name, archived: true }));
-  const sha256 = sha256Hex(pack);
+export async function storeDecisionPack(manager: EntityManager, input: { comparisonId: number; decisionId: number; actor: User; pdf: Buffer }): Promise<DecisionPack> {
+  const { pdf } = input;
+  const sha256 = sha256Hex(pdf);
   const repository = manager.getRepository(DecisionPack);
   const stored = await repository.save(
-    repository.create({ decisionId: input.decisionId, comparisonId: input.comparisonId, sha256, bytes: pack.length, pdf: pack, createdAt: now() }),
+    repository.create({ decisionId: input.decisionId, comparisonId: input.comparisonId, sha256, bytes: pdf.length, pdf, createdAt: now() }),
   );
   await recordAudit(manager, {
     actor: input.actor,
     action: 'comparison.pack_archived',
     target: { type: 'comparison', id: input.comparisonId },
-    details: { decisionId: input.decisionId, sha256, bytes: pack.length, format: 'application/pdf' },
+    details: { decisionId: input.decisionId, sha256, bytes: pdf.length, format: 'application/pdf' },
   });
   return stored;
 }
@@ -101,4 +104,94 @@ export async function sendWorkbook(ctx: AppContext, comparisonId: number, res: R
   res.setHeader('Content-Type', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet');
   attachment(res, downloadName(comparison, 'workbook.xlsx'));
   res.send(bytes);
+}
+
+/**
+ * A decision and the committee pack archived with it are stored in one transaction: both, or
+ * neither. The pack shows the decision as stored (its record, the comparison decided, the audit
+ * trail with the decision's event), so it is made from what the decision's transaction wrote;
+ * but laying out the PDF takes seconds, and the transaction holds the database's write lock.
+ * So the decision is written twice at one moment (clock.ts `atMoment`):
+ *
+ * 1. a rehearsal: the decision is written, the pack's input read, and the transaction rolled back
+ *    (milliseconds under the lock);
+ * 2. the PDF is laid out from that input on a pack thread, with no lock held;
+ * 3. the decision is written again, for good, and the pack's input read again: when the pack
+ *    would print the same (nothing it shows changed in between), the PDF is stored with the
+ *    decision in this transaction.
+ *
+ * If the record moved in between (another event in the audit chain, a note, a vote), step 3 rolls
+ * back and the decision is written once more at the current time with the pack laid out inside
+ * that transaction, as before: slower, never wrong. On PostgreSQL a rehearsal's ids are not given
+ * back (sequences do not roll back), so the decision's audit event would always differ: there the
+ * decision is written once with the pack laid out inside its transaction. A decision whose checks
+ * fail fails in the rehearsal, before any layout.
+ *
+ * `decide` writes the decision and calls `archive(decisionId)` where the pack belongs among its
+ * writes (right after the decision's own audit event); it may run up to three times.
+ */
+export type DecideWithPack = (manager: EntityManager, archive: (decisionId: number) => Promise<void>) => Promise<void>;
+
+class Rehearsed extends Error {
+  constructor(readonly input: PackInput) {
+    super('rehearsal of a decision (rolled back on purpose)');
+  }
+}
+
+class RecordMoved extends Error {
+  constructor() {
+    super('the record changed while the decision pack was laid out');
+  }
+}
+
+/** What the PDF prints: every section's blocks, the footer's comparison and the date in its metadata. */
+function printed(input: PackInput): unknown {
+  return { sections: packSections.map((section) => section(input)), id: input.comparison.id, name: input.comparison.name, at: input.generatedAt.getTime() };
+}
+
+export async function decideWithPack(ctx: Pick<AppContext, 'dataSource' | 'log'>, comparisonId: number, actor: User, decide: DecideWithPack): Promise<void> {
+  const options = { generatedFor: actor.name, archived: true };
+  const laidOutInside = () =>
+    inTransaction(ctx.dataSource, (manager) =>
+      decide(manager, async (decisionId) => {
+        const pdf = await renderPackOffThread(await packInput(manager, comparisonId, options));
+        await storeDecisionPack(manager, { comparisonId, decisionId, actor, pdf });
+      }),
+    );
+  // Inside a caller's transaction a rehearsal could not be rolled back alone; on PostgreSQL it
+  // could never be used (its ids are not given back), so the pack is laid out inside at once.
+  if (insideUnitOfWork(ctx.dataSource) || isPostgres(ctx.dataSource)) return laidOutInside();
+
+  const moment = now();
+  let rehearsal: PackInput | null = null;
+  try {
+    await atMoment(moment, () =>
+      inTransaction(ctx.dataSource, async (manager) => {
+        await decide(manager, async () => {
+          throw new Rehearsed(await packInput(manager, comparisonId, options));
+        });
+        throw new Error('a decision was written without archiving its pack');
+      }),
+    );
+  } catch (error) {
+    if (!(error instanceof Rehearsed)) throw error;
+    rehearsal = error.input;
+  }
+  if (!rehearsal) throw new Error('the rehearsal of a decision ended without its pack');
+  const pdf = await renderPackOffThread(rehearsal);
+  const expected = printed(rehearsal);
+  try {
+    await atMoment(moment, () =>
+      inTransaction(ctx.dataSource, (manager) =>
+        decide(manager, async (decisionId) => {
+          if (!isDeepStrictEqual(printed(await packInput(manager, comparisonId, options)), expected)) throw new RecordMoved();
+          await storeDecisionPack(manager, { comparisonId, decisionId, actor, pdf });
+        }),
+      ),
+    );
+  } catch (error) {
+    if (!(error instanceof RecordMoved)) throw error;
+    ctx.log.info('decision pack laid out again inside the transaction: the record changed meanwhile', { comparisonId });
+    await laidOutInside();
+  }
 }

@@ -1,5 +1,11 @@
 import ExcelJS from 'exceljs';
 import { type BandTable, type Report, swapInRiskier } from '@shared/report';
+import { fileWithSheet } from '@shared/input-file';
+import { formatFixed } from '@shared/format';
+import { calibrationSheet, stabilitySheet } from './calibration-sheets';
+import { bandsOf } from '@shared/challenger-sections';
+import { challengerSegmentsSheet, challengersSheet } from './challengers-sheets';
+import { col, type Column, F, facts, type Field, intervalRows, writeFields, writeTable } from './workbook-tables';
 
 /**
  * The committee workbook (.xlsx, exceljs): one sheet each for the summary, both band tables, the
@@ -13,72 +19,11 @@ import { type BandTable, type Report, swapInRiskier } from '@shared/report';
  * A new sheet is one more function in `sheets`.
  */
 
-type Value = string | number | null;
-
-interface Column {
-  header: string;
-  /** Excel number format for numbers in this column. */
-  format?: string;
-  width?: number;
-}
-
-const F = {
-  count: '#,##0',
-  rate: '0.00%',
-  share: '0.0%',
-  metric: '0.0000',
-  p: '0.0000E+00',
-  score: '#,##0.####',
-  number: '#,##0.00',
-} as const;
-
-function cell(value: unknown): string | number | null {
-  if (value === null || value === undefined) return null;
-  if (typeof value === 'number') return Number.isFinite(value) ? value : null;
-  return String(value);
-}
-
-function writeTable(sheet: ExcelJS.Worksheet, title: string, columns: Column[], rows: Value[][]): void {
-  if (sheet.rowCount > 0) sheet.addRow([]);
-  const titleRow = sheet.addRow([title]);
-  titleRow.font = { bold: true };
-  const head = sheet.addRow(columns.map((column) => column.header));
-  head.font = { bold: true };
-  head.eachCell((c) => {
-    c.fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FFEEECE6' } };
-  });
-  for (const values of rows) {
-    const row = sheet.addRow(values.map(cell));
-    values.forEach((value, index) => {
-      const format = columns[index]?.format;
-      if (typeof value === 'number' && format) row.getCell(index + 1).numFmt = format;
-    });
-  }
-  columns.forEach((column, index) => {
-    const current = sheet.getColumn(index + 1);
-    current.width = Math.max(current.width ?? 0, column.width ?? Math.min(60, Math.max(10, column.header.length + 2)));
-  });
-}
-
-function facts(sheet: ExcelJS.Worksheet, title: string, rows: [string, Value, string?][]): void {
-  writeTable(
-    sheet,
-    title,
-    [{ header: 'Item', width: 34 }, { header: 'Value', width: 24 }],
-    rows.map(([label, value]) => [label, value]),
-  );
-  // Per-row formats (a facts table mixes counts, rates and metrics).
-  const first = sheet.rowCount - rows.length + 1;
-  rows.forEach(([, value, format], index) => {
-    if (typeof value === 'number' && format) sheet.getRow(first + index).getCell(2).numFmt = format;
-  });
-}
-
 function summary(workbook: ExcelJS.Workbook, report: Report, comparison: { id: number; name: string }): void {
   const sheet = workbook.addWorksheet('Summary');
   const { champion, challenger, difference, verdict } = report;
   facts(sheet, `Comparison ${comparison.id}: ${comparison.name}`, [
-    ['File', report.input.fileName],
+    ['File', fileWithSheet(report.input)],
     ['SHA-256', report.input.sha256],
     ['Engine version', report.engineVersion],
     ['Rows used', report.rows, F.count],
@@ -98,16 +43,12 @@ function summary(workbook: ExcelJS.Workbook, report: Report, comparison: { id: n
     [{ header: 'Metric', width: 34 }, { header: 'Champion', format: F.metric, width: 14 }, { header: 'Challenger', format: F.metric, width: 14 }, { header: 'Challenger − champion', format: F.metric, width: 22 }],
     [
       ['AUC', champion.auc, challenger.auc, difference.auc],
-      ['AUC interval, low', champion.aucCi?.[0] ?? null, challenger.aucCi?.[0] ?? null, difference.aucCi?.[0] ?? null],
-      ['AUC interval, high', champion.aucCi?.[1] ?? null, challenger.aucCi?.[1] ?? null, difference.aucCi?.[1] ?? null],
+      ...intervalRows('AUC interval', [champion.aucCi, challenger.aucCi, difference.aucCi]),
       ['Gini', champion.gini, challenger.gini, difference.gini],
-      ['Gini interval, low', champion.giniCi?.[0] ?? null, challenger.giniCi?.[0] ?? null, difference.giniCi?.[0] ?? null],
-      ['Gini interval, high', champion.giniCi?.[1] ?? null, challenger.giniCi?.[1] ?? null, difference.giniCi?.[1] ?? null],
-      ['ΔGini bootstrap interval, low', null, null, difference.giniBootstrapCi?.[0] ?? null],
-      ['ΔGini bootstrap interval, high', null, null, difference.giniBootstrapCi?.[1] ?? null],
+      ...intervalRows('Gini interval', [champion.giniCi, challenger.giniCi, difference.giniCi]),
+      ...intervalRows('ΔGini bootstrap interval', [null, null, difference.giniBootstrapCi]),
       ['KS', champion.ks, challenger.ks, difference.ks],
-      ['KS interval, low', champion.ksCi?.[0] ?? null, challenger.ksCi?.[0] ?? null, difference.ksCi?.[0] ?? null],
-      ['KS interval, high', champion.ksCi?.[1] ?? null, challenger.ksCi?.[1] ?? null, difference.ksCi?.[1] ?? null],
+      ...intervalRows('KS interval', [champion.ksCi, challenger.ksCi, difference.ksCi]),
     ],
   );
   writeTable(
@@ -129,24 +70,29 @@ function summary(workbook: ExcelJS.Workbook, report: Report, comparison: { id: n
 
 function bandSheet(workbook: ExcelJS.Workbook, name: string, table: BandTable): void {
   const sheet = workbook.addWorksheet(name);
-  writeTable(
+  writeFields<BandTable['rows'][number]>(
     sheet,
-    `${name} (band 1 is the riskiest; trapezoid Gini ${table.giniTrapezoid.toFixed(4)})`,
+    `${name} (band 1 is the riskiest; trapezoid Gini ${formatFixed(table.giniTrapezoid, 4)})`,
     [
-      { header: 'Band' },
-      { header: 'Score from', format: F.score },
-      { header: 'Score to', format: F.score },
-      { header: 'Accounts', format: F.count },
-      { header: 'Goods', format: F.count },
-      { header: 'Bads', format: F.count },
-      { header: 'Bad rate', format: F.rate },
-      { header: 'Cumulative share of bads', format: F.share, width: 24 },
-      { header: 'Cumulative share of goods', format: F.share, width: 24 },
-      { header: 'KS', format: F.metric },
-      { header: 'Odds (good:bad)', format: F.number, width: 16 },
+      col.text('Band', (row) => row.band),
+      col.score('Score from', (row) => row.scoreMin),
+      col.score('Score to', (row) => row.scoreMax),
+      col.count('Accounts', (row) => row.count),
+      col.count('Goods', (row) => row.goods),
+      col.count('Bads', (row) => row.bads),
+      col.rate('Bad rate', (row) => row.badRate),
+      col.share('Cumulative share of bads', (row) => row.cumBadShare, 24),
+      col.share('Cumulative share of goods', (row) => row.cumGoodShare, 24),
+      col.metric('KS', (row) => row.ks),
+      col.number('Odds (good:bad)', (row) => row.odds, 16),
     ],
-    table.rows.map((row) => [row.band, row.scoreMin, row.scoreMax, row.count, row.goods, row.bads, row.badRate, row.cumBadShare, row.cumGoodShare, row.ks, row.odds]),
+    table.rows,
   );
+}
+
+/** The first two columns of a table by segment value: the segment column and its value. */
+function segmentValue<Row extends { column: string; value: string }>(): Field<Row>[] {
+  return [col.text('Segment column', (row) => row.column, 18), col.text('Value', (row) => row.value, 18)];
 }
 
 function swapSheet(workbook: ExcelJS.Workbook, report: Report): void {
@@ -167,115 +113,88 @@ function swapSheet(workbook: ExcelJS.Workbook, report: Report): void {
     ['Swap-out (champion accepts, challenger declines)', swap.swapOut],
     ['Both decline', swap.bothReject],
   ] as const;
-  writeTable(
+  writeFields<(typeof cells)[number]>(
     sheet,
     'Swap cells',
     [
-      { header: 'Cell', width: 34 },
-      { header: 'Accounts', format: F.count },
-      { header: 'Share', format: F.share },
-      { header: 'Bads', format: F.count },
-      { header: 'Bad rate', format: F.rate },
-      { header: 'Interval, low', format: F.rate },
-      { header: 'Interval, high', format: F.rate },
-      { header: 'Amount', format: F.count },
+      col.text('Cell', ([label]) => label, 34),
+      col.count('Accounts', ([, c]) => c.count),
+      col.share('Share', ([, c]) => c.share),
+      col.count('Bads', ([, c]) => c.bads),
+      col.rate('Bad rate', ([, c]) => c.badRate),
+      ...col.interval<(typeof cells)[number]>('Interval', F.rate, ([, c]) => c.badRateCi),
+      col.count('Amount', ([, c]) => c.amount),
     ],
-    cells.map(([label, c]) => [label, c.count, c.share, c.bads, c.badRate, c.badRateCi?.[0] ?? null, c.badRateCi?.[1] ?? null, c.amount]),
+    cells,
   );
-  writeTable(
+  writeFields<Report['swap']['bySegment'][number]>(
     sheet,
     'Swap sets by segment',
     [
-      { header: 'Segment column', width: 18 },
-      { header: 'Value', width: 18 },
-      { header: 'Accounts', format: F.count },
-      { header: 'Bads', format: F.count },
-      { header: 'Champion approval rate', format: F.share, width: 22 },
-      { header: 'Challenger approval rate', format: F.share, width: 22 },
-      { header: 'Champion approved bad rate', format: F.rate, width: 24 },
-      { header: 'Challenger approved bad rate', format: F.rate, width: 24 },
-      { header: 'Swap-in', format: F.count },
-      { header: 'Swap-in bad rate', format: F.rate, width: 16 },
-      { header: 'Swap-out', format: F.count },
-      { header: 'Swap-out bad rate', format: F.rate, width: 16 },
-      { header: 'Flag', width: 18 },
+      ...segmentValue(),
+      col.count('Accounts', (row) => row.accounts),
+      col.count('Bads', (row) => row.bads),
+      col.share('Champion approval rate', (row) => row.champion.approvalRate, 22),
+      col.share('Challenger approval rate', (row) => row.challenger.approvalRate, 22),
+      col.rate('Champion approved bad rate', (row) => row.champion.approvedBadRate, 24),
+      col.rate('Challenger approved bad rate', (row) => row.challenger.approvedBadRate, 24),
+      col.count('Swap-in', (row) => row.swapIn.count),
+      col.rate('Swap-in bad rate', (row) => row.swapIn.badRate, 16),
+      col.count('Swap-out', (row) => row.swapOut.count),
+      col.rate('Swap-out bad rate', (row) => row.swapOut.badRate, 16),
+      col.text('Flag', (row) => (swapInRiskier(row) ? 'swap-in riskier' : ''), 18),
     ],
-    swap.bySegment.map((row) => [
-      row.column,
-      row.value,
-      row.accounts,
-      row.bads,
-      row.champion.approvalRate,
-      row.challenger.approvalRate,
-      row.champion.approvedBadRate,
-      row.challenger.approvedBadRate,
-      row.swapIn.count,
-      row.swapIn.badRate,
-      row.swapOut.count,
-      row.swapOut.badRate,
-      swapInRiskier(row) ? 'swap-in riskier' : '',
-    ]),
+    swap.bySegment,
   );
 }
 
 function segmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
   const sheet = workbook.addWorksheet('Segments');
-  writeTable(
+  writeFields<Report['segments'][number]>(
     sheet,
     'ΔGini per segment value (fractions), DeLong p and Holm-adjusted p',
     [
-      { header: 'Segment column', width: 18 },
-      { header: 'Value', width: 18 },
-      { header: 'Accounts', format: F.count },
-      { header: 'Goods', format: F.count },
-      { header: 'Bads', format: F.count },
-      { header: 'Champion Gini', format: F.metric, width: 15 },
-      { header: 'Challenger Gini', format: F.metric, width: 15 },
-      { header: 'ΔGini', format: F.metric },
-      { header: 'se(ΔGini)', format: F.metric },
-      { header: 'p', format: F.p },
-      { header: 'Holm p', format: F.p },
-      { header: 'Few bads' },
-      { header: 'Note', width: 40 },
+      ...segmentValue(),
+      col.count('Accounts', (row) => row.n),
+      col.count('Goods', (row) => row.goods),
+      col.count('Bads', (row) => row.bads),
+      col.metric('Champion Gini', (row) => row.championGini, 15),
+      col.metric('Challenger Gini', (row) => row.challengerGini, 15),
+      col.metric('ΔGini', (row) => row.deltaGini),
+      col.metric('se(ΔGini)', (row) => row.giniSe),
+      col.p('p', (row) => row.p),
+      col.p('Holm p', (row) => row.pHolm),
+      col.yesNo('Few bads', (row) => row.tooFewBads),
+      col.text('Note', (row) => row.note, 40),
     ],
-    report.segments.map((row) => [row.column, row.value, row.n, row.goods, row.bads, row.championGini, row.challengerGini, row.deltaGini, row.giniSe, row.p, row.pHolm, row.tooFewBads ? 'yes' : 'no', row.note]),
+    report.segments,
   );
 }
 
 function strategySheet(workbook: ExcelJS.Workbook, report: Report): void {
   const sheet = workbook.addWorksheet('Strategy curve');
-  writeTable(
+  type Point = Report['strategyCurve']['points'][number];
+  const model = (name: string, key: 'champion' | 'challenger'): Field<Point>[] => [
+    col.score(`${name} cut-off`, (p) => p[key].cutoff, 16),
+    col.share(`${name} achieved rate`, (p) => p[key].achievedApprovalRate, 22),
+    col.rate(`${name} bad rate`, (p) => p[key].portfolioBadRate, 18),
+    col.rate(`${name} marginal bad rate`, (p) => p[key].marginalBadRate, 24),
+  ];
+  writeFields<Point>(
     sheet,
     'Bad rate of the approved book at each approval rate',
-    [
-      { header: 'Approval rate', format: F.share, width: 14 },
-      { header: 'Champion cut-off', format: F.score, width: 16 },
-      { header: 'Champion achieved rate', format: F.share, width: 22 },
-      { header: 'Champion bad rate', format: F.rate, width: 18 },
-      { header: 'Champion marginal bad rate', format: F.rate, width: 24 },
-      { header: 'Challenger cut-off', format: F.score, width: 16 },
-      { header: 'Challenger achieved rate', format: F.share, width: 22 },
-      { header: 'Challenger bad rate', format: F.rate, width: 18 },
-      { header: 'Challenger marginal bad rate', format: F.rate, width: 24 },
-    ],
-    report.strategyCurve.points.map((p) => [
-      p.approvalRate,
-      p.champion.cutoff,
-      p.champion.achievedApprovalRate,
-      p.champion.portfolioBadRate,
-      p.champion.marginalBadRate,
-      p.challenger.cutoff,
-      p.challenger.achievedApprovalRate,
-      p.challenger.portfolioBadRate,
-      p.challenger.marginalBadRate,
-    ]),
+    [col.share('Approval rate', (p) => p.approvalRate, 14), ...model('Champion', 'champion'), ...model('Challenger', 'challenger')],
+    report.strategyCurve.points,
   );
   const at = report.strategyCurve.atApprovalRate;
   facts(sheet, 'At the report’s approval rate', [
     ['Approval rate', at.approvalRate, F.share],
+    ['Accounts approved by each book (the champion’s at its cut-off)', at.accounts, F.count],
     ['Champion approved bads', at.championBads, F.count],
-    ['Challenger approved bads', at.challengerBads, F.count],
-    ['Bads avoided', at.badsAvoided, F.count],
+    ['Challenger bads in a book of that size (tie block in proportion)', at.challengerBads, F.count],
+    ['Bads avoided at equal approval', at.badsAvoided, F.count],
+    ['Challenger accounts at its own cut-off', at.challengerAtCutoff.accounts, F.count],
+    ['Challenger bads at its own cut-off', at.challengerAtCutoff.bads, F.count],
     ['More approvals at the champion’s bad rate', at.approvalsGainedAtEqualBadRate, F.count],
   ]);
 }
@@ -311,26 +230,45 @@ function qualitySheet(workbook: ExcelJS.Workbook, report: Report): void {
     ['Score correlation (Pearson)', quality.scoreCorrelation.pearson, F.metric],
     ['Score correlation (Spearman)', quality.scoreCorrelation.spearman, F.metric],
   ]);
-  writeTable(
+  writeFields<'champion' | 'challenger'>(
     sheet,
     'Scores as given',
-    [{ header: 'Model', width: 34 }, { header: 'Lowest', format: F.score }, { header: 'Highest', format: F.score }, { header: 'Mean', format: F.number }, { header: 'Distinct values', format: F.count, width: 15 }],
-    (['champion', 'challenger'] as const).map((key) => [key, quality[key].min, quality[key].max, quality[key].mean, quality[key].distinct]),
+    [
+      col.text('Model', (key) => key, 34),
+      col.score('Lowest', (key) => quality[key].min),
+      col.score('Highest', (key) => quality[key].max),
+      col.number('Mean', (key) => quality[key].mean),
+      col.count('Distinct values', (key) => quality[key].distinct, 15),
+    ],
+    ['champion', 'challenger'] as const,
   );
   writeTable(sheet, 'Empty cells by column', [{ header: 'Column', width: 34 }, { header: 'Empty cells', format: F.count }], Object.entries(quality.missingByColumn));
   writeTable(sheet, 'Warnings', [{ header: 'Warning', width: 100 }], quality.warnings.map((warning) => [warning]));
 }
 
+/** Several challengers: the band table of each challenger after the first (none with one challenger). */
+function moreChallengerBands(workbook: ExcelJS.Workbook, report: Report): void {
+  (report.challengers ?? []).forEach((_, index) => {
+    const table = bandsOf(report, index);
+    if (index > 0 && table) bandSheet(workbook, `Challenger ${index + 1} bands`, table);
+  });
+}
+
 /** The workbook's sheets in order; a new sheet is added here. */
 const sheets: ((workbook: ExcelJS.Workbook, report: Report, comparison: { id: number; name: string }) => void)[] = [
   summary,
+  challengersSheet,
   (workbook, report) => bandSheet(workbook, 'Champion bands', report.bands.champion),
   (workbook, report) => bandSheet(workbook, 'Challenger bands', report.bands.challenger),
+  moreChallengerBands,
   swapSheet,
   segmentsSheet,
+  challengerSegmentsSheet,
   strategySheet,
   matrixSheet,
   qualitySheet,
+  calibrationSheet,
+  stabilitySheet,
 ];
 
 export async function buildWorkbook(report: Report, comparison: { id: number; name: string }): Promise<Buffer> {

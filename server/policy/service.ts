@@ -5,7 +5,8 @@ import { recordAudit } from '../audit/audit';
 import type { AppContext } from '../context';
 import { PolicyVersion, type StoredPolicy, type User } from '../db/entities/index';
 import { inTransaction } from '../db/transaction';
-import { iso, personRef } from '../governance/people';
+import { iso } from '@shared/format';
+import { personRef } from '../users/present';
 import { now } from '../clock';
 
 /**

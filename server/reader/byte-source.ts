@@ -1,3 +1,4 @@
+import { isAscii } from 'node:buffer';
 import { createHash } from 'node:crypto';
 import { createReadStream, statSync } from 'node:fs';
 import { basename } from 'node:path';
@@ -19,6 +20,8 @@ export interface SourceInfo {
   bytes: number;
   /** Hex SHA-256 of the bytes, filled in when the stream has been read to the end. */
   sha256: string;
+  /** The worksheet read, for an .xlsx workbook (set once the workbook is open); absent for CSV. */
+  sheet?: string;
 }
 
 const CHUNK = 1 << 18;
@@ -33,6 +36,9 @@ export async function* textChunks(source: HoldoutSource, info: SourceInfo, onByt
   const decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
   let read = 0;
   let first = true;
+  // While every chunk has been ASCII (UTF-8 as it is, no BOM) the decoder has been fed nothing:
+  // a chunk of ASCII is then its own text, copied as Latin-1 bytes (much faster than decoding).
+  let asciiSoFar = true;
   const decode = (chunk: Uint8Array, last: boolean): string => {
     if (first && chunk.length > 0) {
       first = false;
@@ -46,13 +52,17 @@ export async function* textChunks(source: HoldoutSource, info: SourceInfo, onByt
       if (utf16) throw new HoldoutInputError('not_utf8', `the file is UTF-16 text (${utf16}), not UTF-8: save it as CSV in UTF-8`);
     }
     let text: string;
-    try {
-      text = decoder.decode(chunk, { stream: !last });
-    } catch {
-      throw new HoldoutInputError(
-        'not_utf8',
-        `the file is not UTF-8 text (invalid bytes within the first ${formatCount(read + chunk.length)} bytes): save it as CSV in UTF-8`,
-      );
+    if (asciiSoFar && isAscii(chunk)) text = Buffer.from(chunk.buffer, chunk.byteOffset, chunk.byteLength).toString('latin1');
+    else {
+      asciiSoFar = false;
+      try {
+        text = decoder.decode(chunk, { stream: !last });
+      } catch {
+        throw new HoldoutInputError(
+          'not_utf8',
+          `the file is not UTF-8 text (invalid bytes within the first ${formatCount(read + chunk.length)} bytes): save it as CSV in UTF-8`,
+        );
+      }
     }
     if (text.indexOf('\0') !== -1) {
       throw new HoldoutInputError('binary_file', 'the file contains NUL bytes: it is binary, not CSV text');

@@ -43,6 +43,18 @@ export class HoldoutInputError extends Error {
     super(message);
   }
 
+  /**
+   * The same problem in a workbook's sheet, named first: `sheet "Holdout", row 12, column "x": …`
+   * (or `sheet "Holdout": …` for a problem that is not one row's). Named once: a message that
+   * already names the sheet is kept.
+   */
+  inSheet(sheet: string): HoldoutInputError {
+    const name = `sheet ${columnName(sheet)}`;
+    if (this.message.startsWith(name)) return this;
+    const joined = /^(row|column) /.test(this.message) ? `${name}, ${this.message}` : `${name}: ${this.message}`;
+    return new HoldoutInputError(this.code, joined, this.row, this.column);
+  }
+
   /** The shape of shared/comparisons.ts `rowErrorSchema`. */
   toRowError(): { row: number | null; column: string | null; message: string } {
     return { row: this.row, column: this.column, message: this.message };

@@ -1,6 +1,6 @@
 import type { ColumnMapping } from '@shared/report';
 import { type HoldoutSource, sourceInfo } from './byte-source';
-import { readCsv } from './csv-records';
+import { inSheetOf, readRecords } from './records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
 import { MISSING, parseNumber } from './values';
 
@@ -33,7 +33,8 @@ export async function loadReference(source: HoldoutSource, mapping: ColumnMappin
   let newline: '\n' | '\r\n' | '\r' = '\n';
   let rowsRead = 0;
   let dropped = 0;
-  await readCsv(source, info, {
+  // A workbook is read like the holdout (its sheet, named in every problem).
+  await inSheetOf(info, () => readRecords(source, info, {
     onHeader(found) {
       width = found.header.length;
       decimalComma = found.delimiter === ';';
@@ -72,7 +73,7 @@ export async function loadReference(source: HoldoutSource, mapping: ColumnMappin
         }
       }
     },
-  });
+  }));
   if (columns[0].length === 0) throw new HoldoutInputError('no_rows', `reference sample ${info.fileName} has no rows with both scores`);
   return {
     fileName: info.fileName,

@@ -1,11 +1,11 @@
 import type { ValidationReport } from '@shared/comparisons';
-import { type ColumnMapping, maxAmountMagnitude } from '@shared/report';
+import { challengersOf, type ColumnMapping, mappingModelProblems, maxAmountMagnitude } from '@shared/report';
 import type { Holdout, SegmentColumn } from '@server/stats/holdout';
-import { type HoldoutSource, sourceInfo } from './byte-source';
-import { type CsvLayout } from './csv-records';
-import { readRecords } from './records';
+import { type HoldoutSource, type SourceInfo, sourceInfo } from './byte-source';
+import { type CsvLayout, type Delimiter, splitLine } from './csv-records';
+import { inSheetOf, namedIn, readRecords } from './records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
-import { detach, INVALID, isMissing, MISSING, parseNumber, trimCell } from './values';
+import { detach, INVALID, isMissing, MISSING, parseNumber, plainDecimal, trimCell } from './values';
 import { formatCount } from '@shared/format';
 
 /**
@@ -28,6 +28,11 @@ import { formatCount } from '@shared/format';
 
 export interface LoadOptions {
   dropMissing?: boolean;
+  /**
+   * false: every row through the general path (cells cut out, then checked), the reference the
+   * tests hold the plain rows to; default true (lines without quotes read straight from the text).
+   */
+  plainRows?: boolean;
   /** Every unknown row must carry the mapped inferred-bad column (default true: mapping it is using it). */
   requireInferred?: boolean;
   /** Fraction of the file's bytes read so far, 0 to 1. */
@@ -55,37 +60,50 @@ export interface ReadSummary {
 
 export interface LoadedHoldout {
   holdout: Holdout;
-  input: { fileName: string; sha256: string; bytes: number };
+  /** `sheet`: the worksheet read, for a workbook. */
+  input: { fileName: string; sha256: string; bytes: number; sheet?: string };
   read: ReadSummary;
 }
 
-/** A Float64Array that grows by doubling. */
+/**
+ * Columns that grow by doubling, or at once to the size the reader expects once it has seen some
+ * rows (reserve). finish() hands over the array itself when it is full or nearly so (a view of
+ * its first `length` values), else a copy of that length. Two classes, so that each push site
+ * sees one kind of array.
+ */
 class Float64Column {
   data = new Float64Array(1 << 16);
   length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length) return;
+    const next = new Float64Array(capacity);
+    next.set(this.data.subarray(0, this.length));
+    this.data = next;
+  }
   push(value: number): void {
-    if (this.length === this.data.length) {
-      const next = new Float64Array(this.data.length * 2);
-      next.set(this.data);
-      this.data = next;
-    }
+    if (this.length === this.data.length) this.reserve(this.data.length * 2);
     this.data[this.length++] = value;
   }
   finish(): Float64Array {
-    return this.data.slice(0, this.length);
+    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
   }
 }
 
 class Uint32Column {
   data = new Uint32Array(1 << 16);
   length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length) return;
+    const next = new Uint32Array(capacity);
+    next.set(this.data.subarray(0, this.length));
+    this.data = next;
+  }
   push(value: number): void {
-    if (this.length === this.data.length) {
-      const next = new Uint32Array(this.data.length * 2);
-      next.set(this.data);
-      this.data = next;
-    }
+    if (this.length === this.data.length) this.reserve(this.data.length * 2);
     this.data[this.length++] = value;
+  }
+  finish(): Uint32Array {
+    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
   }
 }
 
@@ -107,7 +125,14 @@ interface PassResult {
   errors: HoldoutInputError[];
 }
 
+/** One reading of the file with the mapping; a workbook's problems name their sheet (records.ts). */
 async function pass(source: HoldoutSource, mapping: ColumnMapping, options: LoadOptions, errorLimit: number | null): Promise<PassResult> {
+  const info = sourceInfo(source);
+  const result = await inSheetOf(info, () => passOver(source, info, mapping, options, errorLimit));
+  return { loaded: result.loaded, errors: namedIn(info, result.errors) };
+}
+
+async function passOver(source: HoldoutSource, info: SourceInfo, mapping: ColumnMapping, options: LoadOptions, errorLimit: number | null): Promise<PassResult> {
   const sink = new ErrorSink(errorLimit);
   for (const [role, name] of [
     ['champion', mapping.champion],
@@ -117,6 +142,10 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       throw new HoldoutInputError('same_column', `column ${columnName(name)} is mapped as both the outcome and the ${role}'s score`, null, name);
     }
   }
+  // Several challengers: distinct score columns and names (shared/report.ts), before any reading.
+  const problems = mappingModelProblems(mapping);
+  if (problems.length > 0) throw new HoldoutInputError('same_column', problems[0], null, null);
+  const extras = challengersOf(mapping).slice(1);
   const pdModels = (['champion', 'challenger'] as const).filter((model) => mapping.probabilityOfDefault?.[model] === true);
   for (const model of pdModels) {
     if (mapping.higherIs[model] !== 'riskier') {
@@ -128,7 +157,6 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       );
     }
   }
-  const info = sourceInfo(source);
   const dropMissing = options.dropMissing ?? false;
   // Grade and period columns are read like segment columns and split off at the end.
   const gradeChampion = mapping.grades?.champion ?? null;
@@ -149,7 +177,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     ['weight', weightName],
     ['inferred probability of bad', inferredName],
   ] as const) {
-    if (name !== null && [mapping.outcome, mapping.champion, mapping.challenger].includes(name)) {
+    if (name !== null && [mapping.outcome, mapping.champion, mapping.challenger, ...extras.map((extra) => extra.column)].includes(name)) {
       throw new HoldoutInputError('same_column', `column ${columnName(name)} is mapped both as the ${role} and as the outcome or a score`, null, name);
     }
   }
@@ -164,6 +192,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   let outcomeAt = -1;
   let championAt = -1;
   let challengerAt = -1;
+  let extraAt: number[] = [];
   let idAt = -1;
   let exposureAt = -1;
   let weightAt = -1;
@@ -171,10 +200,14 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   let segmentAt: number[] = [];
   let decimalComma = false;
   let newline: CsvLayout['newline'] = '\n';
+  let delimiter: Delimiter = ',';
+  let wanted: boolean[] = [];
+  let plain: { take(text: string, from: number, to: number): boolean } | null = null;
 
   const bad = new Uint32Column();
   const champion = new Float64Column();
   const challenger = new Float64Column();
+  const extraScores = extras.map(() => new Float64Column());
   const exposure = exposureName === null ? null : new Float64Column();
   const weight = weightName === null ? null : new Float64Column();
   const known = keepUnknown ? new Uint32Column() : null;
@@ -183,9 +216,11 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   let weightTotal = 0;
   const ids: string[] | null = idName === null ? null : [];
   const segmentLevels = segmentNames.map(() => new Map<string, number>());
+  // Each segment column's levels by code (the keys of segmentLevels, for the plain rows).
+  const levelNames = segmentNames.map((): string[] => []);
   const segmentCodes = segmentNames.map(() => new Uint32Column());
   const missingByColumn: Record<string, number> = {};
-  for (const name of [mapping.outcome, mapping.champion, mapping.challenger, idName, exposureName, weightName, inferredName, ...segmentNames]) {
+  for (const name of [mapping.outcome, mapping.champion, mapping.challenger, ...extras.map((extra) => extra.column), idName, exposureName, weightName, inferredName, ...segmentNames]) {
     if (name !== null) missingByColumn[name] = 0;
   }
 
@@ -275,6 +310,96 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     return false;
   };
 
+  /**
+   * The common row read straight from the text of a line without quotes, no cell cut out: the
+   * outcome the bad value or the good value already met, every score, weight and exposure a plain
+   * decimal (values.ts plainDecimal: Number()'s value, bit for bit), the id without surrounding
+   * spaces, each segment a level already met. take() is false for any other row, which then goes
+   * through readRow: both give the same holdout and the same errors, in file order. Not used with
+   * an inferred-bad column (read on unknown rows only).
+   */
+  function plainRows(): { take(text: string, from: number, to: number): boolean } {
+    const starts = new Int32Array(width + 1);
+    const separator = delimiter.charCodeAt(0);
+    const scoreAt = [championAt, challengerAt, ...extraAt];
+    const probability = scoreAt.map((_, k) => (k === 0 && pdModels.includes('champion')) || (k === 1 && pdModels.includes('challenger')));
+    const scores = new Float64Array(scoreAt.length);
+    const codes = new Uint32Array(segmentAt.length);
+    const same = (text: string, from: number, to: number, value: string) => {
+      if (to - from !== value.length) return false;
+      for (let i = 0; i < value.length; i++) if (text.charCodeAt(from + i) !== value.charCodeAt(i)) return false;
+      return true;
+    };
+    /** The code of a level already met, or -1. */
+    const levelCode = (s: number, text: string, from: number, to: number): number => {
+      if (from === to || text.charCodeAt(from) <= 32 || text.charCodeAt(to - 1) <= 32) return -1;
+      const names = levelNames[s];
+      const last = codes[s];
+      if (last < names.length && same(text, from, to, names[last])) return last;
+      if (names.length > 64) return segmentLevels[s].get(text.substring(from, to)) ?? -1;
+      for (let code = 0; code < names.length; code++) if (same(text, from, to, names[code])) return code;
+      return -1;
+    };
+    const take = (text: string, from: number, to: number): boolean => {
+      let field = 0;
+      starts[0] = from;
+      for (let at = from; at < to; at++) {
+        if (text.charCodeAt(at) === separator) {
+          if (++field === width) return false;
+          starts[field] = at + 1;
+        }
+      }
+      if (field !== width - 1) return false;
+      starts[width] = to + 1;
+      const outcomeFrom = starts[outcomeAt];
+      const outcomeTo = starts[outcomeAt + 1] - 1;
+      let outcome: number;
+      if (same(text, outcomeFrom, outcomeTo, badValue)) outcome = 1;
+      else if (goodValue !== null && same(text, outcomeFrom, outcomeTo, goodValue)) outcome = 0;
+      else return false;
+      for (let k = 0; k < scoreAt.length; k++) {
+        const value = plainDecimal(text, starts[scoreAt[k]], starts[scoreAt[k] + 1] - 1);
+        if (value !== value || (probability[k] && !(value >= 0 && value <= 1))) return false;
+        scores[k] = value;
+      }
+      let rowWeight = 1;
+      if (weightAt >= 0) {
+        rowWeight = plainDecimal(text, starts[weightAt], starts[weightAt + 1] - 1);
+        if (!(rowWeight > 0)) return false;
+      }
+      let amount = 0;
+      if (exposureAt >= 0) {
+        amount = plainDecimal(text, starts[exposureAt], starts[exposureAt + 1] - 1);
+        if (amount !== amount) return false;
+      }
+      const idFrom = idAt >= 0 ? starts[idAt] : 0;
+      const idTo = idAt >= 0 ? starts[idAt + 1] - 1 : 0;
+      if (idAt >= 0 && (idFrom === idTo || text.charCodeAt(idFrom) <= 32 || text.charCodeAt(idTo - 1) <= 32)) return false;
+      for (let s = 0; s < segmentAt.length; s++) {
+        const code = levelCode(s, text, starts[segmentAt[s]], starts[segmentAt[s] + 1] - 1);
+        if (code < 0) return false;
+        codes[s] = code;
+      }
+      // Stored as readRow stores a row without problems.
+      rowsRead++;
+      bad.push(outcome);
+      bads += outcome;
+      if (known !== null) known.push(1);
+      if (weight !== null) {
+        weight.push(rowWeight);
+        weightTotal += rowWeight;
+      }
+      champion.push(scores[0]);
+      challenger.push(scores[1]);
+      for (let k = 2; k < scores.length; k++) extraScores[k - 2].push(scores[k]);
+      if (exposure !== null) exposure.push(amount);
+      if (ids !== null) ids.push(detach(text.substring(idFrom, idTo)));
+      for (let s = 0; s < segmentAt.length; s++) segmentCodes[s].push(codes[s]);
+      return true;
+    };
+    return { take };
+  }
+
   // In validation mode a problem that stops the reader (a row too long, a quote never closed) is
   // listed after the problems found before it, in file order, like every other.
   const read = readRecords(source, info, {
@@ -284,174 +409,217 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
       width = header.length;
       decimalComma = found.delimiter === ';';
       newline = found.newline;
+      delimiter = found.delimiter;
       outcomeAt = resolve(header, mapping.outcome);
       championAt = resolve(header, mapping.champion);
       challengerAt = resolve(header, mapping.challenger);
+      extraAt = extras.map((extra) => resolve(header, extra.column));
       if (idName !== null) idAt = resolve(header, idName);
       if (exposureName !== null) exposureAt = resolve(header, exposureName);
       if (weightName !== null) weightAt = resolve(header, weightName);
       if (inferredName !== null) inferredAt = resolve(header, inferredName);
       segmentAt = segmentNames.map((name) => resolve(header, name));
+      // Only these columns' cells are read (the reader need not cut out the others).
+      wanted = header.map(() => false);
+      for (const at of [outcomeAt, championAt, challengerAt, ...extraAt, idAt, exposureAt, weightAt, inferredAt, ...segmentAt]) if (at >= 0) wanted[at] = true;
+      plain = inferredName === null && options.plainRows !== false ? plainRows() : null;
+      return wanted;
     },
     onRows(rows, lines) {
-      for (let r = 0; r < rows.length; r++) {
-        const row = rows[r];
-        if (row.length !== width) {
-          if (row.length === 1 && row[0].trim() === '') continue; // a blank line
-          rowsRead++;
-          const line = lines[r];
-          sink.report(new HoldoutInputError('ragged_row', raggedRowMessage(line, row, width, newline), line));
-          if (sink.full) return;
-          continue;
-        }
-        rowsRead++;
-        const line = lines[r];
-        let ok = true;
-
-        const outcome = outcomeOf(row[outcomeAt], line);
-        if (outcome < 0) ok = false;
-
-        const a = parseNumber(row[championAt], decimalComma);
-        const b = parseNumber(row[challengerAt], decimalComma);
-        let missingScore = false;
-        if (typeof a !== 'number') {
-          if (a === MISSING) missingScore = true;
-          if (!scoreProblem(a, mapping.champion, row[championAt], line)) ok = false;
-        }
-        if (typeof b !== 'number') {
-          if (b === MISSING) missingScore = true;
-          if (!scoreProblem(b, mapping.challenger, row[challengerAt], line)) ok = false;
-        }
-        for (const model of pdModels) {
-          const value = model === 'champion' ? a : b;
-          if (typeof value === 'number' && !(value >= 0 && value <= 1)) {
-            sink.report(
-              new HoldoutInputError(
-                'not_a_probability',
-                `${where(line, mapping[model])}: ${quoteCell(String(value))} is not a probability of default (0 to 1), and the ${model}'s score is marked as one`,
-                line,
-                mapping[model],
-              ),
-            );
-            ok = false;
-          }
-        }
-        if ((outcome < 0 || outcome === UNKNOWN) && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
-
-        let rowWeight = 1;
-        if (weight !== null) {
-          const cell = row[weightAt];
-          const value = parseNumber(cell, decimalComma);
-          if (value === MISSING) {
-            missingByColumn[weightName!]++;
-            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is empty; every row needs a positive weight`, line, weightName!));
-            ok = false;
-          } else if (value === INVALID) {
-            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: ${quoteCell(cell.trim())} is not a number; a weight is a positive number`, line, weightName!));
-            ok = false;
-          } else if (!(value > 0) || !Number.isFinite(value) || value > maxAmountMagnitude) {
-            sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is ${cell.trim()}; a weight must be a positive number, at most 10¹⁵`, line, weightName!));
-            ok = false;
-          } else rowWeight = value;
-        }
-
-        let probability = NaN;
-        if (inferred !== null) {
-          const cell = row[inferredAt];
-          const value = parseNumber(cell, decimalComma);
-          if (value === MISSING) {
-            missingByColumn[inferredName!]++;
-            if (outcome === UNKNOWN && requireInferred) {
-              sink.report(
-                new HoldoutInputError(
-                  'bad_probability',
-                  `${where(line, inferredName!)}: the probability of bad is empty on a row without an outcome; reject inference by column needs it on every such row`,
-                  line,
-                  inferredName!,
-                ),
-              );
-              ok = false;
+      for (let r = 0; r < rows.length; r++) if (!readRow(rows[r], lines[r])) return;
+    },
+    onPlainLines:
+      options.plainRows === false
+        ? undefined
+        : (text, bounds, count, firstLine) => {
+            if (!reserved && count >= 1000) reserve(count, bounds[2 * count - 1] - bounds[0]);
+            for (let i = 0; i < count; i++) {
+              const from = bounds[2 * i];
+              const to = bounds[2 * i + 1];
+              if (plain !== null && !sink.full && plain.take(text, from, to)) continue;
+              if (!readRow(splitLine(text, from, to, delimiter, wanted), firstLine + i)) return;
             }
-          } else if (outcome === UNKNOWN) {
-            if (value === INVALID) {
-              sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${quoteCell(cell.trim())} is not a number; a probability of bad is 0 to 1`, line, inferredName!));
-              ok = false;
-            } else if (!(value >= 0 && value <= 1)) {
-              sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${cell.trim()} is not a probability of bad (0 to 1)`, line, inferredName!));
-              ok = false;
-            } else probability = value;
-          }
-        }
+          },
+  });
 
-        let amount = 0;
-        if (exposure !== null) {
-          const cell = row[exposureAt];
-          const value = parseNumber(cell, decimalComma);
-          if (value === MISSING) {
-            missingByColumn[exposureName!]++;
-            sink.report(new HoldoutInputError('missing_value', `${where(line, exposureName!)}: the exposure is empty`, line, exposureName!));
-            ok = false;
-          } else if (value === INVALID) {
-            sink.report(new HoldoutInputError('not_a_number', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is not a number`, line, exposureName!));
-            ok = false;
-          } else if (Math.abs(value) > maxAmountMagnitude) {
-            sink.report(new HoldoutInputError('amount_too_large', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is too large for an amount (at most 10¹⁵ either way)`, line, exposureName!));
-            ok = false;
-          } else amount = value;
-        }
-        if (sink.full) return;
-        if (!ok) continue;
-        if (missingScore) {
-          // Only reached with dropMissing: the row is left out, the other columns still counted.
-          dropped++;
-          if (idAt >= 0 && isMissing(row[idAt])) missingByColumn[idName!]++;
-          for (let s = 0; s < segmentAt.length; s++) if (isMissing(row[segmentAt[s]])) missingByColumn[segmentNames[s]]++;
-          continue;
-        }
+  /**
+   * Every column sized once for the rows the file should hold, from the length of the lines seen
+   * so far (a little over: the unused end is at most 1/32 of a column, else finish() copies).
+   */
+  let reserved = false;
+  function reserve(lines: number, characters: number): void {
+    reserved = true;
+    const rows = Math.ceil(((info.bytes / Math.max(1, characters)) * lines * 1.015) + 64);
+    if (!(rows > bad.length) || rows > 1e9) return;
+    for (const column of [bad, known, ...segmentCodes]) column?.reserve(rows);
+    for (const column of [champion, challenger, ...extraScores, exposure, weight, inferred]) column?.reserve(rows);
+  }
 
-        if (outcome === UNKNOWN) {
-          bad.push(0);
-          known!.push(0);
-          unknownRows++;
-        } else {
-          bad.push(outcome);
-          bads += outcome;
-          if (known !== null) known.push(1);
+  /** One record as cut by the reader; false once the validation has all the problems it keeps. */
+  function readRow(row: string[], line: number): boolean {
+    if (row.length !== width) {
+      if (row.length === 1 && row[0].trim() === '') return true; // a blank line
+      rowsRead++;
+      sink.report(new HoldoutInputError('ragged_row', raggedRowMessage(line, row, width, newline), line));
+      return !sink.full;
+    }
+    rowsRead++;
+    let ok = true;
+
+    const outcome = outcomeOf(row[outcomeAt], line);
+    if (outcome < 0) ok = false;
+
+    const a = parseNumber(row[championAt], decimalComma);
+    const b = parseNumber(row[challengerAt], decimalComma);
+    let missingScore = false;
+    if (typeof a !== 'number') {
+      if (a === MISSING) missingScore = true;
+      if (!scoreProblem(a, mapping.champion, row[championAt], line)) ok = false;
+    }
+    if (typeof b !== 'number') {
+      if (b === MISSING) missingScore = true;
+      if (!scoreProblem(b, mapping.challenger, row[challengerAt], line)) ok = false;
+    }
+    const extraValues = extraAt.map((at, k) => {
+      const value = parseNumber(row[at], decimalComma);
+      if (typeof value !== 'number') {
+        if (value === MISSING) missingScore = true;
+        if (!scoreProblem(value, extras[k].column, row[at], line)) ok = false;
+      }
+      return value;
+    });
+    for (const model of pdModels) {
+      const value = model === 'champion' ? a : b;
+      if (typeof value === 'number' && !(value >= 0 && value <= 1)) {
+        sink.report(
+          new HoldoutInputError(
+            'not_a_probability',
+            `${where(line, mapping[model])}: ${quoteCell(String(value))} is not a probability of default (0 to 1), and the ${model}'s score is marked as one`,
+            line,
+            mapping[model],
+          ),
+        );
+        ok = false;
+      }
+    }
+    if ((outcome < 0 || outcome === UNKNOWN) && isMissing(row[outcomeAt])) missingByColumn[mapping.outcome]++;
+
+    let rowWeight = 1;
+    if (weight !== null) {
+      const cell = row[weightAt];
+      const value = parseNumber(cell, decimalComma);
+      if (value === MISSING) {
+        missingByColumn[weightName!]++;
+        sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is empty; every row needs a positive weight`, line, weightName!));
+        ok = false;
+      } else if (value === INVALID) {
+        sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: ${quoteCell(cell.trim())} is not a number; a weight is a positive number`, line, weightName!));
+        ok = false;
+      } else if (!(value > 0) || !Number.isFinite(value) || value > maxAmountMagnitude) {
+        sink.report(new HoldoutInputError('bad_weight', `${where(line, weightName!)}: the weight is ${cell.trim()}; a weight must be a positive number, at most 10¹⁵`, line, weightName!));
+        ok = false;
+      } else rowWeight = value;
+    }
+
+    let probability = NaN;
+    if (inferred !== null) {
+      const cell = row[inferredAt];
+      const value = parseNumber(cell, decimalComma);
+      if (value === MISSING) {
+        missingByColumn[inferredName!]++;
+        if (outcome === UNKNOWN && requireInferred) {
+          sink.report(
+            new HoldoutInputError(
+              'bad_probability',
+              `${where(line, inferredName!)}: the probability of bad is empty on a row without an outcome; reject inference by column needs it on every such row`,
+              line,
+              inferredName!,
+            ),
+          );
+          ok = false;
         }
-        if (weight !== null) {
-          weight.push(rowWeight);
-          weightTotal += rowWeight;
+      } else if (outcome === UNKNOWN) {
+        if (value === INVALID) {
+          sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${quoteCell(cell.trim())} is not a number; a probability of bad is 0 to 1`, line, inferredName!));
+          ok = false;
+        } else if (!(value >= 0 && value <= 1)) {
+          sink.report(new HoldoutInputError('bad_probability', `${where(line, inferredName!)}: ${cell.trim()} is not a probability of bad (0 to 1)`, line, inferredName!));
+          ok = false;
+        } else probability = value;
+      }
+    }
+
+    let amount = 0;
+    if (exposure !== null) {
+      const cell = row[exposureAt];
+      const value = parseNumber(cell, decimalComma);
+      if (value === MISSING) {
+        missingByColumn[exposureName!]++;
+        sink.report(new HoldoutInputError('missing_value', `${where(line, exposureName!)}: the exposure is empty`, line, exposureName!));
+        ok = false;
+      } else if (value === INVALID) {
+        sink.report(new HoldoutInputError('not_a_number', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is not a number`, line, exposureName!));
+        ok = false;
+      } else if (Math.abs(value) > maxAmountMagnitude) {
+        sink.report(new HoldoutInputError('amount_too_large', `${where(line, exposureName!)}: ${quoteCell(cell.trim())} is too large for an amount (at most 10¹⁵ either way)`, line, exposureName!));
+        ok = false;
+      } else amount = value;
+    }
+    if (sink.full) return false;
+    if (!ok) return true;
+    if (missingScore) {
+      // Only reached with dropMissing: the row is left out, the other columns still counted.
+      dropped++;
+      if (idAt >= 0 && isMissing(row[idAt])) missingByColumn[idName!]++;
+      for (let s = 0; s < segmentAt.length; s++) if (isMissing(row[segmentAt[s]])) missingByColumn[segmentNames[s]]++;
+      return true;
+    }
+
+    if (outcome === UNKNOWN) {
+      bad.push(0);
+      known!.push(0);
+      unknownRows++;
+    } else {
+      bad.push(outcome);
+      bads += outcome;
+      if (known !== null) known.push(1);
+    }
+    if (weight !== null) {
+      weight.push(rowWeight);
+      weightTotal += rowWeight;
+    }
+    if (inferred !== null) inferred.push(probability);
+    champion.push(a as number);
+    challenger.push(b as number);
+    for (let k = 0; k < extraValues.length; k++) extraScores[k].push(extraValues[k] as number);
+    if (exposure !== null) exposure.push(amount);
+    if (ids !== null) {
+      const id = trimCell(row[idAt]);
+      if (id.length === 0) missingByColumn[idName!]++;
+      ids.push(detach(id));
+    }
+    for (let s = 0; s < segmentAt.length; s++) {
+      const levels = segmentLevels[s];
+      let level = trimCell(row[segmentAt[s]]);
+      // A known level is never a missing token (those are stored as "(blank)").
+      let code = levels.get(level);
+      if (code === undefined) {
+        if (isMissing(level)) {
+          missingByColumn[segmentNames[s]]++;
+          level = '(blank)';
+          code = levels.get(level);
         }
-        if (inferred !== null) inferred.push(probability);
-        champion.push(a as number);
-        challenger.push(b as number);
-        if (exposure !== null) exposure.push(amount);
-        if (ids !== null) {
-          const id = trimCell(row[idAt]);
-          if (id.length === 0) missingByColumn[idName!]++;
-          ids.push(detach(id));
-        }
-        for (let s = 0; s < segmentAt.length; s++) {
-          const levels = segmentLevels[s];
-          let level = trimCell(row[segmentAt[s]]);
-          // A known level is never a missing token (those are stored as "(blank)").
-          let code = levels.get(level);
-          if (code === undefined) {
-            if (isMissing(level)) {
-              missingByColumn[segmentNames[s]]++;
-              level = '(blank)';
-              code = levels.get(level);
-            }
-            if (code === undefined) {
-              code = levels.size;
-              levels.set(detach(level), code);
-            }
-          }
-          segmentCodes[s].push(code);
+        if (code === undefined) {
+          code = levels.size;
+          level = detach(level);
+          levels.set(level, code);
+          levelNames[s].push(level);
         }
       }
-    },
-  });
+      segmentCodes[s].push(code);
+    }
+    return true;
+  }
   let layout: CsvLayout;
   try {
     layout = await read;
@@ -487,7 +655,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   const categorical: SegmentColumn[] = segmentNames.map((column, s) => ({
     column,
     levels: [...segmentLevels[s].keys()],
-    codes: segmentCodes[s].data.slice(0, n),
+    codes: segmentCodes[s].finish(),
   }));
   const segments = categorical.slice(0, (mapping.segments ?? []).length);
   const categoricalColumn = (name: string | null) => (name === null ? null : categorical[segmentNames.indexOf(name)]);
@@ -501,6 +669,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
     ids,
     segments,
   };
+  if (extras.length > 0) holdout.moreChallengers = extras.map((extra, k) => ({ ...extra, scores: extraScores[k].finish() }));
   if (gradeChampion !== null || gradeChallenger !== null) holdout.grades = { champion: categoricalColumn(gradeChampion), challenger: categoricalColumn(gradeChallenger) };
   if (periodName !== null) holdout.period = categoricalColumn(periodName);
   if (weight !== null) holdout.weight = weight.finish();
@@ -513,7 +682,7 @@ async function pass(source: HoldoutSource, mapping: ColumnMapping, options: Load
   return {
     loaded: {
       holdout,
-      input: { fileName: info.fileName, sha256: info.sha256, bytes: info.bytes },
+      input: { fileName: info.fileName, sha256: info.sha256, bytes: info.bytes, ...(info.sheet === undefined ? {} : { sheet: info.sheet }) },
       read: {
         rowsRead,
         rowsUsed: n,

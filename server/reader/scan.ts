@@ -4,7 +4,7 @@ import { auc } from '@server/stats/auc';
 import { scoreBlocks } from '@server/stats/order';
 import { type HoldoutSource, sourceInfo } from './byte-source';
 import { type CsvLayout } from './csv-records';
-import { readRecords } from './records';
+import { inSheetOf, readRecords } from './records';
 import { columnName, HoldoutInputError, raggedRowMessage } from './errors';
 import { boundPreview, PREVIEW_CELL_CHARS } from './preview-bounds';
 import { INVALID, MISSING, parseNumber } from './values';
@@ -49,6 +49,8 @@ export interface HoldoutScan {
   /** Rows whose field count differs from the header's (the first MAX_PROBLEMS); they are left
    * out of the column statistics and the preview. Loading with a mapping reports them again. */
   problems: { row: number; column: string | null; message: string }[];
+  /** The worksheet read, for an .xlsx workbook; null for CSV. */
+  sheet: string | null;
 }
 
 interface ColumnStats {
@@ -63,6 +65,8 @@ interface ColumnStats {
 }
 
 const OUTCOME_NAMES = /^(bad|bads|is_?bad|bad_?flag|default(ed)?|is_?default|target|outcome|label|y|event|flag|delinquent|dpd\d*|bad_?\w*|\w*_bad|\w*default\w*|charge_?off\w*)$/i;
+/** Outcome codes that mean "no outcome" (declined, never booked) in a through-the-door sample. */
+const UNKNOWN_CODES = /^(r|rej|reject(ed)?|decline(d)?|-1|n\/?a|\?|unknown|no[ _-]?outcome|not[ _-]?booked)$/i;
 const CHAMPION_NAMES = /champ|incumbent|current|production|prod_|baseline|old/i;
 const CHALLENGER_NAMES = /chall|candidate|new|proposed|alternative|alt_/i;
 const SCORE_NAMES = /score|points|pd|prob|risk|rating|grade|model/i;
@@ -94,7 +98,7 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
   let newline: CsvLayout['newline'] = '\n';
   const preview: string[][] = [];
 
-  const layout = await readRecords(source, info, {
+  const layout = await inSheetOf(info, () => readRecords(source, info, {
     onBytes: options.onProgress ? (read) => options.onProgress!(info.bytes > 0 ? Math.min(1, read / info.bytes) : 0) : undefined,
     onHeader(found) {
       header = found.header;
@@ -162,8 +166,11 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
         rowCount++;
       }
     },
-  });
-  if (rowCount === 0) throw new HoldoutInputError('no_rows', 'the file has a header but no data rows');
+  }));
+  if (rowCount === 0) {
+    const empty = new HoldoutInputError('no_rows', 'the file has a header but no data rows');
+    throw info.sheet === undefined ? empty : empty.inSheet(info.sheet);
+  }
 
   const columns: ScannedColumn[] = header.map((name, c) => {
     const column = stats[c];
@@ -187,7 +194,8 @@ export async function scanHoldout(source: HoldoutSource, options: { onProgress?:
     columns,
     preview: boundPreview(preview),
     guess,
-    problems,
+    problems: info.sheet === undefined ? problems : problems.map((problem) => ({ ...problem, message: new HoldoutInputError('ragged_row', problem.message, problem.row).inSheet(info.sheet!).message })),
+    sheet: info.sheet ?? null,
   };
 }
 
@@ -218,18 +226,32 @@ function guessMapping(
     const total = top.reduce((sum, [, count]) => sum + count, 0);
     return top.length >= 2 && (top[0][1] + top[1][1]) / total >= 0.99;
   };
+  // A through-the-door sample: an outcome-named column whose values are the two outcomes plus a
+  // code for "no outcome" (R, reject, -1…) on the declined applicants; the codes are proposed as
+  // applicants without an outcome.
+  const coded = (c: number): string[] => frequencies(c).map(([value]) => value).filter((value) => UNKNOWN_CODES.test(value));
+  const twoWithCodes = (c: number): boolean => {
+    const codes = coded(c);
+    if (codes.length === 0) return false;
+    const rest = frequencies(c).filter(([value]) => !codes.includes(value));
+    return rest.length === 2;
+  };
   const twoValued = indices.filter((c) => columns[c].distinct === 2);
   const outcomeAt =
     twoValued.find((c) => OUTCOME_NAMES.test(header[c])) ??
     indices.find((c) => OUTCOME_NAMES.test(header[c]) && columns[c].distinct <= 5 && mostlyTwo(c)) ??
+    indices.find((c) => OUTCOME_NAMES.test(header[c]) && columns[c].distinct <= 5 && twoWithCodes(c)) ??
     twoValued.find((c) => columns[c].kind === 'numeric') ??
     twoValued[0];
   const outcome = pick(outcomeAt);
   let badValue: string | null = null;
   let badSample: Uint8Array | null = null;
+  const unknownValues = outcomeAt !== undefined && !mostlyTwo(outcomeAt) && twoWithCodes(outcomeAt) ? coded(outcomeAt) : [];
   if (outcomeAt !== undefined) {
     const column = stats[outcomeAt];
-    const top = frequencies(outcomeAt).slice(0, 2);
+    const top = frequencies(outcomeAt)
+      .filter(([value]) => !unknownValues.includes(value))
+      .slice(0, 2);
     const values = top.length === 2 ? top.map(([value]) => value) : [...column.distinct].slice(0, 2);
     badValue = badValueOf(values, new Map(top));
     const goodValue = values.find((value) => value !== badValue);
@@ -296,6 +318,7 @@ function guessMapping(
     id,
     segments,
     exposure,
+    ...(unknownValues.length > 0 ? { unknownValues } : {}),
   };
 }
 
@@ -312,6 +335,7 @@ export function mappingFromGuess(guess: MappingGuess): ColumnMapping | null {
     id: guess.id,
     segments: guess.segments,
     exposure: guess.exposure,
+    ...(guess.unknownValues && guess.unknownValues.length > 0 ? { keepUnknown: true, unknownValues: guess.unknownValues } : {}),
   };
 }
 

@@ -1,9 +1,10 @@
 import { createHash } from 'node:crypto';
 import { readFile } from 'node:fs/promises';
-import ExcelJS from 'exceljs';
+import type ExcelJS from 'exceljs';
+import { formatCount } from '@shared/format';
 import type { HoldoutSource, SourceInfo } from './byte-source';
 import { type CsvHandlers, type CsvLayout, MAX_COLUMNS, MAX_ROWS } from './csv-records';
-import { HoldoutInputError } from './errors';
+import { columnName, HoldoutInputError } from './errors';
 
 /**
  * A holdout in an .xlsx workbook, read into the same record stream as a CSV file (csv-records.ts),
@@ -46,7 +47,10 @@ export async function readXlsx(source: HoldoutSource, info: SourceInfo, handlers
   info.bytes = bytes.length;
   info.sha256 = createHash('sha256').update(bytes).digest('hex');
   handlers.onBytes?.(bytes.length);
-  const workbook = new ExcelJS.Workbook();
+  // Loaded on first use: exceljs takes about half a second to import, which every CSV read (the
+  // compare command's start-up) would otherwise pay.
+  const { default: Excel } = await import('exceljs');
+  const workbook = new Excel.Workbook();
   try {
     await workbook.xlsx.load(bytes as unknown as ArrayBuffer);
   } catch {
@@ -56,8 +60,10 @@ export async function readXlsx(source: HoldoutSource, info: SourceInfo, handlers
   if (sheets.length === 0) throw new HoldoutInputError('empty_file', 'the workbook has no worksheets');
   const sheet = source.sheet ? sheets.find((candidate) => candidate.name === source.sheet) : sheets[0];
   if (!sheet) {
-    throw new HoldoutInputError('no_such_sheet', `the workbook has no sheet named "${source.sheet}"; its sheets are ${sheets.map((candidate) => `"${candidate.name}"`).join(', ')}`);
+    throw new HoldoutInputError('no_such_sheet', `the workbook has no sheet named ${columnName(source.sheet!)}; its sheets are ${sheets.map((candidate) => columnName(candidate.name)).join(', ')}`);
   }
+
+  info.sheet = sheet.name;
 
   const layout: CsvLayout = { delimiter: ',', newline: '\n', header: [] };
   let width = 0;
@@ -80,7 +86,7 @@ export async function readXlsx(source: HoldoutSource, info: SourceInfo, handlers
     if (layout.header.length === 0) {
       const header = cells.map((name) => name.trim());
       if (header.length > MAX_COLUMNS) {
-        throw new HoldoutInputError('too_many_columns', `the header has ${header.length.toLocaleString('en-US')} columns; at most ${MAX_COLUMNS} are read`, number);
+        throw new HoldoutInputError('too_many_columns', `the header has ${formatCount(header.length)} columns; at most ${MAX_COLUMNS} are read`, number);
       }
       layout.header = header;
       width = header.length;
@@ -90,7 +96,7 @@ export async function readXlsx(source: HoldoutSource, info: SourceInfo, handlers
     // Empty trailing cells are part of the row, as a CSV export writes them.
     while (cells.length < width) cells.push('');
     records++;
-    if (records > MAX_ROWS) throw new HoldoutInputError('too_many_rows', `the sheet has more than ${MAX_ROWS.toLocaleString('en-US')} rows`, null);
+    if (records > MAX_ROWS) throw new HoldoutInputError('too_many_rows', `the sheet has more than ${formatCount(MAX_ROWS)} rows`, null);
     rows.push(cells);
     lines.push(number);
     if (rows.length >= BATCH) flush();

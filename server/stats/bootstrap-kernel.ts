@@ -1,4 +1,6 @@
 import seedrandom from 'seedrandom';
+import { type StagedScatter, spreadStaged } from './bootstrap-scatter';
+import { scoreCells, type ScoreScratch, scoreScratch } from './bootstrap-score';
 import type { ScoreBlocks } from './order';
 
 /**
@@ -68,9 +70,25 @@ export interface BootstrapPlan {
   /** The weight of each cell's rows, in champion order and in challenger order; null without weights. */
   weightChampion: Float64Array | null;
   weightChallenger: Float64Array | null;
+  /**
+   * Further challengers (several challengers), in order: each cell's position in that model's
+   * order, its flags and weights in that order, as for the challenger. Empty for two models. The
+   * cells are then (champion, challenger, each further challenger, outcome[, weight])
+   * combinations, so every model is scored on the same resampled rows.
+   */
+  more: ModelLayout[];
+  /** Large plans: the challenger-order writes staged through windows (bootstrap-scatter.ts). */
+  scatter?: StagedScatter | null;
 }
 
-function shared<T extends Uint8Array | Uint32Array | Float64Array>(Kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number }, length: number): T {
+/** One further model's view of the cells. */
+export interface ModelLayout {
+  position: Uint32Array;
+  flags: Uint8Array;
+  weight: Float64Array | null;
+}
+
+export function shared<T extends Uint8Array | Uint32Array | Float64Array>(Kind: { new (buffer: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number }, length: number): T {
   return new Kind(new SharedArrayBuffer(Math.max(1, length) * Kind.BYTES_PER_ELEMENT));
 }
 
@@ -91,11 +109,24 @@ function sortByKey(items: Uint32Array, key: (item: number) => number, range: num
   return out;
 }
 
-/** Groups the accounts into cells. O(n). */
-export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array, weight: Float64Array | null = null): BootstrapPlan {
+/**
+ * Groups the accounts into cells. O(n). The plain implementation: the rows sorted by (champion
+ * block, challenger block, each further challenger's block, outcome[, weight]) with stable
+ * counting sorts, cells cut where the combination changes. bootstrap-plan.ts has the one the
+ * bootstrap runs for two models without weights; the tests compare the two.
+ */
+export function planBootstrapReference(
+  champion: ScoreBlocks,
+  challenger: ScoreBlocks,
+  bad: Uint8Array,
+  weight: Float64Array | null = null,
+  /** Further challengers (several challengers); none for two models. */
+  moreModels: readonly ScoreBlocks[] = [],
+): BootstrapPlan {
   const n = bad.length;
   const rankA = ranks(champion, n);
   const rankB = ranks(challenger, n);
+  const rankMore = moreModels.map((model) => ranks(model, n));
   // Weighted: each distinct weight's code, so that rows of different weights never share a cell.
   let weightCode: Uint32Array | null = null;
   let base = challenger.order;
@@ -113,9 +144,23 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
     const byWeight = weightCode;
     base = sortByKey(challenger.order, (row) => byWeight[row], codes.size);
   }
-  // Rows by (champion block, challenger block, outcome[, weight]): stable counting sorts.
-  const byB = sortByKey(base, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
+  // Rows by (champion block, challenger block, outcome[, weight]): stable counting sorts. With
+  // further challengers: (champion, challenger, each further challenger, outcome[, weight]).
+  let byB: Uint32Array;
+  if (moreModels.length === 0) byB = sortByKey(base, (row) => 2 * rankB[row] + bad[row], 2 * challenger.count);
+  else {
+    let sorted = sortByKey(base, (row) => bad[row], 2);
+    for (let m = moreModels.length - 1; m >= 0; m--) {
+      const rank = rankMore[m];
+      sorted = sortByKey(sorted, (row) => rank[row], moreModels[m].count);
+    }
+    byB = sortByKey(sorted, (row) => rankB[row], challenger.count);
+  }
   const rows = sortByKey(byB, (row) => rankA[row], champion.count);
+  const sameMore = (row: number, previous: number): boolean => {
+    for (let m = 0; m < rankMore.length; m++) if (rankMore[m][row] !== rankMore[m][previous]) return false;
+    return true;
+  };
 
   // A new cell where the combination changes, or where the current one is full.
   const newCell = (k: number, run: number): boolean => {
@@ -126,6 +171,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
       rankA[row] !== rankA[previous] ||
       rankB[row] !== rankB[previous] ||
       bad[row] !== bad[previous] ||
+      (rankMore.length > 0 && !sameMore(row, previous)) ||
       (weightCode !== null && weightCode[row] !== weightCode[previous])
     );
   };
@@ -142,6 +188,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   const flagsChampion = shared(Uint8Array, cells);
   const cellRankA = new Uint32Array(cells);
   const cellRankB = new Uint32Array(cells);
+  const cellRankMore = rankMore.map(() => new Uint32Array(cells));
   const goodCells = shared(Uint32Array, champion.nGood);
   const badCells = shared(Uint32Array, champion.nBad);
   const weightChampion = weight === null ? null : shared(Float64Array, cells);
@@ -156,6 +203,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
       run = 0;
       cellRankA[c] = rankA[row];
       cellRankB[c] = rankB[row];
+      for (let m = 0; m < rankMore.length; m++) cellRankMore[m][c] = rankMore[m][row];
       flagsChampion[c] = bad[row];
       if (weightChampion !== null) weightChampion[c] = weight![row];
     }
@@ -169,17 +217,25 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
   }
   const identity = new Uint32Array(cells);
   for (let k = 0; k < cells; k++) identity[k] = k;
-  const byChallenger = sortByKey(identity, (cell) => cellRankB[cell], challenger.count);
-  const positionChallenger = shared(Uint32Array, cells);
-  const flagsChallenger = shared(Uint8Array, cells);
-  const weightChallenger = weightChampion === null ? null : shared(Float64Array, cells);
-  for (let j = 0; j < cells; j++) {
-    const cell = byChallenger[j];
-    positionChallenger[cell] = j;
-    if (weightChallenger !== null) weightChallenger[j] = weightChampion![cell];
-    flagsChallenger[j] = (flagsChampion[cell] & 1) | (j === cells - 1 || cellRankB[byChallenger[j + 1]] !== cellRankB[cell] ? 2 : 0);
-  }
+  // Each other model's view of the cells: its order (cells sorted by its block, ties in champion
+  // order), the flags there (bad; last cell of its block) and the weights in that order.
+  const layout = (cellRank: Uint32Array, blocks: number): ModelLayout => {
+    const byModel = sortByKey(identity, (cell) => cellRank[cell], blocks);
+    const position = shared(Uint32Array, cells);
+    const flags = shared(Uint8Array, cells);
+    const modelWeight = weightChampion === null ? null : shared(Float64Array, cells);
+    for (let j = 0; j < cells; j++) {
+      const cell = byModel[j];
+      position[cell] = j;
+      if (modelWeight !== null) modelWeight[j] = weightChampion![cell];
+      flags[j] = (flagsChampion[cell] & 1) | (j === cells - 1 || cellRank[byModel[j + 1]] !== cellRank[cell] ? 2 : 0);
+    }
+    return { position, flags, weight: modelWeight };
+  };
+  const { position: positionChallenger, flags: flagsChallenger, weight: weightChallenger } = layout(cellRankB, challenger.count);
+  const more = moreModels.map((model, m) => layout(cellRankMore[m], model.count));
   return {
+    more,
     cells,
     nGood: champion.nGood,
     nBad: champion.nBad,
@@ -195,7 +251,7 @@ export function planBootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, ba
 }
 
 /** Inversion tables for Poisson(λ), λ = 1 … POISSON_TABLE_MAX: cdf values and guide entries. */
-interface PoissonTables {
+export interface PoissonTables {
   cdf: Float64Array;
   offset: Uint32Array;
   guide: Uint32Array;
@@ -203,7 +259,7 @@ interface PoissonTables {
 
 let tables: PoissonTables | null = null;
 
-function poissonTables(): PoissonTables {
+export function poissonTables(): PoissonTables {
   if (tables !== null) return tables;
   const lists: number[][] = [];
   for (let lambda = 1; lambda <= POISSON_TABLE_MAX; lambda++) {
@@ -290,16 +346,42 @@ export interface ReplicateOutput {
   aucChallenger: Float64Array;
   ksChampion: Float64Array;
   ksChallenger: Float64Array;
+  /** Further challengers' AUC and KS (plan.more's order); absent or empty for two models. */
+  aucMore?: Float64Array[];
+  ksMore?: Float64Array[];
 }
 
-/** Scratch space for runReplicates: each cell's count, in champion and in challenger order. */
+/** Scratch space for runReplicates: each cell's count, in champion and in challenger order, and
+ * the scoring passes' block totals for each model. */
 export interface ReplicateScratch {
   counts: Uint16Array;
   countsChallenger: Uint16Array;
+  scoreChampion: ScoreScratch;
+  scoreChallenger: ScoreScratch;
+  /** Further challengers: counts in each one's order, and its scoring scratch. */
+  countsMore: Uint16Array[];
+  scoreMore: ScoreScratch[];
+  /** The staging array of a plan with a staged scatter, else null. */
+  staged: Uint16Array | null;
 }
 
+const blockEnds = (flags: Uint8Array, cells: number) => {
+  let blocks = 0;
+  for (let c = 0; c < cells; c++) blocks += flags[c] >> 1;
+  return blocks;
+};
+
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
-  return { counts: new Uint16Array(plan.cells), countsChallenger: new Uint16Array(plan.cells) };
+  const weighted = plan.weightChampion !== null;
+  return {
+    counts: new Uint16Array(plan.cells),
+    countsChallenger: new Uint16Array(plan.cells),
+    scoreChampion: scoreScratch(weighted ? 0 : blockEnds(plan.flagsChampion, plan.cells)),
+    scoreChallenger: scoreScratch(weighted ? 0 : blockEnds(plan.flagsChallenger, plan.cells)),
+    countsMore: plan.more.map(() => new Uint16Array(plan.cells)),
+    scoreMore: plan.more.map((layout) => scoreScratch(weighted ? 0 : blockEnds(layout.flags, plan.cells))),
+    staged: plan.scatter ? new Uint16Array(plan.cells) : null,
+  };
 }
 
 /**
@@ -327,7 +409,11 @@ export function runReplicates(
   for (let r = from; r < to; r++) {
     const state = replicateState(seed, r);
     // 1. Poisson(m_c) counts; totals = [all draws, bad draws, max count / size].
-    drawPoissonCounts(cells, size, flagsChampion, positionChallenger, counts, countsChallenger, state, tables, totals);
+    //    In challenger order directly, or through the staging array of a large plan.
+    if (plan.scatter && scratch.staged) {
+      drawPoissonCounts(cells, size, flagsChampion, plan.scatter.slot, counts, scratch.staged, state, tables, totals);
+      spreadStaged(plan.scatter.position, scratch.staged, countsChallenger, cells);
+    } else drawPoissonCounts(cells, size, flagsChampion, positionChallenger, counts, countsChallenger, state, tables, totals);
     // 2. Bring each stratum's total to its size.
     const bound = totals[2] * (1 + 1e-12);
     adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
@@ -335,19 +421,40 @@ export function runReplicates(
     if (inspect) inspect(r, counts);
     // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
     if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores);
-    else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores);
+    else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores, scratch.scoreChampion);
     out.aucChampion[r - offset] = scores[0];
     out.ksChampion[r - offset] = scores[1];
     if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores);
-    else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores);
+    else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores, scratch.scoreChallenger);
     out.aucChallenger[r - offset] = scores[0];
     out.ksChallenger[r - offset] = scores[1];
+    // Further challengers: the same counts laid out in each one's order, then scored alike.
+    for (let m = 0; m < plan.more.length; m++) {
+      const layout = plan.more[m];
+      const target = scratch.countsMore[m];
+      scatter(counts, layout.position, target, cells);
+      if (layout.weight) scoreCellsWeighted(target, layout.flags, layout.weight, cells, scores);
+      else scoreCells(target, layout.flags, cells, nGood, nBad, scores, scratch.scoreMore[m]);
+      out.aucMore![m][r - offset] = scores[0];
+      out.ksMore![m][r - offset] = scores[1];
+    }
   }
+}
+
+/** counts (champion order) into another model's order. */
+function scatter(counts: Uint16Array, position: Uint32Array, target: Uint16Array, cells: number): void {
+  for (let c = 0; c < cells; c++) target[position[c]] = counts[c];
+}
+
+/** ⌈p·2^32⌉ with its top bit flipped, as a signed 32-bit integer (see drawPoissonCounts). */
+export function poissonOneThreshold(p: number): number {
+  return (Math.ceil(p * TWO_POW_32) ^ 0x80000000) | 0;
 }
 
 /**
  * Independent Poisson(size) counts for every cell, written in champion order and, through
- * positionChallenger, in challenger order. xoshiro128** is inlined on local variables (the
+ * positionChallenger, in challenger order (or, given a staged scatter's slots and staging array,
+ * into those). xoshiro128** is inlined on local variables (the
  * generator's state is read from and written back to `state`).
  */
 function drawPoissonCounts(
@@ -365,13 +472,16 @@ function drawPoissonCounts(
   const L = POISSON_TABLE_MAX;
   const tableL = tableAt[L];
   const guideL = L * GUIDE;
-  // The cdf of Poisson(1) (its table starts at offset 0).
-  const p0 = cdf[0];
-  const p1 = cdf[1];
-  const p2 = cdf[2];
-  const p3 = cdf[3];
-  const p4 = cdf[4];
-  const p5 = cdf[5];
+  // Poisson(1), the usual cell size with continuous scores, compares the generator's 32-bit
+  // output x with integer thresholds: u = x·2^-32 ≥ p exactly when x ≥ ⌈p·2^32⌉ (p·2^32 is exact),
+  // so the counts are those of the floating-point comparisons, bit for bit. Compared as signed
+  // integers after flipping the top bit (JavaScript's fast integers are signed 32-bit).
+  const t0 = poissonOneThreshold(cdf[0]);
+  const t1 = poissonOneThreshold(cdf[1]);
+  const t2 = poissonOneThreshold(cdf[2]);
+  const t3 = poissonOneThreshold(cdf[3]);
+  const t4 = poissonOneThreshold(cdf[4]);
+  const t5 = poissonOneThreshold(cdf[5]);
   let s0 = state[0];
   let s1 = state[1];
   let s2 = state[2];
@@ -381,9 +491,41 @@ function drawPoissonCounts(
   let ratioMax = 0;
   for (let c = 0; c < cells; c++) {
     const cellSize = size[c];
-    let m = cellSize;
     let k = 0;
-    while (m > L) {
+    if (cellSize === 1) {
+      const x = Math.imul(s1, 5);
+      const r = Math.imul((x << 7) | (x >>> 25), 9);
+      const t = s1 << 9;
+      s2 ^= s0;
+      s3 ^= s1;
+      s1 ^= s2;
+      s0 ^= s3;
+      s2 ^= t;
+      s3 = (s3 << 11) | (s3 >>> 21);
+      const v = (r ^ 0x80000000) | 0;
+      k = +(v >= t0) + +(v >= t1) + +(v >= t2) + +(v >= t3) + +(v >= t4) + +(v >= t5);
+      if (k === 6) {
+        const u = (r >>> 0) * INV_TWO_POW_32;
+        while (u >= cdf[k]) k++;
+      }
+      if (k > ratioMax) ratioMax = k;
+    } else {
+      let m = cellSize;
+      while (m > L) {
+        const x = Math.imul(s1, 5);
+        const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
+        const t = s1 << 9;
+        s2 ^= s0;
+        s3 ^= s1;
+        s1 ^= s2;
+        s0 ^= s3;
+        s2 ^= t;
+        s3 = (s3 << 11) | (s3 >>> 21);
+        let j = guide[guideL + ((u * GUIDE) | 0)];
+        while (u >= cdf[tableL + j]) j++;
+        k += j;
+        m -= L;
+      }
       const x = Math.imul(s1, 5);
       const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
       const t = s1 << 9;
@@ -393,37 +535,23 @@ function drawPoissonCounts(
       s0 ^= s3;
       s2 ^= t;
       s3 = (s3 << 11) | (s3 >>> 21);
-      let j = guide[guideL + ((u * GUIDE) | 0)];
-      while (u >= cdf[tableL + j]) j++;
+      let j: number;
+      if (m === 1) {
+        j = 0;
+        while (u >= cdf[j]) j++;
+      } else {
+        const base = tableAt[m];
+        j = guide[m * GUIDE + ((u * GUIDE) | 0)];
+        while (u >= cdf[base + j]) j++;
+      }
       k += j;
-      m -= L;
+      const ratio = k / cellSize;
+      if (ratio > ratioMax) ratioMax = ratio;
     }
-    const x = Math.imul(s1, 5);
-    const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
-    const t = s1 << 9;
-    s2 ^= s0;
-    s3 ^= s1;
-    s1 ^= s2;
-    s0 ^= s3;
-    s2 ^= t;
-    s3 = (s3 << 11) | (s3 >>> 21);
-    let j: number;
-    if (m === 1) {
-      // Poisson(1), the usual case for continuous scores: six comparisons without branches.
-      j = +(u >= p0) + +(u >= p1) + +(u >= p2) + +(u >= p3) + +(u >= p4) + +(u >= p5);
-      if (j === 6) while (u >= cdf[j]) j++;
-    } else {
-      const base = tableAt[m];
-      j = guide[m * GUIDE + ((u * GUIDE) | 0)];
-      while (u >= cdf[base + j]) j++;
-    }
-    k += j;
     counts[c] = k;
     countsChallenger[positionChallenger[c]] = k;
     total += k;
     totalBad += k * (flags[c] & 1);
-    const ratio = cellSize === 1 ? k : k / cellSize;
-    if (ratio > ratioMax) ratioMax = ratio;
   }
   state[0] = s0;
   state[1] = s1;
@@ -468,38 +596,6 @@ function adjustStratum(
     countsChallenger[positionChallenger[cell]]++;
     total++;
   }
-}
-
-/**
- * AUC and KS of one model from the cell counts in that model's order (bit 0 of flags: bad cell;
- * bit 1: last cell of its block): scores = [AUC, KS].
- */
-function scoreCells(counts: Uint16Array, flags: Uint8Array, cells: number, nGood: number, nBad: number, scores: Float64Array): void {
-  let goods = 0;
-  let bads = 0;
-  let cumGood = 0;
-  let cumBad = 0;
-  let wins = 0;
-  let gap = 0;
-  for (let c = 0; c < cells; c++) {
-    const w = counts[c];
-    const f = flags[c];
-    if (f & 1) bads += w;
-    else goods += w;
-    if (f & 2) {
-      wins += goods * (cumBad + bads * 0.5);
-      cumBad += bads;
-      cumGood += goods;
-      const d = cumBad * nGood - cumGood * nBad;
-      const absolute = d < 0 ? -d : d;
-      if (absolute > gap) gap = absolute;
-      goods = 0;
-      bads = 0;
-    }
-  }
-  const pairs = nGood * nBad;
-  scores[0] = wins / pairs;
-  scores[1] = gap / pairs;
 }
 
 /**

@@ -16,8 +16,12 @@ parentPort!.on('message', ({ from, to }: { from: number; to: number }) => {
     aucChallenger: new Float64Array(length),
     ksChampion: new Float64Array(length),
     ksChallenger: new Float64Array(length),
+    aucMore: plan.more.map(() => new Float64Array(length)),
+    ksMore: plan.more.map(() => new Float64Array(length)),
   };
   runReplicates(plan, seed, from, to, result, from, scratch);
-  const buffers = [result.aucChampion, result.aucChallenger, result.ksChampion, result.ksChallenger].map((array) => array.buffer as ArrayBuffer);
+  const buffers = [result.aucChampion, result.aucChallenger, result.ksChampion, result.ksChallenger, ...result.aucMore!, ...result.ksMore!].map(
+    (array) => array.buffer as ArrayBuffer,
+  );
   parentPort!.postMessage({ from, to, result }, buffers);
 });

@@ -2,7 +2,9 @@ import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
 import type { Bootstrap, Histogram, Interval } from '@shared/report';
 import { startWorker } from '@server/runtime';
-import { type BootstrapPlan, planBootstrap, replicateScratch, type ReplicateOutput, runReplicates } from './bootstrap-kernel';
+import { type BootstrapPlan, replicateScratch, type ReplicateOutput, runReplicates } from './bootstrap-kernel';
+import { planBootstrap } from './bootstrap-plan';
+import { SCATTER_CELLS, stageScatter } from './bootstrap-scatter';
 import type { ScoreBlocks } from './order';
 import { StatisticError } from './statistic-error';
 
@@ -38,6 +40,10 @@ export interface BootstrapOptions {
   threads?: number;
   /** Replicates done so far, and the total. */
   onProgress?: (done: number, total: number) => void;
+  /** Stops the threads; the promise then rejects with the signal's reason. */
+  signal?: AbortSignal;
+  /** Cells from which the challenger-order writes are staged (default SCATTER_CELLS; tests set it low). */
+  stageFrom?: number;
 }
 
 export interface BootstrapResult {
@@ -49,11 +55,29 @@ export interface BootstrapResult {
   challengerKsCi: Interval | null;
   /** The replicate values, for callers that want more than the intervals. */
   replicates: { deltaGini: Float64Array; deltaKs: Float64Array; championKs: Float64Array; challengerKs: Float64Array } | null;
+  /**
+   * Further challengers (several challengers), in the order given: each against the champion on
+   * the same resampled rows. Empty for two models.
+   */
+  more: MoreChallengerBootstrap[];
+}
+
+export interface MoreChallengerBootstrap {
+  deltaGiniCi: Interval | null;
+  deltaKsCi: Interval | null;
+  challengerKsCi: Interval | null;
+  histograms: { deltaGini: Histogram; deltaKs: Histogram; challengerKs: Histogram } | null;
+  replicates: { deltaGini: Float64Array; deltaKs: Float64Array; challengerKs: Float64Array } | null;
 }
 
 /** Replicates per task handed to a thread. Fixed, so the split never depends on thread count. */
 export const BLOCK = 25;
 const HISTOGRAM_BINS = 40;
+/**
+ * Blocks handed to each thread ahead of its results: a thread keeps working while the calling
+ * thread is busy with other stages (report.ts runs them beside the bootstrap) and cannot answer.
+ */
+const AHEAD = 3;
 /** Below this many cell visits (cells × replicates) threads cost more than they save. */
 const THREAD_THRESHOLD = 4_000_000;
 
@@ -87,12 +111,14 @@ export function histogram(values: Float64Array, bins = HISTOGRAM_BINS): Histogra
   return { edges, counts };
 }
 
-function allocate(length: number): ReplicateOutput {
+function allocate(length: number, more: number): ReplicateOutput {
   return {
     aucChampion: new Float64Array(length),
     aucChallenger: new Float64Array(length),
     ksChampion: new Float64Array(length),
     ksChallenger: new Float64Array(length),
+    aucMore: Array.from({ length: more }, () => new Float64Array(length)),
+    ksMore: Array.from({ length: more }, () => new Float64Array(length)),
   };
 }
 
@@ -102,19 +128,28 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
   let nextBlock = 0;
   let done = 0;
   const workers: Worker[] = [];
+  const { signal } = options;
+  let onAbort: (() => void) | null = null;
   try {
-    await Promise.all(
+    signal?.throwIfAborted();
+    const aborted = new Promise<never>((_, reject) => {
+      onAbort = () => reject(signal!.reason);
+      signal?.addEventListener('abort', onAbort, { once: true });
+    });
+    aborted.catch(() => {});
+    const run = Promise.all(
       Array.from({ length: Math.min(threads, blocks) }, async () => {
         const worker = startWorker('server/stats/bootstrap-worker', { workerData: { plan, seed: options.seed } });
         workers.push(worker);
+        let pending = 0;
         await new Promise<void>((resolve, reject) => {
           const dispatch = () => {
-            if (nextBlock >= blocks) {
-              resolve();
-              return;
+            while (pending < AHEAD && nextBlock < blocks) {
+              const from = nextBlock++ * BLOCK;
+              pending++;
+              worker.postMessage({ from, to: Math.min(total, from + BLOCK) });
             }
-            const from = nextBlock++ * BLOCK;
-            worker.postMessage({ from, to: Math.min(total, from + BLOCK) });
+            if (pending === 0) resolve();
           };
           worker.on('message', (message: { from: number; to: number; result: ReplicateOutput }) => {
             const { from, to, result } = message;
@@ -122,6 +157,9 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
             out.aucChallenger.set(result.aucChallenger, from);
             out.ksChampion.set(result.ksChampion, from);
             out.ksChallenger.set(result.ksChallenger, from);
+            result.aucMore?.forEach((values, m) => out.aucMore![m].set(values, from));
+            result.ksMore?.forEach((values, m) => out.ksMore![m].set(values, from));
+            pending--;
             done += to - from;
             options.onProgress?.(done, total);
             dispatch();
@@ -134,7 +172,11 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
         });
       }),
     );
+    // After an abort the threads are stopped below, which fails `run`: nobody waits for it then.
+    run.catch(() => {});
+    await Promise.race([run, aborted]);
   } finally {
+    if (onAbort) signal?.removeEventListener('abort', onAbort);
     await Promise.all(workers.map((worker) => worker.terminate()));
   }
 }
@@ -144,6 +186,7 @@ async function runHere(plan: BootstrapPlan, options: BootstrapOptions, out: Repl
   const total = options.replicates;
   for (let from = 0; from < total; from += BLOCK) {
     const to = Math.min(total, from + BLOCK);
+    options.signal?.throwIfAborted();
     runReplicates(plan, options.seed, from, to, out, 0, scratch);
     options.onProgress?.(to, total);
     // Let the event loop breathe (progress messages, cancellation) between blocks.
@@ -151,17 +194,27 @@ async function runHere(plan: BootstrapPlan, options: BootstrapOptions, out: Repl
   }
 }
 
-export async function bootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array, options: BootstrapOptions): Promise<BootstrapResult> {
+export async function bootstrap(
+  champion: ScoreBlocks,
+  challenger: ScoreBlocks,
+  bad: Uint8Array,
+  options: BootstrapOptions,
+  /** Further challengers, scored on the same resampled rows (cells of every model's blocks). */
+  moreModels: readonly ScoreBlocks[] = [],
+): Promise<BootstrapResult> {
   const { replicates, seed, confidence } = options;
   const section: Bootstrap = { replicates, seed, confidence, method: 'paired-stratified-percentile', histograms: null };
   if (!Number.isInteger(replicates) || replicates < 0) throw new StatisticError(`bootstrap replicates must be a whole number ≥ 0, got ${replicates}`);
   if (replicates === 0) {
-    return { section, deltaGiniCi: null, deltaKsCi: null, championKsCi: null, challengerKsCi: null, replicates: null };
+    const none = { deltaGiniCi: null, deltaKsCi: null, challengerKsCi: null, histograms: null, replicates: null };
+    return { section, deltaGiniCi: null, deltaKsCi: null, championKsCi: null, challengerKsCi: null, replicates: null, more: moreModels.map(() => none) };
   }
   if (champion.nGood === 0 || champion.nBad === 0) throw new StatisticError('the bootstrap requires at least one good and one bad');
 
-  const plan = planBootstrap(champion, challenger, bad, champion.weights?.row ?? null);
-  const out = allocate(replicates);
+  const planned = planBootstrap(champion, challenger, bad, champion.weights?.row ?? null, moreModels);
+  // Large plans stage their challenger-order writes (bootstrap-scatter.ts); the same replicates.
+  const plan = planned.cells >= (options.stageFrom ?? SCATTER_CELLS) ? stageScatter(planned) : planned;
+  const out = allocate(replicates, moreModels.length);
   const cores = Math.max(1, availableParallelism());
   const threads = options.threads ?? (plan.cells * replicates >= THREAD_THRESHOLD ? cores : 0);
   if (threads > 0) await runOnThreads(plan, options, threads, out);
@@ -186,5 +239,22 @@ export async function bootstrap(champion: ScoreBlocks, challenger: ScoreBlocks, 
     championKsCi: percentileInterval(out.ksChampion, confidence),
     challengerKsCi: percentileInterval(out.ksChallenger, confidence),
     replicates: { deltaGini, deltaKs, championKs: out.ksChampion, challengerKs: out.ksChallenger },
+    more: moreModels.map((_, m) => {
+      const auc = out.aucMore![m];
+      const ks = out.ksMore![m];
+      const moreGini = new Float64Array(replicates);
+      const moreKs = new Float64Array(replicates);
+      for (let r = 0; r < replicates; r++) {
+        moreGini[r] = 2 * (auc[r] - out.aucChampion[r]);
+        moreKs[r] = ks[r] - out.ksChampion[r];
+      }
+      return {
+        deltaGiniCi: percentileInterval(moreGini, confidence),
+        deltaKsCi: percentileInterval(moreKs, confidence),
+        challengerKsCi: percentileInterval(ks, confidence),
+        histograms: { deltaGini: histogram(moreGini), deltaKs: histogram(moreKs), challengerKs: histogram(ks) },
+        replicates: { deltaGini: moreGini, deltaKs: moreKs, challengerKs: ks },
+      };
+    }),
   };
 }

@@ -1,4 +1,4 @@
-import { regularizedLowerGamma } from './incomplete-gamma';
+import { regularizedLowerGamma, regularizedUpperGamma } from './incomplete-gamma';
 
 /**
  * The χ² quantile: the x with P(χ²_k ≤ x) = q, i.e. P(k / 2, x / 2) = q for the regularized
@@ -25,4 +25,16 @@ export function chiSquareQuantile(q: number, degreesOfFreedom: number): number {
     else high = middle;
   }
   return (low + high) / 2;
+}
+
+/**
+ * The χ² upper tail P(χ²_k > x) = Q(k / 2, x / 2) (incomplete-gamma.ts), the p-value of a χ² test;
+ * computed from the upper function directly so small p-values keep their relative precision.
+ * Checked against R's pchisq(lower.tail = FALSE) in tests/reference/challengers/.
+ * Cost: O(√k) terms.
+ */
+export function chiSquareSf(x: number, degreesOfFreedom: number): number {
+  if (!(degreesOfFreedom > 0)) throw new RangeError(`chi-square tail requires degrees of freedom > 0, got ${degreesOfFreedom}`);
+  if (!(x >= 0)) throw new RangeError(`chi-square tail requires x ≥ 0, got ${x}`);
+  return regularizedUpperGamma(degreesOfFreedom / 2, x / 2);
 }

@@ -1,4 +1,5 @@
 import type { DataQuality } from '@shared/report';
+import { duplicateIds as countDuplicateIds } from './duplicate-ids';
 import type { Holdout } from './holdout';
 import { knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 import { formatAuc, formatCount } from '@shared/format';
@@ -61,12 +62,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
 
   let duplicateIds: number | null = null;
   if (holdout.ids) {
-    const seen = new Set<string>();
-    duplicateIds = 0;
-    for (const id of holdout.ids) {
-      if (seen.has(id)) duplicateIds++;
-      else seen.add(id);
-    }
+    duplicateIds = countDuplicateIds(holdout.ids);
     if (duplicateIds > 0) warnings.push(`${plural(duplicateIds, 'account repeats', 'accounts repeat')} an earlier account id.`);
   }
   if (data.exposure) {

@@ -94,7 +94,7 @@ export function inferenceGap(nGood: number, nBad: number): string | null {
 }
 
 /** Each account's placement: V10 for goods, V01 for bads (weighted counts when the blocks have weights). */
-function placements(blocks: ScoreBlocks, n: number): Float64Array {
+export function placements(blocks: ScoreBlocks, n: number): Float64Array {
   const { order, sortedBad, count, start } = blocks;
   const goods = blocks.weights ? blocks.weights.goods : blocks.goods;
   const bads = blocks.weights ? blocks.weights.bads : blocks.bads;
@@ -119,7 +119,12 @@ function interval(centre: number, se: number, q: number, lo: number, hi: number)
   return [Math.max(lo, centre - q * se), Math.min(hi, centre + q * se)];
 }
 
-export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad: Uint8Array, confidence: number): PairedDelong {
+export function pairedDelong(
+  champion: ScoreBlocks,
+  challenger: ScoreBlocks,
+  bad: Uint8Array,
+  confidence: number,
+): PairedDelong {
   const n = bad.length;
   const { nGood, nBad } = champion;
   if (challenger.nGood !== nGood || challenger.nBad !== nBad || champion.order.length !== n || challenger.order.length !== n) {
@@ -166,7 +171,6 @@ export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad
   let bBB = 0;
   let bAB = 0;
   let bDD = 0;
-  const delta = thetaB - thetaA;
   const weights = champion.weights?.row ?? null;
   if (weights !== null && !challenger.weights) throw new StatisticError('paired DeLong requires both models weighted alike');
   for (let i = 0; i < n; i++) {
@@ -187,6 +191,33 @@ export function pairedDelong(champion: ScoreBlocks, challenger: ScoreBlocks, bad
       gDD += ww * (d * d);
     }
   }
+  return pairedFromSums(champion, thetaA, thetaB, { gAA, gBB, gAB, gDD, bAA, bBB, bAB, bDD }, confidence);
+}
+
+/**
+ * Per class (g: goods, b: bads), the weighted sums over the accounts of the centred placements'
+ * squares and cross-product, A the champion's, B the challenger's, D = B − A (squared weights).
+ */
+export interface PlacementSums {
+  gAA: number;
+  gBB: number;
+  gAB: number;
+  gDD: number;
+  bAA: number;
+  bBB: number;
+  bAB: number;
+  bDD: number;
+}
+
+/**
+ * The paired test from its sums (pairedDelong, or several-challengers.ts summing every pair in one
+ * pass: the same sums give the same bits). `champion` gives the class sizes and weights.
+ */
+export function pairedFromSums(champion: ScoreBlocks, thetaA: number, thetaB: number, sums: PlacementSums, confidence: number): PairedDelong {
+  const { nGood, nBad } = champion;
+  const { gAA, gBB, gAB, gDD, bAA, bBB, bAB, bDD } = sums;
+  const delta = thetaB - thetaA;
+  const weights = champion.weights?.row ?? null;
   const wGood = champion.weights ? champion.weights.good : nGood;
   const wBad = champion.weights ? champion.weights.bad : nBad;
   // m/(m−1)·Σ(w/W)²(V−θ)², as [Σw²(V−θ)²/(m−1)/m]·(m/W)²: the unweighted form when W = m.

@@ -12,6 +12,11 @@ export interface Holdout {
   champion: Float64Array;
   challenger: Float64Array;
   higherIs: { champion: HigherIs; challenger: HigherIs };
+  /**
+   * Challengers after the primary (`challenger`), in the mapping's order: each its column, the
+   * modeler's name, orientation and scores as given. Absent or empty: a two-model comparison.
+   */
+  moreChallengers?: ExtraChallengerScores[];
   /** Exposure / amount per account, when mapped. */
   exposure: Float64Array | null;
   /** Account ids as read, when mapped. */
@@ -28,6 +33,27 @@ export interface Holdout {
   known?: Uint8Array | null;
   /** Probability of bad from the mapped inferred-bad column (NaN where not given); absent when not mapped. */
   inferredBad?: Float64Array | null;
+}
+
+export interface ExtraChallengerScores {
+  column: string;
+  name: string;
+  higherIs: HigherIs;
+  scores: Float64Array;
+}
+
+/**
+ * The holdout with challenger k (0 = the primary) in the challenger's place: the two-model
+ * holdout every pairwise section (swap sets, curves, bands) is computed on. No copy of any column.
+ */
+export function withChallenger(holdout: Holdout, k: number): Holdout {
+  if (k === 0) return holdout;
+  const extra = holdout.moreChallengers?.[k - 1];
+  if (!extra) throw new RangeError(`no challenger ${k}`);
+  const pair: Holdout = { ...holdout, challenger: extra.scores, higherIs: { champion: holdout.higherIs.champion, challenger: extra.higherIs } };
+  delete pair.moreChallengers;
+  if (holdout.grades) pair.grades = { champion: holdout.grades.champion, challenger: null };
+  return pair;
 }
 
 export interface SegmentColumn {

@@ -14,9 +14,24 @@ const EPSILON = 1e-16;
 const TINY = 1e-300;
 
 export function regularizedLowerGamma(a: number, x: number): number {
+  const { lower } = incompleteGamma(a, x);
+  return lower;
+}
+
+/**
+ * The regularized upper incomplete gamma function Q(a, x) = 1 − P(a, x), computed directly by the
+ * continued fraction where it is small (x ≥ a + 1), so tail probabilities far below machine
+ * epsilon keep their relative precision (a χ² test's p-value).
+ */
+export function regularizedUpperGamma(a: number, x: number): number {
+  const { upper } = incompleteGamma(a, x);
+  return upper;
+}
+
+function incompleteGamma(a: number, x: number): { lower: number; upper: number } {
   if (!(a > 0)) throw new RangeError(`incomplete gamma requires a > 0, got ${a}`);
   if (!(x >= 0)) throw new RangeError(`incomplete gamma requires x ≥ 0, got ${x}`);
-  if (x === 0) return 0;
+  if (x === 0) return { lower: 0, upper: 1 };
   const prefactor = Math.exp(-x + a * Math.log(x) - logGamma(a));
   if (x < a + 1) {
     let ap = a;
@@ -26,7 +41,10 @@ export function regularizedLowerGamma(a: number, x: number): number {
       ap += 1;
       term *= x / ap;
       sum += term;
-      if (Math.abs(term) < Math.abs(sum) * EPSILON) return sum * prefactor;
+      if (Math.abs(term) < Math.abs(sum) * EPSILON) {
+        const lower = sum * prefactor;
+        return { lower, upper: 1 - lower };
+      }
     }
     throw new Error(`incomplete gamma: the series did not converge for a = ${a}, x = ${x}`);
   }
@@ -44,7 +62,10 @@ export function regularizedLowerGamma(a: number, x: number): number {
     d = 1 / d;
     const delta = d * c;
     h *= delta;
-    if (Math.abs(delta - 1) <= EPSILON) return 1 - prefactor * h;
+    if (Math.abs(delta - 1) <= EPSILON) {
+      const upper = prefactor * h;
+      return { lower: 1 - upper, upper };
+    }
   }
   throw new Error(`incomplete gamma: the continued fraction did not converge for a = ${a}, x = ${x}`);
 }

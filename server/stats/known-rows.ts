@@ -34,6 +34,7 @@ export function knownRows(holdout: Holdout): Holdout {
     champion: pickF(holdout.champion),
     challenger: pickF(holdout.challenger),
     higherIs: holdout.higherIs,
+    ...(holdout.moreChallengers ? { moreChallengers: holdout.moreChallengers.map((extra) => ({ ...extra, scores: pickF(extra.scores) })) } : {}),
     exposure: holdout.exposure ? pickF(holdout.exposure) : null,
     ids: holdout.ids ? Array.from(rows, (row) => holdout.ids![row]) : null,
     segments: holdout.segments.map((segment) => {

@@ -1,6 +1,6 @@
 import type { HigherIs, RejectInference } from '@shared/report';
 import type { Holdout, ModelName, SegmentColumn } from './holdout';
-import { argsortAscending, safety } from './order';
+import { argsortAscending, safety, type ScoreBlocks } from './order';
 import { inferBads } from './reject-inference';
 
 /**
@@ -64,6 +64,11 @@ export interface PreparedHoldout {
   known: Uint8Array | null;
   /** Inferred probability of bad per row (0 on known rows) under the reject inference; null for known-only or when every outcome is known. */
   inferred: { method: 'parcel' | 'column'; probability: Float64Array } | null;
+  /**
+   * With an inference: per model, bads among the k riskiest positions counting each known bad's
+   * weight and each unknown account's w·p (length n + 1); the strategy curve's books use it.
+   */
+  inferredBadsBefore: Record<ModelName, Float64Array> | null;
   /** 1 = bad, 0 = good, per account. */
   bad: Uint8Array;
   exposure: Float64Array | null;
@@ -73,6 +78,12 @@ export interface PreparedHoldout {
   requestedBands: number;
   champion: PreparedModel;
   challenger: PreparedModel;
+  /**
+   * Several challengers: the challengers after the primary (holdout.moreChallengers), each
+   * prepared as `challenger` is, with its inferred-bads array under the reject inference. Absent
+   * for two models. pairData(data, k) puts challenger k in the challenger's place.
+   */
+  moreChallengers?: { model: PreparedModel; inferredBadsBefore: Float64Array | null }[];
 }
 
 export interface PrepareOptions {
@@ -83,6 +94,16 @@ export interface PrepareOptions {
    * stage); they are checked, not trusted blindly. Without them the data are sorted here.
    */
   orders?: Partial<Record<ModelName, Uint32Array>>;
+  /**
+   * Both models' blocks of equal scores as scoreBlocks (order.ts) gave them for these very rows
+   * and outcomes, unweighted: their order, sorted values and outcomes are used instead of being
+   * gathered again row by row (the dearest part of this preparation at millions of rows). Checked
+   * at every 1,024th position and at the ends; a block of zeros still reads its values row by
+   * row, so that the sign of a zero is the score's own. Used without weights and unknown rows only.
+   */
+  blocks?: Partial<Record<ModelName, ScoreBlocks>>;
+  /** The further challengers' orders, in holdout.moreChallengers' order (checked as `orders`). */
+  moreOrders?: readonly Uint32Array[];
   /** Reject inference for rows without an outcome (default known-only). */
   inference?: RejectInference;
 }
@@ -122,11 +143,20 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
     }
   }
   const model = (name: ModelName): PreparedModel =>
-    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.orders?.[name], weight, known);
+    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.blocks?.[name] ?? options.orders?.[name], weight, known);
   const champion = model('champion');
   const inference = options.inference ?? { method: 'known-only', parcelFactor: 1 };
   const probability = inferBads(inference, { n, bad, known, weight, inferredBad: holdout.inferredBad ?? null }, champion);
+  const inferred = probability === null || inference.method === 'known-only' ? null : { method: inference.method, probability };
+  const challenger = model('challenger');
+  const inferredBads = (prepared: PreparedModel, p: Float64Array) => inferredBadsBefore(prepared, p, bad, weight, known);
+  const more = (holdout.moreChallengers ?? []).map((extra, m) => {
+    if (extra.scores.length !== n) throw new Error('policy statistics require every column to have one entry per account');
+    const prepared = prepareModel('challenger', extra.scores, extra.higherIs, bad, options.bands, options.moreOrders?.[m], weight, known);
+    return { model: prepared, inferredBadsBefore: inferred === null ? null : inferredBads(prepared, inferred.probability) };
+  });
   return {
+    ...(more.length > 0 ? { moreChallengers: more } : {}),
     n,
     bads,
     goods: knownAccounts - bads,
@@ -134,14 +164,44 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
     knownAccounts,
     weight,
     known,
-    inferred: probability === null || inference.method === 'known-only' ? null : { method: inference.method, probability },
+    inferred,
+    inferredBadsBefore: inferred === null ? null : { champion: inferredBads(champion, inferred.probability), challenger: inferredBads(challenger, inferred.probability) },
     bad,
     exposure: holdout.exposure,
     segments: holdout.segments,
     requestedBands: options.bands,
     champion,
-    challenger: model('challenger'),
+    challenger,
   };
+}
+
+function inferredBadsBefore(prepared: PreparedModel, p: Float64Array, bad: Uint8Array, weight: Float64Array | null, known: Uint8Array | null): Float64Array {
+  const n = bad.length;
+  const before = new Float64Array(n + 1);
+  for (let k = 0; k < n; k++) {
+    const row = prepared.order[k];
+    const w = weight === null ? 1 : weight[row];
+    before[k + 1] = before[k] + (known === null || known[row] ? (bad[row] ? w : 0) : w * p[row]);
+  }
+  return before;
+}
+
+/**
+ * Several challengers: the champion against challenger k (0 = the primary, `data` itself), as
+ * preparePolicyData gives it for the holdout with that challenger in the challenger's place (the
+ * reject inference depends on the champion only). No copy: O(1).
+ */
+export function pairData(data: PreparedHoldout, k: number): PreparedHoldout {
+  if (k === 0) return data;
+  const extra = data.moreChallengers?.[k - 1];
+  if (!extra) throw new RangeError(`no challenger ${k} in the prepared data`);
+  const pair: PreparedHoldout = {
+    ...data,
+    challenger: extra.model,
+    inferredBadsBefore: data.inferredBadsBefore === null || extra.inferredBadsBefore === null ? null : { champion: data.inferredBadsBefore.champion, challenger: extra.inferredBadsBefore },
+  };
+  delete pair.moreChallengers;
+  return pair;
 }
 
 function prepareModel(
@@ -150,7 +210,7 @@ function prepareModel(
   higherIs: HigherIs,
   bad: Uint8Array,
   bands: number,
-  givenOrder: Uint32Array | undefined,
+  given: Uint32Array | ScoreBlocks | undefined,
   weight: Float64Array | null,
   known: Uint8Array | null,
 ): PreparedModel {
@@ -159,17 +219,19 @@ function prepareModel(
     if (!Number.isFinite(raw[i])) throw new Error(`${name} score is not a finite number for account ${i + 1}`);
   }
   const safe = safety(raw, higherIs);
-  const order = givenOrder ?? argsortAscending(safe);
+  const plain = weight === null && known === null;
+  const givenBlocks = given !== undefined && !(given instanceof Uint32Array) && plain ? given : null;
+  const order = given === undefined ? argsortAscending(safe) : given instanceof Uint32Array ? given : given.order;
   if (order.length !== n) throw new Error(`${name} order must have one entry per account`);
 
   const sorted = new Float64Array(n);
-  const plain = weight === null && known === null;
   const badsBefore = plain ? new Uint32Array(n + 1) : new Float64Array(n + 1);
   const accountsBefore = weight === null ? null : new Float64Array(n + 1);
   const knownBefore = known === null ? null : new Float64Array(n + 1);
   const ends = new Uint32Array(n);
   let blocks = 0;
-  for (let k = 0; k < n; k++) {
+  if (givenBlocks !== null) blocks = fromBlocks(name, givenBlocks, safe, bad, sorted, badsBefore as Uint32Array, ends);
+  for (let k = 0; givenBlocks === null && k < n; k++) {
     const row = order[k];
     sorted[k] = safe[row];
     if (plain) badsBefore[k + 1] = badsBefore[k] + bad[row];
@@ -184,7 +246,7 @@ function prepareModel(
       if (sorted[k] !== sorted[k - 1]) ends[blocks++] = k;
     }
   }
-  ends[blocks++] = n;
+  if (givenBlocks === null) ends[blocks++] = n;
   const blockEnds = ends.slice(0, blocks);
 
   // Band rule (see the header): each block goes wholly to the band its middle falls in.
@@ -223,6 +285,33 @@ function prepareModel(
     band,
     bandEnds: Uint32Array.from(bandEndList),
   };
+}
+
+/**
+ * prepareModel's sorted values, bad counts and block ends from a model's ScoreBlocks (see
+ * PrepareOptions.blocks): the same arrays the row-by-row pass fills, in sequential passes.
+ * Returns the number of blocks.
+ */
+function fromBlocks(name: ModelName, blocks: ScoreBlocks, safe: Float64Array, bad: Uint8Array, sorted: Float64Array, badsBefore: Uint32Array, ends: Uint32Array): number {
+  const { order, start, value, sortedBad, count } = blocks;
+  const n = order.length;
+  if (start[count] !== n || sortedBad.length !== n) throw new Error(`${name} blocks do not cover every account`);
+  for (let b = 0; b < count; b++) {
+    const from = start[b];
+    const to = start[b + 1];
+    if (!(to > from) || (b > 0 && !(value[b] > value[b - 1]))) throw new Error(`${name} blocks are not ascending by safety at block ${b}`);
+    if (value[b] === 0) for (let k = from; k < to; k++) sorted[k] = safe[order[k]];
+    else sorted.fill(value[b], from, to);
+    for (let k = from; k < to; k++) badsBefore[k + 1] = badsBefore[k] + sortedBad[k];
+    ends[b] = to;
+  }
+  const check = (k: number) => {
+    const row = order[k];
+    if (sorted[k] !== safe[row] || sortedBad[k] !== bad[row]) throw new Error(`${name} blocks do not match the scores at position ${k}`);
+  };
+  for (let k = 0; k < n; k += 1024) check(k);
+  if (n > 0) check(n - 1);
+  return count;
 }
 
 /** Score range of the accounts at sorted positions [start, end), in the model's own units. */

@@ -17,15 +17,16 @@ import { bootstrap } from './bootstrap';
 import { calibrationSection, type ReferenceSample, stabilitySection } from './calibration-stability';
 import { curves } from './curves';
 import { dataQuality } from './data-quality';
-import { pairedDelong } from './delong';
 import { economics } from './economics';
 import type { Holdout } from './holdout';
-import { levelOrder } from './holdout';
 import { knownRows, population } from './known-rows';
 import { ks } from './ks';
 import { safety, scoreBlocks, weighBlocks } from './order';
 import { preparePolicyData } from './policy-data';
+import { addChallengerSections } from './report-challengers';
 import { segments } from './segments';
+import { addSegmentPopulation } from './segment-population';
+import { severalChallengers } from './several-challengers';
 import { StatisticError } from './statistic-error';
 import { strategyCurve } from './strategy-curve';
 import { swapMatrix } from './swap-matrix';
@@ -37,11 +38,12 @@ import { verdict } from './verdict';
  * Holdout in column form. A plain async function over typed arrays, so it runs the same in the
  * CLI, in a test, or inside a job's worker thread (the bootstrap starts its own threads).
  *
- * Order of work: both models sorted once (order.ts) → AUC, paired DeLong and KS (auc.ts,
- * delong.ts, ks.ts) → the bootstrap (bootstrap.ts, most of the time) → swap sets, swap matrix,
- * strategy curve, band tables, curves, economics and data quality on data prepared from the same
- * orders (policy-data.ts and its consumers) → segments (segments.ts) → the verdict under the
- * adoption policy (verdict.ts). Cost: O(n log n) + O(replicates · cells).
+ * Order of work: both models sorted once (order.ts) → the bootstrap (bootstrap.ts, most of the
+ * time) started on its threads, and beside it AUC, paired DeLong and KS (auc.ts, delong.ts,
+ * ks.ts) → swap sets, swap matrix, strategy curve, band tables, curves, economics and data
+ * quality on data prepared from the same orders (policy-data.ts and its consumers) → segments
+ * (segments.ts) → calibration and stability → the bootstrap's results awaited → the verdict under
+ * the adoption policy (verdict.ts). Cost: O(n log n) + O(replicates · cells).
  *
  * Sampling weights and applicants without an outcome (holdout.weight, holdout.known): AUC, KS,
  * DeLong, the bootstrap, curves, economics and the segments' Ginis use the rows with a known
@@ -54,7 +56,7 @@ import { verdict } from './verdict';
  */
 
 /** Version of the statistics engine, stored with every report (bump when a number can change). */
-export const engineVersion = '1.3.0';
+export const engineVersion = '1.4.0';
 
 export interface AnalysisProgress {
   /** 0 to 1. */
@@ -74,6 +76,8 @@ export interface BuildReportInput {
   /** What the reader counted (reader/load.ts `ReadSummary`); without it the holdout is taken as read. */
   read?: { rowsRead: number; rowsDroppedMissingScore: number; missingByColumn: Record<string, number> };
   onProgress?: (progress: AnalysisProgress) => void;
+  /** Told as each stage of this thread starts, the bootstrap running beside it or not (the benchmark's time and memory per stage). */
+  onStage?: (stage: string) => void;
   /** Bootstrap threads (see bootstrap.ts); default one per core for large jobs. */
   threads?: number;
   /** The development sample's scores, for the PSI (calibration-stability.ts); null or absent: none. */
@@ -110,6 +114,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   const inference = settings.rejectInference ?? defaultRejectInference;
 
   report(0, 'Ranking both models');
+  request.onStage?.('ranking both models');
   const championSafety = safety(knownHoldout.champion, knownHoldout.higherIs.champion);
   const challengerSafety = safety(knownHoldout.challenger, knownHoldout.higherIs.challenger);
   let championBlocks = scoreBlocks(championSafety, bad);
@@ -118,60 +123,143 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     championBlocks = weighBlocks(championBlocks, knownHoldout.weight);
     challengerBlocks = weighBlocks(challengerBlocks, knownHoldout.weight);
   }
-  report(PROGRESS.ranked, 'AUC, DeLong and KS');
-
-  const delong = pairedDelong(championBlocks, challengerBlocks, bad, settings.confidence);
-  const championKs = ks(championBlocks, holdout.higherIs.champion);
-  const challengerKs = ks(challengerBlocks, holdout.higherIs.challenger);
-  report(PROGRESS.delong, settings.bootstrap > 0 ? `Bootstrap 0 of ${count(settings.bootstrap)}` : 'Swap sets, strategy curve and bands');
-
-  const span = PROGRESS.bootstrap - PROGRESS.delong;
-  const boot = await bootstrap(championBlocks, challengerBlocks, bad, {
+  // Several challengers: the further ones ranked the same way (one sort each).
+  const moreBlocks = (knownHoldout.moreChallengers ?? []).map((extra) => {
+    const blocks = scoreBlocks(safety(extra.scores, extra.higherIs), bad);
+    return knownHoldout.weight ? weighBlocks(blocks, knownHoldout.weight) : blocks;
+  });
+  // With replicates, the bootstrap's threads run beside every later stage until its results are
+  // needed (the difference's intervals and the verdict): both cores work on every stage. Those
+  // stages then report nothing until it ends (its share of the bar is the largest), and an error
+  // in one of them stops the threads.
+  const beside = settings.bootstrap > 0;
+  report(PROGRESS.ranked, beside ? `Bootstrap 0 of ${count(settings.bootstrap)}` : 'AUC, DeLong and KS');
+  const span = PROGRESS.bootstrap - PROGRESS.ranked;
+  const stop = new AbortController();
+  let bootstrapDone = !beside;
+  const booting = bootstrap(championBlocks, challengerBlocks, bad, {
     replicates: settings.bootstrap,
     seed: settings.seed,
     confidence: settings.confidence,
     threads: request.threads,
-    onProgress: (done, total) => report(PROGRESS.delong + (span * done) / total, `Bootstrap ${count(done)} of ${count(total)}`),
-  });
-  report(PROGRESS.bootstrap, 'Swap sets, strategy curve and bands');
-
-  const knownOrders = { champion: championBlocks.order, challenger: challengerBlocks.order };
-  const data = preparePolicyData(holdout, {
-    bands: settings.bands,
-    orders: knownHoldout === holdout ? knownOrders : undefined,
-    inference,
-  });
-  // Curves and economics need an outcome: the rows with one (the same data when all are known).
-  const knownData = knownHoldout === holdout ? data : preparePolicyData(knownHoldout, { bands: settings.bands, orders: knownOrders });
-  const swap = swapSets(
-    data,
-    settings.cutoffs === null
-      ? { basis: 'approval-rate', approvalRate: settings.approvalRate }
-      : { basis: 'cutoffs', cutoffs: settings.cutoffs },
-    settings.confidence,
+    signal: stop.signal,
+    onProgress: (done, total) => report(PROGRESS.ranked + (span * done) / total, `Bootstrap ${count(done)} of ${count(total)}`),
+  }, moreBlocks);
+  booting.then(
+    () => (bootstrapDone = true),
+    () => {},
   );
-  let swapAtPolicyRate: SwapSets | null = null;
-  if (policy.swapRule.enabled) {
-    swapAtPolicyRate =
-      swap.basis === 'approval-rate' && swap.requestedApprovalRate === policy.swapRule.approvalRate
-        ? swap
-        : swapSets(data, { basis: 'approval-rate', approvalRate: policy.swapRule.approvalRate }, settings.confidence);
-  }
-  const matrix = swapMatrix(data);
-  const strategy = strategyCurve(data, settings.approvalRate);
-  const bands = { champion: bandTable(data, 'champion'), challenger: bandTable(data, 'challenger') };
-  const curvePoints = curves(knownData);
-  const profit = settings.economics === null ? null : economics(knownData, settings.economics);
-  const quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
-  report(PROGRESS.policy, 'Segments');
+  const stage = (fraction: number, label: string) => {
+    if (bootstrapDone) report(fraction, label);
+  };
+  // Between stages, the event loop hands the threads their next blocks.
+  const breathe = () => (beside ? new Promise<void>((resolve) => setImmediate(resolve)) : Promise.resolve());
 
-  const segmentRows = segments(knownHoldout, {
-    champion: championBlocks,
-    challenger: challengerBlocks,
-    policy,
-    confidence: settings.confidence,
-  });
-  if (!plain) addSegmentPopulation(segmentRows, holdout);
+  let boot: Awaited<typeof booting>;
+  let several: ReturnType<typeof severalChallengers>;
+  let delong: ReturnType<typeof severalChallengers>['vsChampion'][number]['delong'];
+  let moreKs: ReturnType<typeof ks>[];
+  let championKs: ReturnType<typeof ks>;
+  let challengerKs: ReturnType<typeof ks>;
+  let data: ReturnType<typeof preparePolicyData>;
+  let knownData: ReturnType<typeof preparePolicyData>;
+  let swap: SwapSets;
+  let swapAtPolicyRate: SwapSets | null = null;
+  let matrix: ReturnType<typeof swapMatrix>;
+  let strategy: ReturnType<typeof strategyCurve>;
+  let bands: { champion: ReturnType<typeof bandTable>; challenger: ReturnType<typeof bandTable> };
+  let curvePoints: ReturnType<typeof curves>;
+  let profit: ReturnType<typeof economics> | null;
+  let quality: ReturnType<typeof dataQuality>;
+  let segmentRows: SegmentRow[];
+  let calibration: ReturnType<typeof calibrationSection>;
+  let stability: ReturnType<typeof stabilitySection>;
+  try {
+    // Each challenger against the champion (the primary's is the two-model paired DeLong, unchanged),
+    // Holm across them, every pair, and the joint test.
+    request.onStage?.('AUC, DeLong and KS');
+    several = severalChallengers(championBlocks, [challengerBlocks, ...moreBlocks], bad, settings.confidence);
+    delong = several.vsChampion[0].delong;
+    championKs = ks(championBlocks, holdout.higherIs.champion);
+    challengerKs = ks(challengerBlocks, holdout.higherIs.challenger);
+    moreKs = moreBlocks.map((blocks, index) => ks(blocks, holdout.moreChallengers![index].higherIs));
+    stage(PROGRESS.delong, 'Swap sets, strategy curve and bands');
+    await breathe();
+
+    request.onStage?.('policy data (sorted positions, bands)');
+    const knownOrders = { champion: championBlocks.order, challenger: challengerBlocks.order };
+    data = preparePolicyData(holdout, {
+      bands: settings.bands,
+      orders: knownHoldout === holdout ? knownOrders : undefined,
+      blocks: knownHoldout === holdout ? { champion: championBlocks, challenger: challengerBlocks } : undefined,
+      moreOrders: knownHoldout === holdout ? moreBlocks.map((blocks) => blocks.order) : undefined,
+      inference,
+    });
+    // Curves and economics need an outcome: the rows with one (the same data when all are known).
+    knownData =
+      knownHoldout === holdout ? data : preparePolicyData(knownHoldout, { bands: settings.bands, orders: knownOrders, moreOrders: moreBlocks.map((blocks) => blocks.order) });
+    request.onStage?.('swap sets, swap matrix, strategy curve, bands');
+    swap = swapSets(
+      data,
+      settings.cutoffs === null
+        ? { basis: 'approval-rate', approvalRate: settings.approvalRate }
+        : { basis: 'cutoffs', cutoffs: settings.cutoffs },
+      settings.confidence,
+    );
+    if (policy.swapRule.enabled) {
+      swapAtPolicyRate =
+        swap.basis === 'approval-rate' && swap.requestedApprovalRate === policy.swapRule.approvalRate
+          ? swap
+          : swapSets(data, { basis: 'approval-rate', approvalRate: policy.swapRule.approvalRate }, settings.confidence);
+    }
+    await breathe();
+    matrix = swapMatrix(data);
+    strategy = strategyCurve(data, settings.approvalRate);
+    bands = { champion: bandTable(data, 'champion'), challenger: bandTable(data, 'challenger') };
+    await breathe();
+    request.onStage?.('curves and economics');
+    curvePoints = curves(knownData);
+    profit = settings.economics === null ? null : economics(knownData, settings.economics);
+    await breathe();
+    request.onStage?.('data quality');
+    quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
+    stage(PROGRESS.policy, 'Segments');
+    await breathe();
+
+    request.onStage?.('segments');
+    segmentRows = segments(knownHoldout, {
+      champion: championBlocks,
+      challenger: challengerBlocks,
+      policy,
+      confidence: settings.confidence,
+    });
+    if (!plain) addSegmentPopulation(segmentRows, holdout);
+    await breathe();
+    // On the rows with a known outcome (their own bands), with their sampling weights.
+    const sectionInput = {
+      holdout: knownHoldout,
+      data: knownData,
+      settings,
+      policy,
+      pd: { champion: mapping.probabilityOfDefault?.champion === true, challenger: mapping.probabilityOfDefault?.challenger === true },
+      columns: { champion: mapping.champion, challenger: mapping.challenger },
+      weights: knownHoldout.weight ?? null,
+      overallDeltaGini: delong.difference.gini,
+      reference: request.reference ?? null,
+    };
+    request.onStage?.('calibration');
+    calibration = calibrationSection(sectionInput);
+    await breathe();
+    request.onStage?.('stability');
+    stability = stabilitySection(sectionInput);
+    request.onStage?.('waiting for the bootstrap');
+    boot = await booting;
+  } catch (error) {
+    stop.abort(error);
+    await booting.catch(() => {});
+    throw error;
+  }
+  request.onStage?.('verdict and the challengers’ sections');
   report(PROGRESS.segments, 'Verdict');
 
   const model = (name: 'champion' | 'challenger', ksResult: { ks: number; score: number }, ksCi: [number, number] | null): ModelMetrics => {
@@ -209,44 +297,26 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     economics: profit,
     verdict: { outcome: 'not-proven', policyVersion: policy.version, criteria: [], summary: '' },
   };
-  // On the rows with a known outcome (their own bands), with their sampling weights.
-  const weights: Float64Array | null = knownHoldout.weight ?? null;
-  const sectionInput = {
-    holdout: knownHoldout,
-    data: knownData,
+  result.calibration = calibration;
+  result.stability = stability;
+  result.verdict = verdict(result, policy, swapAtPolicyRate);
+  addChallengerSections(result, {
+    holdout,
+    knownHoldout,
+    data,
+    knownData,
     settings,
     policy,
-    pd: { champion: mapping.probabilityOfDefault?.champion === true, challenger: mapping.probabilityOfDefault?.challenger === true },
-    columns: { champion: mapping.champion, challenger: mapping.challenger },
-    weights,
-    overallDeltaGini: difference.gini,
-    reference: request.reference ?? null,
-  };
-  result.calibration = calibrationSection(sectionInput);
-  result.stability = stabilitySection(sectionInput);
-  result.verdict = verdict(result, policy, swapAtPolicyRate);
+    mapping,
+    read: request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} },
+    championBlocks,
+    blocks: [challengerBlocks, ...moreBlocks],
+    several,
+    championKs,
+    ks: [challengerKs, ...moreKs],
+    boot,
+    swapAtPolicyRate,
+  });
   report(1, 'Done');
   return result;
-}
-
-/** Each segment row's applicants (weighted, every row) and those without an outcome. O(n) per column. */
-function addSegmentPopulation(rows: SegmentRow[], holdout: Holdout): void {
-  const weight = holdout.weight ?? null;
-  const known = holdout.known ?? null;
-  for (const column of holdout.segments) {
-    const accounts = new Float64Array(column.levels.length);
-    const unknown = new Float64Array(column.levels.length);
-    for (let i = 0; i < holdout.n; i++) {
-      const w = weight === null ? 1 : weight[i];
-      accounts[column.codes[i]] += w;
-      if (known !== null && !known[i]) unknown[column.codes[i]] += w;
-    }
-    for (const level of levelOrder(column.levels)) {
-      const row = rows.find((candidate) => candidate.column === column.column && candidate.value === column.levels[level]);
-      if (row) {
-        row.accounts = accounts[level];
-        row.unknown = unknown[level];
-      }
-    }
-  }
 }

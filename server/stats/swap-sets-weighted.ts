@@ -2,7 +2,7 @@ import type { SegmentSwapCell, SwapSegmentRow, SwapSets } from '@shared/report';
 import type { LocatedCutoff } from './cutoffs';
 import { levelOrder } from './holdout';
 import type { PreparedHoldout } from './policy-data';
-import { BOTH_ACCEPT, BOTH_REJECT, SWAP_IN, SWAP_OUT, type SwapRequest } from './swap-sets';
+import { BOTH_ACCEPT, segmentApproval, SWAP_IN, SWAP_OUT, type SwapRequest, swapResult } from './swap-result';
 import { swapTest } from './swap-test';
 import { kishSize, wilsonEffective } from './wilson-effective';
 
@@ -67,6 +67,21 @@ function cellAt(data: PreparedHoldout, sums: Float64Array, at: number, confidenc
   };
 }
 
+/**
+ * The test compares known outcomes only: a side with accounts but none with a known outcome (e.g.
+ * a swap-in the champion declined entirely) is named as such, not as an empty side.
+ */
+function withoutKnown(test: SwapSets['test'], accountsIn: number, accountsOut: number): SwapSets['test'] {
+  if (test.p !== null || test.z !== null) return test;
+  const reason = test.reason ?? '';
+  const inUnknown = accountsIn > 0 && reason.includes('no swap-in');
+  const outUnknown = accountsOut > 0 && reason.includes('no swap-out');
+  if (inUnknown && outUnknown) return { ...test, reason: 'no swap-in or swap-out account has a known outcome: only their inferred bad rates and bounds describe them' };
+  const side = inUnknown ? 'swap-in' : outUnknown ? 'swap-out' : null;
+  if (side === null) return test;
+  return { ...test, reason: `no ${side} account has a known outcome (the ${side} accounts were not booked): only its inferred bad rate and bounds describe it` };
+}
+
 /** Known bads and known accounts of a cell as whole effective accounts, for the swap test. */
 function effective(sums: Float64Array, at: number): { bads: number; size: number } {
   const known = sums[at + 2];
@@ -89,18 +104,8 @@ export function weightedSwapSets(data: PreparedHoldout, request: SwapRequest, ch
   };
   const swapIn = effective(sums, SWAP_IN * FIELDS);
   const swapOut = effective(sums, SWAP_OUT * FIELDS);
-  return {
-    basis: request.basis,
-    requestedApprovalRate: request.basis === 'approval-rate' ? request.approvalRate : null,
-    champion: champion.position,
-    challenger: challenger.position,
-    bothAccept: cell(BOTH_ACCEPT),
-    swapIn: cell(SWAP_IN),
-    swapOut: cell(SWAP_OUT),
-    bothReject: cell(BOTH_REJECT),
-    test: swapTest(swapIn.bads, swapIn.size, swapOut.bads, swapOut.size),
-    bySegment: bySegment(data, cells, confidence),
-  };
+  const test = withoutKnown(swapTest(swapIn.bads, swapIn.size, swapOut.bads, swapOut.size), sums[SWAP_IN * FIELDS + 1], sums[SWAP_OUT * FIELDS + 1]);
+  return swapResult(request, champion, challenger, cell, test, bySegment(data, cells, confidence));
 }
 
 function bySegment(data: PreparedHoldout, cells: Uint8Array, confidence: number): SwapSegmentRow[] {
@@ -112,12 +117,8 @@ function bySegment(data: PreparedHoldout, cells: Uint8Array, confidence: number)
       const field = (cell: number, f: number) => sums[base + cell * FIELDS + f];
       const total = (f: number) => field(0, f) + field(1, f) + field(2, f) + field(3, f);
       const accounts = total(1);
-      const approval = (accepted: number, other: number) => {
-        const approved = field(accepted, 1) + field(other, 1);
-        const approvedKnown = field(accepted, 2) + field(other, 2);
-        const approvedBads = field(accepted, 3) + field(other, 3);
-        return { approved, approvalRate: accounts > 0 ? approved / accounts : 0, approvedBadRate: approvedKnown > 0 ? approvedBads / approvedKnown : null };
-      };
+      const approval = (accepted: number, other: number) =>
+        segmentApproval(accounts, field(accepted, 1) + field(other, 1), field(accepted, 2) + field(other, 2), field(accepted, 3) + field(other, 3));
       rows.push({
         column,
         value: levels[level],

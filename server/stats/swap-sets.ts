@@ -2,6 +2,7 @@ import type { SegmentSwapCell, SwapCell, SwapSegmentRow, SwapSets } from '@share
 import { locateCutoff, type LocatedCutoff } from './cutoffs';
 import { levelOrder } from './holdout';
 import type { PreparedHoldout } from './policy-data';
+import { BOTH_ACCEPT, segmentApproval, SWAP_IN, SWAP_OUT, type SwapRequest, swapResult } from './swap-result';
 import { swapTest } from './swap-test';
 import { weightedSwapSets } from './swap-sets-weighted';
 import { wilsonInterval } from './wilson';
@@ -27,15 +28,7 @@ import { wilsonInterval } from './wilson';
  * more per segment column.
  */
 
-export type SwapRequest =
-  | { basis: 'cutoffs'; cutoffs: { champion: number; challenger: number } }
-  | { basis: 'approval-rate'; approvalRate: number };
-
-// Cell index: bit 0 = champion accepts, bit 1 = challenger accepts.
-export const BOTH_REJECT = 0;
-export const SWAP_OUT = 1;
-export const SWAP_IN = 2;
-export const BOTH_ACCEPT = 3;
+export type { SwapRequest } from './swap-result';
 
 export function swapSets(data: PreparedHoldout, request: SwapRequest, confidence: number): SwapSets {
   const { champion, challenger } = locateBoth(data, request);
@@ -89,18 +82,8 @@ function plainSwapSets(data: PreparedHoldout, request: SwapRequest, champion: Lo
     share: counts[index] / n,
   });
 
-  return {
-    basis: request.basis,
-    requestedApprovalRate: request.basis === 'approval-rate' ? request.approvalRate : null,
-    champion: champion.position,
-    challenger: challenger.position,
-    bothAccept: cell(BOTH_ACCEPT),
-    swapIn: cell(SWAP_IN),
-    swapOut: cell(SWAP_OUT),
-    bothReject: cell(BOTH_REJECT),
-    test: swapTest(bads[SWAP_IN], counts[SWAP_IN], bads[SWAP_OUT], counts[SWAP_OUT]),
-    bySegment: cells ? swapBySegment(data, cells, confidence) : [],
-  };
+  const test = swapTest(bads[SWAP_IN], counts[SWAP_IN], bads[SWAP_OUT], counts[SWAP_OUT]);
+  return swapResult(request, champion, challenger, cell, test, cells ? swapBySegment(data, cells, confidence) : []);
 }
 
 /** A cell's count, bads, bad rate with its Wilson interval, and amount. */
@@ -131,8 +114,7 @@ function swapBySegment(data: PreparedHoldout, cells: Uint8Array, confidence: num
       const accounts = counts[at] + counts[at + 1] + counts[at + 2] + counts[at + 3];
       const approval = (accepted: number, other: number) => {
         const approved = counts[at + accepted] + counts[at + other];
-        const approvedBads = bads[at + accepted] + bads[at + other];
-        return { approved, approvalRate: accounts > 0 ? approved / accounts : 0, approvedBadRate: approved > 0 ? approvedBads / approved : null };
+        return segmentApproval(accounts, approved, approved, bads[at + accepted] + bads[at + other]);
       };
       rows.push({
         column,

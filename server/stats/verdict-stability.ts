@@ -1,4 +1,5 @@
 import type { Calibration, Stability } from '@shared/calibration';
+import { formatCount, formatDecimal, formatFixed, formatGiniDelta, formatPercent, formatPInWords } from '@shared/format';
 import type { AdoptionPolicy } from '@shared/policy';
 import type { Criterion } from '@shared/report';
 
@@ -21,9 +22,6 @@ export interface StabilityEvidence {
   difference: { gini: number };
 }
 
-const pText = (p: number) => (p < 0.001 ? `p = ${p.toExponential(1)}` : `p = ${Number(p.toPrecision(2))}`);
-const points = (gini: number) => (gini * 100).toFixed(1).replace('-', '−');
-
 export function stabilityCriteria(report: StabilityEvidence, policy: AdoptionPolicy): Criterion[] {
   const criteria: Criterion[] = [];
   const predates = 'this report was made before the engine computed it (run the analysis again)';
@@ -39,9 +37,10 @@ export function stabilityCriteria(report: StabilityEvidence, policy: AdoptionPol
       criteria.push({
         ...base,
         met,
-        detail: `portfolio Jeffreys ${pText(portfolio.jeffreysP)} ${met ? '>' : '≤'} α = ${alpha}: mean PD ${(portfolio.meanPd * 100).toFixed(2)}% against an observed bad rate of ${(
-          portfolio.observedBadRate * 100
-        ).toFixed(2)}% (${Math.round(portfolio.expectedBads).toLocaleString('en-US')} bads expected, ${Math.round(portfolio.observedBads).toLocaleString('en-US')} observed)${
+        detail: `portfolio Jeffreys ${formatPInWords(portfolio.jeffreysP)} ${met ? '>' : '≤'} α = ${alpha}: mean PD ${formatPercent(portfolio.meanPd, 2)} against an observed bad rate of ${formatPercent(
+          portfolio.observedBadRate,
+          2,
+        )} (${formatCount(portfolio.expectedBads)} bads expected, ${formatCount(portfolio.observedBads)} observed)${
           model.failing > 0 ? `; ${model.failing} ${model.groupedBy.kind === 'grades' ? 'grade' : 'band'}${model.failing === 1 ? '' : 's'} below α on their own` : ''
         }`,
       });
@@ -60,9 +59,7 @@ export function stabilityCriteria(report: StabilityEvidence, policy: AdoptionPol
       criteria.push({
         ...base,
         met,
-        detail: `PSI = ${value.toFixed(3)} against ${against}, ${met ? 'below' : 'not below'} the ${threshold} threshold (critical value ${section.challenger.criticalValue.toFixed(4)} at α = ${Number(
-          section.challenger.criticalAlpha.toFixed(3),
-        )})`,
+        detail: `PSI = ${formatFixed(value, 3)} against ${against}, ${met ? 'below' : 'not below'} the ${threshold} threshold (critical value ${formatFixed(section.challenger.criticalValue, 4)} at α = ${formatDecimal(section.challenger.criticalAlpha, 3)})`,
       });
     }
   }
@@ -85,7 +82,7 @@ export function stabilityCriteria(report: StabilityEvidence, policy: AdoptionPol
           ...base,
           met: false,
           detail: `ΔGini changes sign in ${changed.length} of ${counted.length} periods with at least ${minBads} bads: ${changed
-            .map((row) => `${row.period} (${points(row.deltaGini!)} points)`)
+            .map((row) => `${row.period} (${formatGiniDelta(row.deltaGini)} points)`)
             .join(', ')}`,
         });
       }

@@ -1,5 +1,6 @@
 import { formatCount, formatPercent, formatShare } from '@shared/format';
 import { type AdoptionPolicy } from '@shared/policy';
+import { inferenceWords } from '@shared/population-words';
 import { type Criterion, inferenceOf, type AnalysisSettings, type SwapCell, type SwapSets } from '@shared/report';
 
 /**
@@ -18,7 +19,7 @@ export function swapCriterionWithUnknowns(swap: SwapSets, policy: AdoptionPolicy
   const inference = inferenceOf(settings);
   const rate = policy.swapRule.approvalRate;
   const worstCase = policy.swapRule.worstCase ?? false;
-  const under = inference.method === 'known-only' ? 'known outcomes only' : inference.method === 'parcel' ? `parcelling (factor ${inference.parcelFactor})` : 'the inferred-bad column';
+  const under = inferenceWords(inference);
   const base = { id: 'swap-bad-rate' as const, label: `Swap-in bad rate not above swap-out (${under}${worstCase ? ', and at the worst case' : ''})` };
   const at = `at a ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;

@@ -1,9 +1,10 @@
 import { formatCount, formatFixed, formatPInWords, formatPercent, formatShare } from '@shared/format';
 import type { AdoptionPolicy } from '@shared/policy';
-import type { Criterion, Report, SegmentRow, SwapSets, Verdict } from '@shared/report';
+import { type Criterion, inferenceOf, type Report, type SegmentRow, type SwapSets, type Verdict } from '@shared/report';
 import { normalCdf } from './normal';
 import { stabilityCriteria } from './verdict-stability';
 import { segmentFlags, tooFewBads } from './segment-flags';
+import { inferenceWords } from '@shared/population-words';
 import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 /**
@@ -33,8 +34,23 @@ import { swapCriterionWithUnknowns } from './verdict-swap-unknown';
 
 export type VerdictEvidence = Pick<Report, 'bads' | 'settings' | 'difference' | 'swap'> & Partial<Pick<Report, 'calibration' | 'stability'>> & { segments?: Report['segments'] };
 
-export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null): Verdict {
-  const { difference } = report;
+/**
+ * Several challengers: the challenger is one of `challengers` tested against the champion, and the
+ * significance criterion (and the summary's p) use its Holm-adjusted p across them (holm.ts),
+ * stated as such. With one challenger the plain p is used and nothing is said (the same words).
+ */
+export interface Multiplicity {
+  challengers: number;
+  pOneSided: number | null;
+  pTwoSided: number | null;
+}
+
+export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtPolicyRate?: SwapSets | null, multiplicity?: Multiplicity): Verdict {
+  const adjusted = multiplicity !== undefined && multiplicity.challengers >= 2 ? multiplicity : null;
+  const difference = adjusted === null ? report.difference : { ...report.difference, pOneSided: adjusted.pOneSided, pTwoSided: adjusted.pTwoSided };
+  // "one-sided p = 0.003" becomes "Holm-adjusted one-sided p = 0.003 … across 3 challengers".
+  const holmed = (sided: string) => (adjusted === null ? sided : `Holm-adjusted ${sided}`);
+  const across = adjusted === null ? '' : ` across ${adjusted.challengers} challengers`;
   const alpha = policy.alpha;
   const level = `${percent(report.settings.confidence)} interval`;
   const giniPoints = difference.gini * 100;
@@ -52,8 +68,8 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
       met: p < alpha,
       detail:
         p < alpha
-          ? `one-sided ${pText(p)} < α = ${alpha} (DeLong test that the challenger's Gini is higher)`
-          : `one-sided ${pText(p)} is not below α = ${alpha} (DeLong test that the challenger's Gini is higher)`,
+          ? `${holmed('one-sided')} ${pText(p)} < α = ${alpha} (DeLong test that the challenger's Gini is higher${across})`
+          : `${holmed('one-sided')} ${pText(p)} is not below α = ${alpha} (DeLong test that the challenger's Gini is higher${across})`,
     });
   } else {
     const p = difference.pTwoSided!;
@@ -64,8 +80,8 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
       met: p < alpha && higher,
       detail:
         p < alpha
-          ? `two-sided ${pText(p)} < α = ${alpha} (DeLong test)${higher ? " and the challenger's Gini is higher" : ", but the challenger's Gini is not higher"}`
-          : `two-sided ${pText(p)} is not below α = ${alpha} (DeLong test)`,
+          ? `${holmed('two-sided')} ${pText(p)} < α = ${alpha} (DeLong test${across})${higher ? " and the challenger's Gini is higher" : ", but the challenger's Gini is not higher"}`
+          : `${holmed('two-sided')} ${pText(p)} is not below α = ${alpha} (DeLong test${across})`,
     });
   }
 
@@ -130,9 +146,9 @@ export function verdict(report: VerdictEvidence, policy: AdoptionPolicy, swapAtP
   let summary =
     noTest !== null || ci === null || p === null
       ? `${direction} (no interval or test: ${noTest})`
-      : `${direction} (${level} ${signedPoints(ci[0] * 100)} to ${signedPoints(ci[1] * 100)}, ${policy.sided} ${pText(p)})`;
+      : `${direction} (${level} ${signedPoints(ci[0] * 100)} to ${signedPoints(ci[1] * 100)}, ${holmed(policy.sided)} ${pText(p)}${across})`;
   const clauses: string[] = [];
-  if (swap) clauses.push(swapSummary(swap, policy.swapRule.approvalRate) + runRateNote(report, policy.swapRule.approvalRate));
+  if (swap) clauses.push(swapSummary(swap, policy.swapRule.approvalRate, inferenceOf(report.settings)) + runRateNote(report, policy.swapRule.approvalRate));
   if (worseSegments && worseSegments.length > 0) clauses.push(`it is significantly worse in ${worseSegments.map(segmentText).join(', ')}`);
   summary += clauses.length > 0 ? `; ${clauses.join('; ')}.` : '.';
 
@@ -223,17 +239,21 @@ function swapCriterion(swap: SwapSets | null, rate: number): Criterion {
   };
 }
 
-function swapSummary(swap: SwapSets, rate: number): string {
+function swapSummary(swap: SwapSets, rate: number, inference: ReturnType<typeof inferenceOf>): string {
   const at = `at the policy's ${percent(rate)} approval rate`;
   const { swapIn, swapOut } = swap;
   if (swapIn.count === 0 && swapOut.count === 0) return `${at} both models accept the same accounts`;
   // Weighted holdouts: applicants (rounded), the bad rate of those with an outcome.
   const inAccounts = Math.round(swapIn.accounts ?? swapIn.count);
   const outAccounts = Math.round(swapOut.accounts ?? swapOut.count);
-  const known = (swapIn.unknown ?? 0) + (swapOut.unknown ?? 0) > 0 ? ' known' : '';
-  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(inAccounts)} with a ${rateText(swapIn.badRate)}${known} bad rate`;
-  const outText = swapOut.count === 0 ? 'none' : `${count(outAccounts)} with a ${rateText(swapOut.badRate)}${known} bad rate`;
-  return `${at} it swaps in ${inText} for ${outText}`;
+  const unknowns = (swapIn.unknown ?? 0) + (swapOut.unknown ?? 0) > 0;
+  // Applicants without an outcome: the rates the swap rule judged, named (inferred, or known only).
+  const inferred = unknowns && inference.method !== 'known-only';
+  const stated = (cell: SwapSets['swapIn']) =>
+    inferred ? `an inferred ${rateText(cell.inferred?.badRate ?? null)} bad rate` : cell.badRate === null ? 'no known bad rate' : `a ${rateText(cell.badRate)}${unknowns ? ' known' : ''} bad rate`;
+  const inText = swapIn.count === 0 ? 'no accounts' : `${accounts(inAccounts)} with ${stated(swapIn)}`;
+  const outText = swapOut.count === 0 ? 'none' : `${count(outAccounts)} with ${stated(swapOut)}`;
+  return `${at} it swaps in ${inText} for ${outText}${inferred ? ` (${inferenceWords(inference)})` : ''}`;
 }
 
 /** A swap cell's accounts: summed weights (rounded) with weights, else its rows. */

@@ -14,6 +14,11 @@ export function presentUser(user: User): UserBody {
   };
 }
 
+/** `{ id, name }` of a person, as the API names actors and authors. */
+export function personRef(user: Pick<User, 'id' | 'name'>): { id: number; name: string } {
+  return { id: user.id, name: user.name };
+}
+
 /** Roles without repeats, in the order of shared/roles.ts. */
 export function normaliseRoles(roles: readonly Role[]): Role[] {
   return allRoles.filter((role) => roles.includes(role));

@@ -1,3 +1,4 @@
+import { equalApprovalSentence } from '../equal-approval-words';
 import { formatAuc, formatCount, formatGini, formatGiniDelta, formatInterval, formatKs, formatPercent, formatScore } from '../format';
 import type { Report } from '../report';
 import { swapInRiskier } from '../report';
@@ -14,18 +15,42 @@ import { normalQuantile } from '../stats/normal';
  * reference lines grey and dotted. Colour is never the only difference.
  */
 
-export type Ink = 'champion' | 'challenger' | 'reference' | 'axis' | 'grid' | 'text' | 'muted' | 'good' | 'goodSoft' | 'bad' | 'badSoft' | 'paper' | 'sunk';
+export type Ink =
+  | 'champion'
+  | 'challenger'
+  | 'championStrong'
+  | 'challengerStrong'
+  | 'reference'
+  | 'axis'
+  | 'grid'
+  | 'text'
+  | 'muted'
+  | 'good'
+  | 'goodStrong'
+  | 'goodSoft'
+  | 'bad'
+  | 'badSoft'
+  | 'paper'
+  | 'sunk';
 
-/** The palette (the same hex values as tailwind.config.ts), for both renderers. */
+/**
+ * The palette (the same hex values as tailwind.config.ts), for both renderers. Words are drawn
+ * only in inks with at least 4.5:1 against what is behind them (WCAG 2.1 AA; checked in
+ * tests/unit/shared/pack-contrast.test.ts): a model's name in its `…Strong` ink, never in the
+ * line colour (the challenger's copper is 3.9:1 on white, enough for lines, not for words).
+ */
 export const inkColors: Record<Ink, string> = {
   champion: '#6b5b95',
   challenger: '#c26a2e',
-  reference: '#687284',
+  championStrong: '#4f4172',
+  challengerStrong: '#8a4515',
+  reference: '#5f697a',
   axis: '#b9b4a6',
   grid: '#dedbd2',
   text: '#1d2430',
   muted: '#4a5567',
   good: '#2d7a66',
+  goodStrong: '#1f5d4d',
   goodSoft: '#dcefe8',
   bad: '#a33a3a',
   badSoft: '#f4dcdc',
@@ -43,7 +68,7 @@ export type Shape =
   | { kind: 'text'; x: number; y: number; text: string; anchor: 'start' | 'middle' | 'end'; size: number; bold: boolean; fill: Ink };
 
 export interface Chart {
-  id: 'uplift' | 'roc' | 'ks' | 'swap-grid' | 'strategy' | 'segments';
+  id: 'uplift' | 'roc' | 'ks' | 'swap-grid' | 'strategy' | 'segments' | 'calibration' | 'stability';
   title: string;
   /** The chart's message in a sentence, with its numbers. */
   caption: string;
@@ -54,7 +79,8 @@ export interface Chart {
 
 const FONT = 9;
 
-class Canvas {
+/** Where a chart's shapes are collected (also used by calibration-charts.ts). */
+export class Canvas {
   readonly shapes: Shape[] = [];
   line(x1: number, y1: number, x2: number, y2: number, stroke: Ink, width = 1, dash: Dash = 'solid'): void {
     this.shapes.push({ kind: 'line', x1, y1, x2, y2, stroke, width, dash });
@@ -73,13 +99,13 @@ class Canvas {
   }
 }
 
-const model = {
-  champion: { ink: 'champion' as const, dash: 'solid' as const, marker: 'circle' as const, label: 'Champion' },
-  challenger: { ink: 'challenger' as const, dash: 'dashed' as const, marker: 'triangle' as const, label: 'Challenger' },
+export const model = {
+  champion: { ink: 'champion' as const, textInk: 'championStrong' as const, dash: 'solid' as const, marker: 'circle' as const, label: 'Champion' },
+  challenger: { ink: 'challenger' as const, textInk: 'challengerStrong' as const, dash: 'dashed' as const, marker: 'triangle' as const, label: 'Challenger' },
 };
 
 /** A linear scale from a domain to a pixel range. */
-function scale(domain: [number, number], range: [number, number]): (value: number) => number {
+export function scale(domain: [number, number], range: [number, number]): (value: number) => number {
   const span = domain[1] - domain[0] || 1;
   return (value) => range[0] + ((value - domain[0]) / span) * (range[1] - range[0]);
 }
@@ -96,7 +122,7 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   return ticks;
 }
 
-function legend(canvas: Canvas, x: number, y: number, items: { label: string; key: 'champion' | 'challenger' | 'reference' }[]): void {
+export function legend(canvas: Canvas, x: number, y: number, items: { label: string; key: 'champion' | 'challenger' | 'reference' }[]): void {
   let at = x;
   for (const item of items) {
     const style = item.key === 'reference' ? { ink: 'reference' as const, dash: 'dotted' as const, marker: null } : model[item.key];
@@ -108,7 +134,7 @@ function legend(canvas: Canvas, x: number, y: number, items: { label: string; ke
 }
 
 /** Axes with ticks and labels around a plot box. */
-function axes(
+export function axes(
   canvas: Canvas,
   box: { left: number; top: number; right: number; bottom: number },
   x: { ticks: number[]; at: (v: number) => number; format: (v: number) => string; label: string },
@@ -131,7 +157,7 @@ function axes(
 const pct = (value: number) => formatPercent(value, 0);
 
 /** One horizontal interval row of a forest plot. */
-function intervalRow(canvas: Canvas, at: (v: number) => number, y: number, point: number | null, interval: readonly [number, number] | null, ink: Ink, marker: 'circle' | 'triangle' | 'diamond'): void {
+export function intervalRow(canvas: Canvas, at: (v: number) => number, y: number, point: number | null, interval: readonly [number, number] | null, ink: Ink, marker: 'circle' | 'triangle' | 'diamond'): void {
   if (interval) {
     canvas.line(at(interval[0]), y, at(interval[1]), y, ink, 1.5);
     canvas.line(at(interval[0]), y - 4, at(interval[0]), y + 4, ink, 1.5);
@@ -201,7 +227,7 @@ export function upliftChart(report: Report): Chart {
     canvas.text(at2(tick), axis2 + 12, formatGiniDelta(tick), { anchor: 'middle', size: 8, fill: 'muted' });
   }
   canvas.text(at2(0) - 3, axis2 + 24, 'no difference', { anchor: 'end', size: 8, fill: 'muted' });
-  canvas.text(at2(materiality) + 3, axis2 + 24, `materiality ${formatGiniDelta(materiality)}`, { anchor: 'start', size: 8, fill: 'good' });
+  canvas.text(at2(materiality) + 3, axis2 + 24, `materiality ${formatGiniDelta(materiality)}`, { anchor: 'start', size: 8, fill: 'goodStrong' });
   const where = difference.giniCi === null ? 'with no interval (too few goods or bads for a variance)' : difference.giniCi[0] > materiality ? 'wholly above the materiality line' : difference.giniCi[0] > 0 ? 'above zero but not wholly above the materiality line' : 'reaching zero or below';
   return {
     id: 'uplift',
@@ -257,7 +283,7 @@ export function ksChart(report: Report): Chart {
     const n = points.length;
     const x = scale([0, Math.max(1, n - 1)], [box.left, box.right]);
     const y = scale([0, 1], [box.bottom, box.top]);
-    canvas.text(left, 14, `${model[key].label}: KS ${formatKs(metrics.ks)} at ${formatScore(metrics.ksScore)}`, { bold: true, fill: model[key].ink });
+    canvas.text(left, 14, `${model[key].label}: KS ${formatKs(metrics.ks)} at ${formatScore(metrics.ksScore)}`, { bold: true, fill: model[key].textInk });
     const scoreTicks = n > 1 ? [0, Math.floor((n - 1) / 2), n - 1] : [0];
     axes(
       canvas,
@@ -297,10 +323,10 @@ export function swapGridChart(report: Report): Chart {
   const top = 44;
   const cellW = (width - left - 10) / 2;
   const cellH = 62;
-  canvas.text(left + cellW, 14, 'Challenger', { anchor: 'middle', bold: true, fill: 'challenger' });
+  canvas.text(left + cellW, 14, 'Challenger', { anchor: 'middle', bold: true, fill: 'challengerStrong' });
   canvas.text(left + cellW / 2, 32, `accepts (cut-off ${formatScore(swap.challenger.cutoff)})`, { anchor: 'middle', fill: 'muted' });
   canvas.text(left + cellW * 1.5, 32, 'declines', { anchor: 'middle', fill: 'muted' });
-  canvas.text(8, top + cellH - 4, 'Champion', { bold: true, fill: 'champion' });
+  canvas.text(8, top + cellH - 4, 'Champion', { bold: true, fill: 'championStrong' });
   canvas.text(left - 8, top + cellH / 2 + 3, `accepts (cut-off ${formatScore(swap.champion.cutoff)})`, { anchor: 'end', fill: 'muted' });
   canvas.text(left - 8, top + cellH * 1.5 + 3, 'declines', { anchor: 'end', fill: 'muted' });
   const cells = [
@@ -352,11 +378,10 @@ export function strategyChart(report: Report): Chart {
     { label: 'Champion', key: 'champion' },
     { label: 'Challenger', key: 'challenger' },
   ]);
-  const avoided = atApprovalRate.badsAvoided;
   return {
     id: 'strategy',
     title: 'Strategy curve',
-    caption: `At a ${formatPercent(atApprovalRate.approvalRate, 1)} approval rate the champion approves ${formatCount(atApprovalRate.championBads)} bads and the challenger ${formatCount(atApprovalRate.challengerBads)}: ${avoided >= 0 ? `${formatCount(avoided)} bads avoided` : `${formatCount(-avoided)} more bads`}.`,
+    caption: equalApprovalSentence(atApprovalRate),
     width,
     height: box.bottom + 50,
     shapes: canvas.shapes,

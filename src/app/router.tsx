@@ -1,5 +1,5 @@
 import { type QueryClient } from '@tanstack/react-query';
-import { type ComponentType } from 'react';
+import { type ComponentType, Suspense } from 'react';
 import { type LoaderFunction, type RouteObject, createBrowserRouter } from 'react-router';
 import { paths } from '@/config/paths';
 import { LoadingState } from '@/components/loading-state';
@@ -11,7 +11,8 @@ import { comparisonTabs } from '@/app/routes/comparisons/tabs';
 /**
  * A route module in app/routes exports `Component` and, when the page needs data or a guard,
  * `loader(queryClient)`: a loader factory that fills the query cache (`ensureQueryData`) so the
- * component reads it. Modules load lazily: each page is its own chunk.
+ * component reads it with `useSuspenseQuery`, without loading or error states of its own. Modules
+ * load lazily: each page is its own chunk.
  */
 interface RouteModule {
   Component: ComponentType;
@@ -23,6 +24,30 @@ function page(queryClient: QueryClient, load: () => Promise<RouteModule>): Pick<
     lazy: async () => {
       const module = await load();
       return { Component: module.Component, ...(module.loader ? { loader: module.loader(queryClient) } : {}) };
+    },
+  };
+}
+
+/**
+ * A page inside the app shell, with its own error boundary: a failed loader or query of the page
+ * (a comparison's tab, say) shows there, while the shell and the enclosing pages (the comparison's
+ * header and tabs) stay. A query the loader did not fill (the cache was cleared meanwhile)
+ * suspends into a loading state here rather than blanking the shell.
+ */
+function shellPage(queryClient: QueryClient, load: () => Promise<RouteModule>): Pick<RouteObject, 'lazy' | 'ErrorBoundary'> {
+  return {
+    ErrorBoundary: RouteErrorBoundary,
+    lazy: async () => {
+      const module = await load();
+      const Page = module.Component;
+      return {
+        Component: () => (
+          <Suspense fallback={<LoadingState label="Loading…" variant="skeleton" />}>
+            <Page />
+          </Suspense>
+        ),
+        ...(module.loader ? { loader: module.loader(queryClient) } : {}),
+      };
     },
   };
 }
@@ -55,28 +80,29 @@ export function createRoutes(queryClient: QueryClient): RouteObject[] {
           Component: AppShell,
           children: [
             {
-              // Errors of a page render inside the shell, so navigation stays available.
+              // Errors of a page render inside the shell, so navigation stays available; each page
+              // also has its own boundary (shellPage), so a tab's error keeps the comparison's frame.
               ErrorBoundary: RouteErrorBoundary,
               children: [
-                { index: true, ...page(queryClient, () => import('@/app/routes/home')) },
-                { path: paths.comparisons.list.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/list')) },
-                { path: paths.comparisons.new.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/new')) },
-                { path: paths.comparisons.setup.pattern, ...page(queryClient, () => import('@/app/routes/comparisons/setup')) },
+                { index: true, ...shellPage(queryClient, () => import('@/app/routes/home')) },
+                { path: paths.comparisons.list.pattern, ...shellPage(queryClient, () => import('@/app/routes/comparisons/list')) },
+                { path: paths.comparisons.new.pattern, ...shellPage(queryClient, () => import('@/app/routes/comparisons/new')) },
+                { path: paths.comparisons.setup.pattern, ...shellPage(queryClient, () => import('@/app/routes/comparisons/setup')) },
                 {
                   // The comparison shell (header, next step, tabs); each tab is a child route (tabs.ts).
                   path: paths.comparisons.detail.pattern,
-                  ...page(queryClient, () => import('@/app/routes/comparisons/layout')),
+                  ...shellPage(queryClient, () => import('@/app/routes/comparisons/layout')),
                   children: comparisonTabs.map((tab) =>
                     tab.path === paths.comparisons.detail
-                      ? { index: true, ...page(queryClient, tab.load) }
-                      : { path: tab.path.pattern, ...page(queryClient, tab.load) },
+                      ? { index: true, ...shellPage(queryClient, tab.load) }
+                      : { path: tab.path.pattern, ...shellPage(queryClient, tab.load) },
                   ),
                 },
-                { path: paths.admin.people.pattern, ...page(queryClient, () => import('@/app/routes/admin/people')) },
-                { path: paths.admin.outbox.pattern, ...page(queryClient, () => import('@/app/routes/admin/outbox')) },
-                { path: paths.admin.policy.pattern, ...page(queryClient, () => import('@/app/routes/admin/policy')) },
+                { path: paths.admin.people.pattern, ...shellPage(queryClient, () => import('@/app/routes/admin/people')) },
+                { path: paths.admin.outbox.pattern, ...shellPage(queryClient, () => import('@/app/routes/admin/outbox')) },
+                { path: paths.admin.policy.pattern, ...shellPage(queryClient, () => import('@/app/routes/admin/policy')) },
                 ...(import.meta.env.DEV
-                  ? [{ path: paths.dev.components.pattern, ...page(queryClient, () => import('@/app/routes/dev/components')) }]
+                  ? [{ path: paths.dev.components.pattern, ...shellPage(queryClient, () => import('@/app/routes/dev/components')) }]
                   : []),
                 { path: '*', ...page(queryClient, () => import('@/app/routes/not-found')) },
               ],

@@ -22,8 +22,9 @@ const asText = (fraction: number) => (Number.isFinite(fraction) ? String(Number(
 export function PercentField({ label, hint, error, value, onChange, onBlur, name, min = 0, max = 100, step = 0.1, className }: PercentFieldProps) {
   const [text, setText] = useState(() => asText(value));
   const [seen, setSeen] = useState(value);
-  // Follow a value set from outside (a reset, another control).
-  if (value !== seen) {
+  // Follow a value set from outside (a reset, another control). Object.is: NaN (an empty or
+  // unreadable field) equals itself, else clearing the field would re-render without end.
+  if (!Object.is(value, seen)) {
     setSeen(value);
     if (Number(text) / 100 !== value) setText(asText(value));
   }

@@ -88,14 +88,18 @@ export const paths = {
    * report as JSON, and the evidence pack.
    */
   exports: {
-    bandsCsv: path('/api/comparisons/:id/export/bands.csv', (id: Id) => `/api/comparisons/${segment(id)}/export/bands.csv`),
+    bandsCsv: path('/api/comparisons/:id/export/bands.csv', (id: Id, challenger?: number) =>
+      // Several challengers: whose band table goes beside the champion's (absent = the first).
+      challenger ? withQuery(`/api/comparisons/${segment(id)}/export/bands.csv`, { challenger }) : `/api/comparisons/${segment(id)}/export/bands.csv`,
+    ),
     swapCsv: path(
       '/api/comparisons/:id/export/swap.csv',
-      (id: Id, at: { cutoffs: { champion: number; challenger: number } } | { approvalRate: number }) =>
-        withQuery(
-          `/api/comparisons/${segment(id)}/export/swap.csv`,
-          'cutoffs' in at ? { championCutoff: at.cutoffs.champion, challengerCutoff: at.cutoffs.challenger } : { approvalRate: at.approvalRate },
-        ),
+      (id: Id, at: { cutoffs: { champion: number; challenger: number } } | { approvalRate: number }, challenger?: number) =>
+        withQuery(`/api/comparisons/${segment(id)}/export/swap.csv`, {
+          ...('cutoffs' in at ? { championCutoff: at.cutoffs.champion, challengerCutoff: at.cutoffs.challenger } : { approvalRate: at.approvalRate }),
+          // Several challengers: which one is set against the champion (absent = the first).
+          challenger: challenger ? challenger : undefined,
+        }),
     ),
     reportJson: path('/api/comparisons/:id/export/report.json', (id: Id) => `/api/comparisons/${segment(id)}/export/report.json`),
     packPdf: path('/api/comparisons/:id/export/pack.pdf', (id: Id) => `/api/comparisons/${segment(id)}/export/pack.pdf`),

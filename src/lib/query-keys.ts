@@ -36,6 +36,8 @@ export const queryKeys = {
     notes: (id: number) => ['comparisons', 'detail', id, 'notes'] as const,
     scenarios: (id: number) => ['comparisons', 'detail', id, 'scenarios'] as const,
     swap: (id: number, runId: number | null, query: unknown) => ['comparisons', 'detail', id, 'swap', runId, query] as const,
+    challengersSwap: (id: number, runId: number | null, approvalRate: number) => ['comparisons', 'detail', id, 'challengers-swap', runId, approvalRate] as const,
+    mixedStrategy: (id: number, runId: number | null, query: unknown) => ['comparisons', 'detail', id, 'mixed-strategy', runId, query] as const,
   },
 };
 

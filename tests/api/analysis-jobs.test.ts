@@ -4,10 +4,12 @@ import { auditDetails } from '@server/audit/audit';
 import { AnalysisRun, AuditEvent } from '@server/db/entities/index';
 import { JobRunner, type JobRunnerOptions } from '@server/jobs/runner';
 import { createLogger } from '@server/log';
+import { databaseAddress } from '@server/config';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
 import { analysisHandlers } from '@server/comparisons/analysis-handlers';
+import { queueWaitMs } from './helpers/governance';
 
 /**
  * The analysis queue: restarts, dying workers, concurrency. Runs are real (the 2,000-row demo
@@ -31,7 +33,7 @@ afterAll(async () => {
 function runner(options: Partial<JobRunnerOptions> = {}): JobRunner {
   return new JobRunner({
     dataSource: t.dataSource,
-    databasePath: t.config.databasePath,
+    databasePath: databaseAddress(t.config),
     concurrency: 1,
     log: createLogger('silent'),
     handlers: analysisHandlers({ dataSource: t.dataSource }),
@@ -66,7 +68,7 @@ const reportOf = async (id: number) => (await modeler.get(`/api/comparisons/${id
 describe('restarts', () => {
   it('queues a run left running by a stopped server again, and it finishes with the same report as an uninterrupted run', async () => {
     const reference = await createComparison('Uninterrupted');
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
 
     const restarted = runner();
     const id = await withQueue(restarted, async () => {
@@ -77,7 +79,7 @@ describe('restarts', () => {
       await t.dataSource.getRepository(AnalysisRun).update({ id: run.id }, { status: 'running', attempts: 1, startedAt: new Date(), progress: 0.4, stage: 'Bootstrap 16 of 40' });
 
       await restarted.start();
-      await restarted.whenIdle();
+      await restarted.whenIdle(queueWaitMs);
       return created;
     });
     const shown = await detail(id);
@@ -96,7 +98,7 @@ describe('restarts', () => {
       const created = await createComparison('Interrupted twice');
       await t.dataSource.getRepository(AnalysisRun).update({ comparisonId: created }, { status: 'running', attempts: 2, startedAt: new Date() });
       await restarted.start();
-      await restarted.whenIdle();
+      await restarted.whenIdle(queueWaitMs);
       return created;
     });
     const shown = await detail(id);
@@ -123,7 +125,7 @@ describe('restarts', () => {
       // Unless it finished in the moment before the stop.
       if (run.status !== 'done') expect(run).toMatchObject({ status: 'queued', attempts: 0 });
     });
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
   });
 });
 
@@ -134,7 +136,7 @@ describe('workers that die', () => {
       await faulty.start();
       const created = await createComparison('Crash once');
       faulty.kick();
-      await faulty.whenIdle();
+      await faulty.whenIdle(queueWaitMs);
       return created;
     });
     const shown = await detail(id);
@@ -151,7 +153,7 @@ describe('workers that die', () => {
       await faulty.start();
       const created = await createComparison('Always crashes');
       faulty.kick();
-      await faulty.whenIdle();
+      await faulty.whenIdle(queueWaitMs);
       return created;
     });
     const shown = await detail(id);
@@ -167,10 +169,12 @@ describe('workers that die', () => {
     const served: number[] = [];
     const id = await withQueue(faulty, async () => {
       await faulty.start();
-      const response = await modeler.post('/api/comparisons', { name: 'Dies mid-analysis once', holdoutId, mapping: sampleMapping, settings: { bootstrap: 2000, seed: 9 } });
+      // 400 replicates: the second attempt lasts long enough for the requests below to be answered
+      // while it runs (the rule does not depend on the size; 2,000 made it five times longer).
+      const response = await modeler.post('/api/comparisons', { name: 'Dies mid-analysis once', holdoutId, mapping: sampleMapping, settings: { bootstrap: 400, seed: 9 } });
       expect(response.status).toBe(201);
       faulty.kick();
-      const idle = faulty.whenIdle();
+      const idle = faulty.whenIdle(queueWaitMs);
       let finished = false;
       void idle.finally(() => (finished = true));
       while (!finished) {
@@ -196,7 +200,7 @@ describe('workers that die', () => {
       await faulty.start();
       const response = await modeler.post('/api/comparisons', { name: 'Dies mid-analysis always', holdoutId, mapping: sampleMapping, settings: { bootstrap: 2000, seed: 9 } });
       faulty.kick();
-      await faulty.whenIdle();
+      await faulty.whenIdle(queueWaitMs);
       return response.body.id as number;
     });
     const shown = await detail(id);
@@ -213,7 +217,7 @@ describe('workers that die', () => {
       await faulty.start();
       const created = await createComparison('Out of memory');
       faulty.kick();
-      await faulty.whenIdle();
+      await faulty.whenIdle(queueWaitMs);
       return created;
     });
     const shown = await detail(id);
@@ -228,7 +232,7 @@ describe('concurrency', () => {
     const seen: number[] = [];
     const ids = [await createComparison('Queue 1'), await createComparison('Queue 2'), await createComparison('Queue 3')];
     const sampler = setInterval(() => seen.push(t.jobs.activeRuns.length), 2);
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     clearInterval(sampler);
     expect(Math.max(...seen)).toBeLessThanOrEqual(1);
     const runs = await t.dataSource.getRepository(AnalysisRun).find({ where: ids.map((comparisonId) => ({ comparisonId })), order: { id: 'ASC' } });

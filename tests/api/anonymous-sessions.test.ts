@@ -1,5 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { onPostgres } from '../setup/test-database';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { TestClient } from './helpers/client';
 
@@ -13,10 +14,12 @@ afterAll(async () => {
   await t.close();
 });
 
-const rows = async () => ((await t.dataSource.query('SELECT COUNT(*) AS n FROM "sessions"')) as { n: number }[])[0].n;
+// COUNT(*) is a number on SQLite, a bigint (read as a string) on PostgreSQL.
+const rows = async () => Number(((await t.dataSource.query('SELECT COUNT(*) AS n FROM "sessions"')) as { n: number | string }[])[0].n);
 
 describe('anonymous CSRF tokens', () => {
-  it('store no session row, however many are asked for, and a token still lets its holder sign in', async () => {
+  // SQLite only: on PostgreSQL several instances must know the token, so it is stored (tests/api/two-instances.test.ts).
+  it.skipIf(onPostgres)('store no session row, however many are asked for, and a token still lets its holder sign in (SQLite only: on PostgreSQL every instance must know the token, so it is stored)', async () => {
     const before = await rows();
     for (let i = 0; i < 300; i++) await request(t.app).get('/api/auth/csrf').expect(200);
     expect(await rows()).toBe(before);

@@ -6,6 +6,7 @@ import { AnalysisRun } from '@server/db/entities/index';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { rowCounts, sampleDir, uploadFile } from './helpers/holdouts';
+import { queueWaitMs } from './helpers/governance';
 
 /**
  * Calibration and stability through the API: the mapping's PD confirmation and period column, a
@@ -44,7 +45,7 @@ describe('calibration and stability in the report', () => {
   it('computes calibration for the PD challenger, stability by month and the PSI against the uploaded development sample', async () => {
     const created = await modeler.post('/api/comparisons', { name: 'PD challenger', holdoutId, mapping, settings: { bootstrap: 0 }, referenceHoldoutId: referenceId });
     expect(created.status, JSON.stringify(created.body)).toBe(201);
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const response = await modeler.get(`/api/comparisons/${created.body.id}/report`);
     expect(response.status).toBe(200);
     const report = reportSchema.parse(response.body);

@@ -8,6 +8,7 @@ import { inTransaction } from '@server/db/transaction';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { rowCounts, sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
+import { queueWaitMs } from './helpers/governance';
 
 let t: TestApp;
 let modeler: TestClient;
@@ -61,7 +62,7 @@ describe('creating a comparison', () => {
     expect(queued.runs).toHaveLength(1);
     expect(['queued', 'running', 'done']).toContain(queued.runs[0].status);
 
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const done = await detail(id);
     expect(done.state).toBe('analysed');
     expect(done.runs[0]).toMatchObject({ status: 'done', progress: 1, attempts: 1, error: null, engineVersion: expect.any(String) });
@@ -144,7 +145,7 @@ describe('a mapping that does not fit the data', () => {
 describe('set-up and state', () => {
   it('a new set-up of an analysed comparison starts a new run, keeps the earlier one, and ends analysed again', async () => {
     const created = await modeler.post('/api/comparisons', { name: 'Re-run', holdoutId: sampleId, mapping: sampleMapping, settings: quick });
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const first = await detail(created.body.id);
     expect(first.state).toBe('analysed');
 
@@ -157,7 +158,7 @@ describe('set-up and state', () => {
     // Until the new run is done, the current run (whose report the pages show) is the earlier one.
     expect(changed.currentRunId === first.runs[0].id || changed.runs[0].status === 'done').toBe(true);
 
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const after = await detail(created.body.id);
     expect(after.state).toBe('analysed');
     expect(after.runs.map((run) => run.status)).toEqual(['done', 'done']);
@@ -199,7 +200,7 @@ describe('set-up and state', () => {
 
 describe('the list', () => {
   it('filters by state, searches the name, sorts and pages, with the headline numbers of each current run', async () => {
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const all = comparisonListSchema.parse((await modeler.get('/api/comparisons?pageSize=100')).body);
     expect(all.total).toBe(all.items.length);
     expect(all.total).toBeGreaterThanOrEqual(5);

@@ -28,7 +28,7 @@ beforeAll(async () => {
   committee2 = new TestClient(t.app);
   expect((await committee2.signIn('committee2@tallowmere.test')).status).toBe(200);
   id = await analysedComparison(t, modeler);
-}, 60_000);
+});
 afterAll(async () => {
   await t.close();
 });
@@ -114,7 +114,7 @@ describe('the review workflow, end to end', () => {
       expect(mail.subject).toBe('Validated, waiting for the committee: Challenger v2 on the 2025 sample');
       expect(mail.receivedText).toContain(`http://scorecourt.test/comparisons/${id}/review`);
       expect(mail.receivedText).toContain('Uplift significant and stable');
-      expect(mail.receivedText).toContain(`http://scorecourt.test/api/comparisons/${id}/export/pack.pdf`);
+      expect(mail.receivedText).toContain(`http://scorecourt.test/comparisons/${id}/report?pack=pdf`);
     }
     expect((await outboxAfter(t, before)).map((message) => message.to).sort()).toEqual([['committee2@tallowmere.test'], ['committee@tallowmere.test']]);
   });
@@ -226,7 +226,7 @@ describe('the review workflow, end to end', () => {
     const ids = trail.events.map((event) => event.id);
     expect([...ids].sort((a, b) => a - b)).toEqual(ids);
     const decided = trail.events.find((event) => event.action === 'comparison.decided')!;
-    expect(decided.actor).toEqual({ id: expect.any(Number), name: 'Henrik Aalto' });
+    expect(decided.actor).toEqual({ id: expect.any(Number), name: 'Henrik Aalto', email: 'committee@tallowmere.test' });
     expect(decided.details).toMatchObject({ from: 'validated', to: 'decided', outcome: 'adopt', policyVersion: 2, votes: { adopt: 2, keep: 0, defer: 0 } });
     const returned = trail.events.find((event) => event.action === 'comparison.returned')!;
     expect(returned.details).toMatchObject({ findings: 'Rerun with seed 7 and check the web channel.' });
@@ -275,5 +275,27 @@ describe('the review workflow, end to end', () => {
     expect(pack.audit.chainValid).toBe(true);
     expect(pack.hashes.lastAuditEventHash).toBe(pack.audit.events.at(-1)!.hash);
     expect(pack.cautions.join(' ')).toMatch(/fair-lending/);
+  });
+
+  it('a rename after the acts rewrites no history: votes, the decision, audit events and the evidence pack keep the name and e-mail of the time', async () => {
+    const trail = auditTrailSchema.parse((await analyst.get(`/api/comparisons/${id}/audit`)).body);
+    const henrik = trail.events.find((event) => event.action === 'comparison.decided')!.actor!.id;
+    const renamed = await admin.patch(`/api/users/${henrik}`, { name: 'Henrik Aalto-Berg' });
+    expect(renamed.status, JSON.stringify(renamed.body)).toBe(200);
+
+    const g = await governance(analyst);
+    expect(g.decision!.decidedBy).toEqual({ id: henrik, name: 'Henrik Aalto', email: 'committee@tallowmere.test' });
+    expect(g.votes.find((vote) => vote.voter.id === henrik)!.voter.name).toBe('Henrik Aalto');
+    const after = auditTrailSchema.parse((await analyst.get(`/api/comparisons/${id}/audit`)).body);
+    const acts = after.events.filter((event) => event.actor?.id === henrik);
+    expect(acts.map((event) => event.action)).toEqual(['vote.cast', 'comparison.decided', 'comparison.pack_archived']);
+    for (const event of acts) expect(event.actor).toEqual({ id: henrik, name: 'Henrik Aalto', email: 'committee@tallowmere.test' });
+    expect(after.chainValid).toBe(true);
+    const pack = JSON.parse((await analyst.get(`/api/comparisons/${id}/evidence.json`)).text) as {
+      decision: { decidedBy: { name: string } };
+      audit: { events: { action: string; actor: { name: string; email?: string } | null }[] };
+    };
+    expect(pack.decision.decidedBy.name).toBe('Henrik Aalto');
+    expect(pack.audit.events.find((event) => event.action === 'comparison.decided')!.actor).toMatchObject({ name: 'Henrik Aalto', email: 'committee@tallowmere.test' });
   });
 });

@@ -9,6 +9,7 @@ import { projectRoot } from '@server/runtime';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { uploadFile } from './helpers/holdouts';
+import { queueWaitMs } from './helpers/governance';
 
 /**
  * A through-the-door holdout through the API as written: applicants the champion declined carry
@@ -78,7 +79,7 @@ describe('a through-the-door holdout through the API', () => {
 
     const created = await modeler.post('/api/comparisons', { name: 'Through the door', holdoutId: upload.body.id, mapping, settings });
     expect(created.status, JSON.stringify(created.body)).toBe(201);
-    await t.jobs.whenIdle();
+    await t.jobs.whenIdle(queueWaitMs);
     const response = await modeler.get(`/api/comparisons/${created.body.id}/report`);
     expect(response.status).toBe(200);
     const fromApi = JSON.parse(response.text);
@@ -107,5 +108,5 @@ describe('a through-the-door holdout through the API', () => {
     const swap = await modeler.post(`/api/comparisons/${created.body.id}/swap`, { approvalRate: fromApi.settings.approvalRate });
     expect(swap.status).toBe(200);
     expect(swap.body.swap.swapIn).toEqual(fromApi.swap.swapIn);
-  }, 180_000);
+  });
 });

@@ -2,6 +2,9 @@ import { createHash } from 'node:crypto';
 import { readdirSync } from 'node:fs';
 import { holdoutSchema, validationReportSchema } from '@shared/comparisons';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { databaseAddress } from '@server/config';
+import { rawQuery } from '@server/db/driver';
+import { onPostgres } from '../setup/test-database';
 import { AuditEvent } from '@server/db/entities/index';
 import { storedFile } from '@server/holdouts/reading';
 import { buildTestApp, type TestApp } from './helpers/app';
@@ -59,7 +62,7 @@ describe('uploading a holdout', () => {
     expect(holdout.uploadedBy.name).toBeTruthy();
 
     // The stored chunks are the file, byte for byte.
-    const stored = storedFile(t.config.databasePath, holdout.id);
+    const stored = await storedFile(databaseAddress(t.config), holdout.id);
     expect(stored.bytes.equals(bytes)).toBe(true);
     const event = await t.dataSource.getRepository(AuditEvent).findOneByOrFail({ action: 'holdout.uploaded', targetId: String(holdout.id) });
     expect(JSON.parse(event.details)).toMatchObject({ sha256: holdout.sha256, rowCount: 2000, bytes: bytes.length });
@@ -99,8 +102,9 @@ describe('uploading a holdout', () => {
 
 describe('the preview', () => {
   it('cuts long cells to 200 characters and keeps the whole preview within 64 KB (a file of 200 KB fields)', async () => {
-    // 21 rows of five 200,000-character fields: 20 MB of preview before the bound.
-    const field = (row: number, column: number) => `${row}-${column}-${'ü'.repeat(200_000)}`;
+    // 21 rows of five 100,000-character fields (200 KB each in UTF-8, longer than a read chunk):
+    // 20 MB of preview before the bound.
+    const field = (row: number, column: number) => `${row}-${column}-${'ü'.repeat(100_000)}`;
     const lines = ['id,a,b,c,d', ...Array.from({ length: 21 }, (_, row) => Array.from({ length: 5 }, (_, column) => field(row, column)).join(','))];
     const limited = await buildTestApp({ config: { uploadLimitMb: 64 } });
     try {
@@ -118,13 +122,14 @@ describe('the preview', () => {
       }
       expect(holdout.preview[0][0]).toMatch(/^0-0-ü+…$/);
       // What is stored is bounded too, not only the answer.
-      const [stored] = (await limited.dataSource.query('SELECT LENGTH(CAST("preview" AS BLOB)) AS n FROM "holdouts" WHERE "id" = ?', [holdout.id])) as { n: number }[];
-      console.log(`[preview] a file of 200,000-character fields: ${unbounded} bytes in its first 20 rows; preview stored ${stored.n} bytes, answered ${bytes} bytes in ${holdout.preview.length} rows`);
+      const bytesSql = onPostgres ? 'OCTET_LENGTH("preview")' : 'LENGTH(CAST("preview" AS BLOB))';
+      const [stored] = await rawQuery<{ n: number }>(limited.dataSource, `SELECT ${bytesSql} AS n FROM "holdouts" WHERE "id" = ?`, [holdout.id]);
+      console.log(`[preview] a file of 100,000-character (200 KB) fields: ${unbounded} bytes in its first 20 rows; preview stored ${stored.n} bytes, answered ${bytes} bytes in ${holdout.preview.length} rows`);
       expect(stored.n).toBeLessThanOrEqual(64 * 1024);
     } finally {
       await limited.close();
     }
-  }, 120_000);
+  });
 
   it('shows the rows to modeler and analyst; other roles see the column names and kinds only', async () => {
     const uploaded = holdoutSchema.parse((await uploadFile(modeler, sample2k(), 'roles.csv')).body);

@@ -1,5 +1,6 @@
 import { noteSchema, type Note } from '@shared/governance';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { rawQuery } from '@server/db/driver';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { analysedComparison } from './helpers/governance';
@@ -16,9 +17,10 @@ let otherId: number;
 beforeAll(async () => {
   t = await buildTestApp();
   [modeler, policy, committee] = await Promise.all((['modeler', 'policy', 'committee'] as const).map((role) => signedInAs(t.app, role)));
-  id = await analysedComparison(t, modeler, { name: 'With notes' });
-  otherId = await analysedComparison(t, modeler, { name: 'Another' });
-}, 60_000);
+  // Notes test rules, not figures: each comparison analyses 500 accounts.
+  id = await analysedComparison(t, modeler, { name: 'With notes', rows: 500 });
+  otherId = await analysedComparison(t, modeler, { name: 'Another', rows: 500 });
+});
 afterAll(async () => {
   await t.close();
 });
@@ -105,7 +107,7 @@ describe('notes', () => {
     expect(response.status).toBe(201);
     const note = noteSchema.parse(response.body);
     expect(note.body).toBe('Lone \ufffd and paired \ud83d\ude00 here');
-    const [stored] = (await t.dataSource.query('SELECT "body" FROM "notes" WHERE "id" = ?', [note.id])) as { body: string }[];
+    const [stored] = await rawQuery<{ body: string }>(t.dataSource, 'SELECT "body" FROM "notes" WHERE "id" = ?', [note.id]);
     const [event] = (await t.dataSource.query(`SELECT "details" FROM "audit_events" WHERE "action" = 'note.added' ORDER BY "id" DESC LIMIT 1`)) as { details: string }[];
     expect(stored.body).toBe(note.body);
     expect((JSON.parse(event.details) as { body: string }).body).toBe(stored.body);

@@ -26,7 +26,7 @@ beforeAll(async () => {
   t = await buildTestApp();
   [admin, modeler, analyst] = await Promise.all((['admin', 'modeler', 'analyst'] as const).map((role) => signedInAs(t.app, role)));
   id = await analysedComparison(t, modeler);
-}, 60_000);
+});
 afterAll(async () => {
   await t.close();
 });

@@ -39,6 +39,10 @@ const intendedAccess: Record<string, string> = {
   'GET /comparisons/:id': 'signed-in',
   'GET /comparisons/:id/report': 'signed-in',
   'POST /comparisons/:id/swap': 'signed-in',
+  // Several challengers side by side: the same figures as the swap sets, for every challenger.
+  'POST /comparisons/:id/challengers/swap': 'signed-in',
+  // Conditional adoption is worked out by the people who set and adopt credit policy.
+  'POST /comparisons/:id/mixed-strategy': 'policy | committee',
   'GET /comparisons/:id/scenarios': 'signed-in',
   'POST /comparisons/:id/scenarios': 'policy',
   'GET /comparisons/:id/export/bands.csv': 'signed-in',

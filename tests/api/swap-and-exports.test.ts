@@ -4,10 +4,13 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { auditDetails } from '@server/audit/audit';
 import { PreparedCache, prepareHere, prepareOnWorker } from '@server/comparisons/prepared-cache';
 import { swapAt } from '@server/comparisons/swap';
+import { databaseAddress } from '@server/config';
+import { rawQuery } from '@server/db/driver';
 import { AnalysisRun, AuditEvent } from '@server/db/entities/index';
 import { buildTestApp, type TestApp } from './helpers/app';
 import { signedInAs, type TestClient } from './helpers/client';
 import { sample2k, sampleMapping, uploadFile } from './helpers/holdouts';
+import { queueWaitMs } from './helpers/governance';
 
 let t: TestApp;
 let modeler: TestClient;
@@ -19,7 +22,7 @@ let report: Report;
 async function analysed(holdoutId: number, settings: Record<string, unknown>, mapping = sampleMapping, name = 'Swap sets'): Promise<{ id: number; report: Report }> {
   const created = await modeler.post('/api/comparisons', { name, holdoutId, mapping, settings });
   expect(created.status, JSON.stringify(created.body)).toBe(201);
-  await t.jobs.whenIdle();
+  await t.jobs.whenIdle(queueWaitMs);
   const response = await modeler.get(`/api/comparisons/${created.body.id}/report`);
   expect(response.status).toBe(200);
   return { id: created.body.id, report: reportSchema.parse(response.body) };
@@ -108,9 +111,9 @@ describe('swap sets on demand', () => {
   it('are the same prepared on a worker after a restart, on this thread, or handed over by the analysis', async () => {
     const run = await t.dataSource.getRepository(AnalysisRun).findOneByOrFail({ comparisonId });
     // The sort orders are stored with the run, so a preparation after a restart does not sort.
-    const stored = (await t.dataSource.query(`SELECT "name" FROM "run_columns" WHERE "runId" = ? ORDER BY "name"`, [run.id])) as { name: string }[];
-    expect(stored.map((row) => row.name)).toEqual(['bad', 'challenger', 'champion', 'exposure', 'ids', 'order.challenger', 'order.champion', 'segment.0', 'segment.1']);
-    const onWorker = await new PreparedCache(1e6, prepareOnWorker(t.config.databasePath)).get(t.dataSource, run);
+    const stored = await rawQuery<{ name: string }>(t.dataSource, `SELECT "name" FROM "run_columns" WHERE "runId" = ?`, [run.id]);
+    expect(stored.map((row) => row.name).sort()).toEqual(['bad', 'challenger', 'champion', 'exposure', 'ids', 'order.challenger', 'order.champion', 'segment.0', 'segment.1']);
+    const onWorker = await new PreparedCache(1e6, prepareOnWorker(databaseAddress(t.config))).get(t.dataSource, run);
     const here = await new PreparedCache(1e6, prepareHere).get(t.dataSource, run);
     for (const request of [{ basis: 'approval-rate', approvalRate: 0.55 } as const, { basis: 'cutoffs', cutoffs: { champion: 590, challenger: 620 } } as const]) {
       const fromApi = (await modeler.post(`/api/comparisons/${comparisonId}/swap`, request.basis === 'cutoffs' ? { cutoffs: request.cutoffs } : { approvalRate: request.approvalRate })).body;

@@ -12,7 +12,7 @@ beforeAll(async () => {
   t = await buildTestApp({ config: { writesPerMinute: 5 } });
   const modeler = await signedInAs(t.app, 'modeler');
   id = await analysedComparison(t, modeler, { name: 'Limited' });
-}, 60_000);
+});
 afterAll(async () => {
   await t.close();
 });

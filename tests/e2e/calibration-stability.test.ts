@@ -58,7 +58,7 @@ describe('calibration and stability tabs on the demo', () => {
       await page.waitForURL((url) => url.pathname === paths.comparisons.stability(pdId));
       await page.getByRole('heading', { name: 'By application_month', exact: true }).waitFor();
       const text = await main.innerText();
-      expect(text).toMatch(/The uplift changes sign in 2025-09 .*2025-12/);
+      expect(text).toMatch(/The uplift changes sign in 2025-08 .*2025-09 .*2025-12/);
       expect(text).toContain('tallowmere-development-2023.csv');
       expect(await page.getByRole('row', { name: /^2025-12\b/ }).first().innerText()).toContain('sign changed');
       await page.waitForTimeout(300);

@@ -27,7 +27,7 @@ let workDir: string;
 let comparisonId: number | null = null;
 
 beforeAll(async () => {
-  server = await startServer();
+  server = await startServer({ timeoutMs: 120_000 });
   browser = await launchBrowser();
   workDir = await mkdtemp(path.join(tmpdir(), 'scorecourt-e2e-files-'));
 });
@@ -326,5 +326,37 @@ describe('problems in the file', () => {
       await page.getByRole('heading', { level: 1, name: 'Map the columns' }).waitFor();
       expect(new URL(page.url()).pathname).toBe(paths.comparisons.setup(draftId));
     }, [/status of 400/]);
+  });
+});
+
+describe('a holdout in a workbook', () => {
+  it('lists the workbook’s sheets before the upload and reads the one chosen', async () => {
+    // Sheet 1 a note, sheet 2 the 2,000-row sample (numbers as numbers), as a spreadsheet saves it.
+    const { default: ExcelJS } = await import('exceljs');
+    const { readFile } = await import('node:fs/promises');
+    const rows = (await readFile(sample2k, 'utf8')).trim().split('\n').map((line) => line.split(','));
+    const book = new ExcelJS.Workbook();
+    book.addWorksheet('Read me').addRow(['note']);
+    const sheet = book.addWorksheet('Holdout 2025');
+    rows.forEach((row, index) => sheet.addRow(index === 0 ? row : row.map((cell) => (/^-?\d+(\.\d+)?$/.test(cell) ? Number(cell) : cell))));
+    const workbook = path.join(workDir, 'tallowmere-2025.xlsx');
+    await writeFile(workbook, new Uint8Array(await book.xlsx.writeBuffer()));
+
+    await withPage(async (tab) => {
+      const { page } = tab;
+      await signInAs(page, 'modeler');
+      await page.goto(paths.comparisons.new());
+      await page.getByLabel('Holdout file (CSV or .xlsx)').setInputFiles(workbook);
+      const choice = page.getByLabel('Sheet with the holdout');
+      await choice.waitFor();
+      expect(await choice.locator('option').allInnerTexts()).toEqual(['Read me', 'Holdout 2025']);
+      expect(await choice.inputValue()).toBe('Read me');
+      await choice.selectOption('Holdout 2025');
+      await tab.screenshot('wizard-upload-sheet');
+      await page.getByRole('button', { name: 'Upload the holdout' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Name the comparison' }).waitFor();
+      await page.getByText('sheet “Holdout 2025”').waitFor();
+      await page.getByText('2,000 rows').waitFor();
+    });
   });
 });

@@ -99,6 +99,15 @@ describe('the committee decision, step by step in the browser', () => {
       await tab.page.getByLabel('Validate: the evidence holds; it goes to the committee').check();
       await tab.screenshot('governance-2-review');
       await tab.page.getByRole('button', { name: 'Record the review' }).click();
+      // A confirmation first: what happens and who is told; Cancel sends nothing.
+      const confirm = tab.page.getByRole('dialog', { name: 'Validate this comparison?' });
+      await confirm.waitFor();
+      expect(await confirm.innerText()).toContain('every active committee member who did not shape the comparison');
+      await confirm.getByRole('button', { name: 'Cancel' }).click();
+      await confirm.waitFor({ state: 'hidden' });
+      expect(await currentStep(tab).innerText()).toContain('In review');
+      await tab.page.getByRole('button', { name: 'Record the review' }).click();
+      await tab.page.getByRole('dialog', { name: 'Validate this comparison?' }).getByRole('button', { name: 'Validate' }).click();
       await tab.page.getByText('Validated. The committee members have been told by e-mail.').waitFor();
       expect(await currentStep(tab).innerText()).toContain('Validated');
       expect(await tab.page.getByTestId('review').first().innerText()).toContain('the challenger is not better');
@@ -152,6 +161,14 @@ describe('the committee decision, step by step in the browser', () => {
       expect(await tab.page.getByText('Statistical significance is not business approval').count()).toBeGreaterThan(0);
       await tab.screenshot('governance-4-decision-form');
       await decision.getByRole('button', { name: 'Record the decision' }).click();
+      // The confirmation names the decision and everyone the e-mail goes to.
+      const confirm = tab.page.getByRole('dialog', { name: 'Record the committee’s decision?' });
+      await confirm.waitFor();
+      const said = await confirm.innerText();
+      expect(said).toContain('“Keep the champion”');
+      expect(said).toMatch(/Sent by e-mail to:.*Henrik Aalto/);
+      await tab.screenshot('governance-4b-decision-confirm');
+      await confirm.getByRole('button', { name: 'Record the decision' }).click();
       await tab.page.getByText('The decision is recorded.').waitFor();
       expect(await currentStep(tab).count()).toBe(0);
       expect(await tab.page.getByRole('list', { name: 'Workflow' }).innerText()).toContain('Decided');
@@ -170,6 +187,19 @@ describe('the committee decision, step by step in the browser', () => {
       await notes.getByRole('button', { name: 'Add annotation' }).click();
       await notes.getByText('mostly thin-file web applicants').waitFor();
       expect(await notes.getByTestId('note').innerText()).toContain('on the swap-out');
+      // Written after the committee's decision, so marked as such: not part of what it saw.
+      expect(await notes.getByTestId('note').getByTestId('after-decision').innerText()).toContain('After the decision');
+
+      // Conditional adoption: tick a value to keep on the champion; the server's figures appear
+      // beside the champion and pure adoption.
+      const conditional = tab.page.getByTestId('conditional-adoption');
+      await conditional.getByLabel(/^channel = broker/).check();
+      const figures = conditional.getByTestId('mixed-strategy');
+      await figures.waitFor();
+      const read = await figures.innerText();
+      expect(read).toContain('The challenger decides every account except those in channel = broker');
+      expect(read).toMatch(/Champion \(today\)[\s\S]*Challenger everywhere[\s\S]*Challenger except the kept values/);
+      await tab.screenshot('governance-5-conditional-adoption');
 
       await openReview(tab);
       expect(await tab.page.getByTestId('chain-status').innerText()).toContain('The audit chain verifies');

@@ -22,7 +22,7 @@ import { comparisonTabs } from '@/app/routes/comparisons/tabs';
 import { ApiSession } from './helpers/api';
 import { launchBrowser, openPage, screenshotDir, type TestPage } from './helpers/browser';
 import { type RunningServer, startServer } from './helpers/server';
-import { type DemoPerson, signInAs } from './helpers/session';
+import { type DemoPerson, fillSignIn, signInAs } from './helpers/session';
 
 const widths = [390, 768, 1280, 1440] as const;
 const outputDir = path.join(screenshotDir, 'pack-layout');
@@ -235,4 +235,30 @@ describe('the printable report of the decided demo comparison', () => {
       }
     }, 180_000);
   }
+});
+
+describe('the committee pack linked in the e-mail', () => {
+  it('opens, for a reader who is signed out, the sign-in page and then the report with the PDF first; the PDF downloads', async () => {
+    // The link of the validated e-mail (server/pack/links.ts): the report page with ?pack=pdf.
+    const tab = await openPage(browser, server.url, { width: 390, height: 900 });
+    try {
+      await tab.page.goto(`${paths.comparisons.report(ids.decided)}?pack=pdf`);
+      await tab.page.getByLabel('E-mail address').waitFor();
+      expect(await tab.page.textContent('body')).not.toContain('"error"');
+      await fillSignIn(tab.page, 'committee@tallowmere.test');
+      const pdfLink = tab.page.getByRole('link', { name: 'PDF as decided' });
+      await pdfLink.waitFor();
+      expect(new URL(tab.page.url()).pathname + new URL(tab.page.url()).search).toBe(`${paths.comparisons.report(ids.decided)}?pack=pdf`);
+      await expect.poll(() => pdfLink.evaluate((element) => element === document.activeElement)).toBe(true);
+      await expect.poll(() => tab.page.getByText('The committee pack from your e-mail:').isVisible()).toBe(true);
+      const [download] = await Promise.all([tab.page.waitForEvent('download', { timeout: 120_000 }), pdfLink.click()]);
+      expect(download.suggestedFilename()).toMatch(/-decided-pack\.pdf$/);
+      const file = await download.path();
+      const { readFile } = await import('node:fs/promises');
+      expect((await readFile(file)).subarray(0, 5).toString('latin1')).toBe('%PDF-');
+      expect(tab.unexpectedErrors()).toEqual([]);
+    } finally {
+      await tab.close();
+    }
+  }, 180_000);
 });

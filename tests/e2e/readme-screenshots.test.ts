@@ -119,7 +119,7 @@ describe('the README walkthrough on the demo database', () => {
       // them brokered cards (npm run compare on the demo holdout flags exactly these two).
       await page.goto(paths.comparisons.detail(ids.decided));
       const glance = await page.getByTestId('swap-segments-glance').innerText();
-      expect(glance).toContain('in 2 of 23 values: channel = broker, product_channel = credit-card/broker.');
+      expect(glance).toContain('in 5 of 23 values: product = credit-card, channel = broker, product_channel = credit-card/broker, application_month = 2025-03, 1 more.');
 
       await page.goto(`${paths.comparisons.swapSets(ids.decided)}?rate=0.7`);
       const notes = page.getByTestId('swap-set-notes');
@@ -147,8 +147,20 @@ describe('the README walkthrough on the demo database', () => {
       await page.getByRole('heading', { level: 2, name: 'Where it stands' }).waitFor();
       const decision = page.getByTestId('decision');
       expect(await decision.innerText()).toMatch(/Adopt the challenger[\s\S]*Henrik Aalto/);
+      // The adoption keeps the champion for brokered cards, with the strategy's figures (issue 13).
+      expect(await decision.innerText()).toContain('except in product_channel = credit-card/broker, which keep the champion');
+      expect(await decision.getByTestId('mixed-strategy').innerText()).toContain('Challenger except the kept values');
       expect(await page.getByTestId('chain-status').innerText()).toContain('The audit chain verifies');
+      // Two challengers: the decision names the one adopted (CF-3, against the verdict's recommendation of the refit).
+      expect(await page.getByTestId('decision-chosen').innerText()).toBe('Adopted: CF-3 cash-flow (challenger 1)');
       await capture(page, '8-committee-decision', heading(page, 'Committee votes'));
+
+      // The verdict page: every model side by side, the joint test and the recommended challenger.
+      await page.goto(paths.comparisons.detail(ids.decided));
+      await page.getByTestId('models-summary').waitFor();
+      expect(await page.getByTestId('choice-summary').innerText()).toMatch(/^AS-19 refit 2024 is recommended/);
+      expect(await page.getByTestId('models-summary').innerText()).toContain('AS-19 application scorecard');
+      await capture(page, '8-committee-challengers', heading(page, 'Every model'));
     });
   });
 

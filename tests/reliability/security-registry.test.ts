@@ -152,6 +152,8 @@ const objectRules: Record<string, { body?: unknown; rules: Rule[] }> = {
   'GET /comparisons/:id': { rules: ['exists'] },
   'GET /comparisons/:id/report': { rules: ['exists', 'done-run'] },
   'POST /comparisons/:id/swap': { body: { approvalRate: 0.5 }, rules: ['exists', 'done-run'] },
+  'POST /comparisons/:id/challengers/swap': { body: { approvalRate: 0.5 }, rules: ['exists', 'done-run'] },
+  'POST /comparisons/:id/mixed-strategy': { body: { keepChampion: [{ column: 'channel', value: 'broker' }] }, rules: ['exists', 'done-run'] },
   'GET /comparisons/:id/scenarios': { rules: ['exists'] },
   'POST /comparisons/:id/scenarios': { body: { name: 'Scenario', approvalRate: 0.5 }, rules: ['exists', 'done-run'] },
   'GET /comparisons/:id/export/bands.csv': { rules: ['exists', 'done-run'] },
@@ -429,6 +431,10 @@ describe('markup in every free-text field', () => {
       read: async (id) => (await governanceOf(id)).decision.conditions,
     },
     'POST /comparisons/:id/decision body.effectiveDate': 'an ISO date, validated',
+    'POST /comparisons/:id/decision body.strategy.keepChampion[].column': 'a segment column of the file, checked against the holdout (400 naming it otherwise)',
+    'POST /comparisons/:id/decision body.strategy.keepChampion[].value': 'a segment value of the file, checked against the holdout (400 naming it otherwise)',
+    'POST /comparisons/:id/mixed-strategy body.keepChampion[].column': 'a segment column of the file, checked against the holdout (400 naming it otherwise)',
+    'POST /comparisons/:id/mixed-strategy body.keepChampion[].value': 'a segment value of the file, checked against the holdout (400 naming it otherwise)',
     'POST /comparisons/:id/notes body.body': {
       send: async () => (await ok(other.post(`/api/comparisons/${inState.get('analysed')!}/notes`, { body: markup }), 201)).body.id,
       read: async (id) => ((await other.get(`/api/comparisons/${inState.get('analysed')!}/notes`)).body.notes as { id: number; body: string }[]).find((n) => n.id === id)!.body,
@@ -450,6 +456,12 @@ describe('markup in every free-text field', () => {
   }
   for (const field of ['inferredBad', 'unknownValues[]', 'period', 'grades.champion', 'grades.challenger']) {
     freeText[`POST /holdouts/:id/validate body.mapping.${field}`] = 'a column name or value of the file';
+  }
+  // Several challengers: further score columns, and the modeler's names for the models (one line of
+  // at most 80 characters; kept in the mapping and the report, returned as JSON like every name).
+  for (const kind of ['POST /holdouts/:id/validate', 'POST /comparisons', 'PUT /comparisons/:id/setup']) {
+    freeText[`${kind} body.mapping.moreChallengers[].column`] = 'a column name of the file';
+    for (const field of ['championName', 'challengerName', 'moreChallengers[].name']) freeText[`${kind} body.mapping.${field}`] = 'a model name: one line, at most 80 characters, returned as JSON';
   }
 
   it('knows every string field of every route’s body', () => {

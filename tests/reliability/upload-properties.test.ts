@@ -151,7 +151,9 @@ describe('uploads under bad input', () => {
     expect(response.body.error).toMatchObject({ code: 'bad_input', message: 'the header has 1,000,000 columns; at most 5000 are read', details: { row: 1, problem: 'too_many_columns' } });
     expect(changed(before, inspect(server.databasePath).counts)).toEqual([]);
     expect(uploadLeftovers(server.uploadDir)).toEqual([]);
-    expect(ms).toBeLessThan(3_000);
+    // Generous for a loaded machine (3.3 s was seen beside the browser suite); reading every column
+    // of a million before refusing would take minutes, which is what this bound catches.
+    expect(ms).toBeLessThan(15_000);
     record('uploads million columns', { bytes: bytes.length, refusedInMs: Math.round(ms) });
   });
 

@@ -5,11 +5,13 @@ import { describe, expect, it } from 'vitest';
 import { openDatabase } from '@server/db/data-source';
 import { createLogger } from '@server/log';
 import { createMailTransport } from '@server/mail/transport';
+import { createTestDatabase } from '../setup/test-database';
 
 describe('mail transport', () => {
   it('uses SMTP_URL when set and starts no sink', async () => {
     const directory = mkdtempSync(join(tmpdir(), 'scorecourt-mail-'));
-    const dataSource = await openDatabase(join(directory, 'db.sqlite'));
+    const database = await createTestDatabase(directory, 'db.sqlite');
+    const dataSource = await openDatabase(database.address);
     const mail = await createMailTransport({ smtpUrl: 'smtp://user:pw@mail.tallowmere.test:2587' }, dataSource, createLogger('silent'));
     expect(mail.sink).toBeNull();
     expect(mail.description).toBe('SMTP server mail.tallowmere.test:2587');
@@ -23,6 +25,7 @@ describe('mail transport', () => {
     local.transport.close();
     await local.sink!.close();
     await dataSource.destroy();
+    await database.drop();
     rmSync(directory, { recursive: true, force: true });
   });
 });

@@ -12,6 +12,8 @@ import { User } from './user';
  */
 export interface RunInput {
   fileName: string;
+  /** The worksheet read, when the holdout is an .xlsx workbook. */
+  sheet?: string;
   sha256: string;
   bytes: number;
   /** Accounts used (rows read minus rows left out). */

@@ -20,6 +20,13 @@ export class AuditEvent {
   @JoinColumn({ name: 'actorId' })
   actor: User | null;
 
+  /** The actor's name and e-mail when the event was recorded (null for the system, and for events before names were kept). */
+  @Column({ type: 'text', nullable: true })
+  actorName: string | null;
+
+  @Column({ type: 'text', nullable: true })
+  actorEmail: string | null;
+
   /** Dotted verb, e.g. `user.invited`, `comparison.submitted`. */
   @Column({ type: 'text' })
   action: string;

@@ -1,4 +1,4 @@
-import type { VoteChoice } from '@shared/governance';
+import type { ChosenModel, VoteChoice } from '@shared/governance';
 import type { MixedStrategyResult } from '@shared/mixed-strategy';
 import { Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import { AnalysisRun } from './analysis-run';
@@ -98,4 +98,8 @@ export class Decision {
    */
   @Column({ type: 'simple-json', nullable: true })
   strategy: MixedStrategyResult | null;
+
+  /** The model chosen: the champion (keep) or the adopted challenger (adopt); null for defer and for decisions before several challengers. */
+  @Column({ type: 'simple-json', nullable: true })
+  chosen: ChosenModel | null;
 }

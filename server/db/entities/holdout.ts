@@ -37,6 +37,10 @@ export class Holdout {
   @Column({ type: 'integer' })
   rowCount: number;
 
+  /** The worksheet read, for an .xlsx workbook (chosen at upload, else its first); null for CSV. Every later reading uses it. */
+  @Column({ type: 'text', nullable: true })
+  sheet: string | null;
+
   /** The field separator the reader detected: `,`, `;` or a tab. */
   @Column({ type: 'text' })
   delimiter: string;

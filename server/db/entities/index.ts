@@ -11,9 +11,11 @@ import { MailMessage } from './mail-message';
 import { Note } from './note';
 import { OneTimeToken } from './one-time-token';
 import { PolicyVersion } from './policy-version';
+import { RateLimitHit } from './rate-limit-hit';
 import { Review } from './review';
 import { RunColumn } from './run-column';
 import { Session } from './session';
+import { StagedUpload } from './staged-upload';
 import { User } from './user';
 import { VerdictRecord } from './verdict-record';
 import { Vote } from './vote';
@@ -32,9 +34,11 @@ export {
   Note,
   OneTimeToken,
   PolicyVersion,
+  RateLimitHit,
   Review,
   RunColumn,
   Session,
+  StagedUpload,
   User,
   VerdictRecord,
   Vote,
@@ -64,4 +68,6 @@ export const entities = [
   Decision,
   Note,
   DecisionPack,
+  RateLimitHit,
+  StagedUpload,
 ];

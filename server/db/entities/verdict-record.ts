@@ -1,3 +1,4 @@
+import type { ChallengerVerdict } from '@shared/governance';
 import type { Criterion, VerdictOutcome } from '@shared/report';
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import { AnalysisRun } from './analysis-run';
@@ -58,4 +59,16 @@ export class VerdictRecord {
 
   @Column({ type: 'datetime' })
   createdAt: Date;
+
+  /** Several challengers: every challenger's verdict under the same policy version (index 0 = the record's own); null before them. */
+  @Column({ type: 'simple-json', nullable: true })
+  challengers: ChallengerVerdict[] | null;
+
+  /** The recommended challenger's index; null for none (and for records before several challengers). */
+  @Column({ type: 'integer', nullable: true })
+  recommended: number | null;
+
+  /** The sentence stating the choice; null before several challengers. */
+  @Column({ type: 'text', nullable: true })
+  choiceSummary: string | null;
 }

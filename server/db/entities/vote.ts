@@ -41,6 +41,10 @@ export class Vote {
   @Column({ type: 'text' })
   vote: VoteChoice;
 
+  /** With vote adopt: the challenger's index in the report's `challengers` (0 = primary); null otherwise and for votes cast before several challengers. */
+  @Column({ type: 'integer', nullable: true })
+  challenger: number | null;
+
   @Column({ type: 'text' })
   comment: string;
 

@@ -1,4 +1,5 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
+import { appendOnly, dropAppendOnly, portableQuery, storedNow } from './portable';
 
 /**
  * Governance: adoption-policy versions (version 1 = the default policy), verdict records, reviews,
@@ -29,21 +30,21 @@ export class Governance1764806400000 implements MigrationInterface {
   name = 'Governance1764806400000';
 
   async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(
+    await portableQuery(queryRunner,
       `CREATE TABLE "policy_versions" ("version" integer PRIMARY KEY NOT NULL, "policy" text NOT NULL, "reason" text NOT NULL, ` +
         `"createdById" integer, "createdAt" datetime NOT NULL, ` +
         `CONSTRAINT "FK_acffaece227470f51d9019b2395" FOREIGN KEY ("createdById") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(
+    await portableQuery(queryRunner,
       `CREATE TABLE "reviews" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "comparisonId" integer NOT NULL, "runId" integer NOT NULL, ` +
         `"outcome" text NOT NULL, "findings" text NOT NULL, "reviewerId" integer NOT NULL, "createdAt" datetime NOT NULL, ` +
         `CONSTRAINT "FK_4e01dc008a542b3514803b67ac9" FOREIGN KEY ("comparisonId") REFERENCES "comparisons" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_6e0f253f551b35767f3c2e5c9fe" FOREIGN KEY ("runId") REFERENCES "analysis_runs" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_f9238c3e3739dc40322f577fc46" FOREIGN KEY ("reviewerId") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(`CREATE INDEX "IDX_6e0f253f551b35767f3c2e5c9f" ON "reviews" ("runId")`);
-    await queryRunner.query(`CREATE INDEX "IDX_7b0740cb1fc5046bfd6575f256" ON "reviews" ("comparisonId", "id")`);
-    await queryRunner.query(
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_6e0f253f551b35767f3c2e5c9f" ON "reviews" ("runId")`);
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_7b0740cb1fc5046bfd6575f256" ON "reviews" ("comparisonId", "id")`);
+    await portableQuery(queryRunner,
       `CREATE TABLE "verdict_records" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "comparisonId" integer NOT NULL, "runId" integer NOT NULL, ` +
         `"policyVersion" integer NOT NULL, "outcome" text NOT NULL, "criteria" text NOT NULL, "summary" text NOT NULL, "createdById" integer, ` +
         `"createdAt" datetime NOT NULL, ` +
@@ -52,9 +53,9 @@ export class Governance1764806400000 implements MigrationInterface {
         `CONSTRAINT "FK_d8eb42bddae86040505d90ff42e" FOREIGN KEY ("policyVersion") REFERENCES "policy_versions" ("version") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_faf2634b7dad36e13b39fc1dd9c" FOREIGN KEY ("createdById") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(`CREATE INDEX "IDX_c63d8067accabd9200636cc70f" ON "verdict_records" ("runId")`);
-    await queryRunner.query(`CREATE INDEX "IDX_91a46ecfb3e6b0d8c0999de12f" ON "verdict_records" ("comparisonId", "id")`);
-    await queryRunner.query(
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_c63d8067accabd9200636cc70f" ON "verdict_records" ("runId")`);
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_91a46ecfb3e6b0d8c0999de12f" ON "verdict_records" ("comparisonId", "id")`);
+    await portableQuery(queryRunner,
       `CREATE TABLE "decisions" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "comparisonId" integer NOT NULL, "runId" integer NOT NULL, ` +
         `"reviewId" integer NOT NULL, "policyVersion" integer NOT NULL, "verdictId" integer, "outcome" text NOT NULL, "rationale" text NOT NULL, ` +
         `"conditions" text, "effectiveDate" text, "decidedById" integer NOT NULL, "createdAt" datetime NOT NULL, ` +
@@ -66,15 +67,15 @@ export class Governance1764806400000 implements MigrationInterface {
         `CONSTRAINT "FK_a983712a1c369995dbab3cc793a" FOREIGN KEY ("verdictId") REFERENCES "verdict_records" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_e7a16bf4208ae5faa5b2d4370b2" FOREIGN KEY ("decidedById") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(
+    await portableQuery(queryRunner,
       `CREATE TABLE "notes" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "comparisonId" integer NOT NULL, "anchor" text NOT NULL, ` +
         `"body" text NOT NULL, "scenarioId" integer, "authorId" integer NOT NULL, "createdAt" datetime NOT NULL, ` +
         `CONSTRAINT "FK_9dea442e2925889c81299f8dc76" FOREIGN KEY ("comparisonId") REFERENCES "comparisons" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_7676356dd9826fe08a6ecec4b83" FOREIGN KEY ("scenarioId") REFERENCES "cutoff_scenarios" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_d358080cb403fe88e62cc9cba58" FOREIGN KEY ("authorId") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(`CREATE INDEX "IDX_428aa626ac2b072c4e66d8e38b" ON "notes" ("comparisonId", "id")`);
-    await queryRunner.query(
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_428aa626ac2b072c4e66d8e38b" ON "notes" ("comparisonId", "id")`);
+    await portableQuery(queryRunner,
       `CREATE TABLE "votes" ("id" integer PRIMARY KEY AUTOINCREMENT NOT NULL, "comparisonId" integer NOT NULL, "reviewId" integer NOT NULL, ` +
         `"voterId" integer NOT NULL, "vote" text NOT NULL, "comment" text NOT NULL, "replacesId" integer, "createdAt" datetime NOT NULL, ` +
         `CONSTRAINT "FK_92a61f7652412a0e7c43c6eadcf" FOREIGN KEY ("comparisonId") REFERENCES "comparisons" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
@@ -82,41 +83,33 @@ export class Governance1764806400000 implements MigrationInterface {
         `CONSTRAINT "FK_dcc38940c4fffe707c10e061d2a" FOREIGN KEY ("voterId") REFERENCES "users" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION, ` +
         `CONSTRAINT "FK_73dca027dfc08053aa944f578a2" FOREIGN KEY ("replacesId") REFERENCES "votes" ("id") ON DELETE RESTRICT ON UPDATE NO ACTION)`,
     );
-    await queryRunner.query(`CREATE INDEX "IDX_92a61f7652412a0e7c43c6eadc" ON "votes" ("comparisonId")`);
-    await queryRunner.query(`CREATE INDEX "IDX_8e8ac054b106f8598ec8dd057e" ON "votes" ("reviewId", "voterId")`);
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_92a61f7652412a0e7c43c6eadc" ON "votes" ("comparisonId")`);
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_8e8ac054b106f8598ec8dd057e" ON "votes" ("reviewId", "voterId")`);
 
-    for (const table of immutableTables) {
-      await queryRunner.query(
-        `CREATE TRIGGER "${table}_no_update" BEFORE UPDATE ON "${table}" BEGIN SELECT RAISE(ABORT, '${table} rows are kept as written'); END`,
-      );
-      await queryRunner.query(
-        `CREATE TRIGGER "${table}_no_delete" BEFORE DELETE ON "${table}" BEGIN SELECT RAISE(ABORT, '${table} rows are kept as written'); END`,
-      );
-    }
+    for (const table of immutableTables) await appendOnly(queryRunner, table, `${table} rows are kept as written`);
 
-    await queryRunner.query(
+    await portableQuery(queryRunner,
       `INSERT INTO "policy_versions" ("version", "policy", "reason", "createdById", "createdAt") VALUES (1, ?, ?, NULL, ?)`,
-      [JSON.stringify(seededPolicy), 'The default policy Scorecourt starts with.', new Date().toISOString().replace('T', ' ').replace('Z', '')],
+      [JSON.stringify(seededPolicy), 'The default policy Scorecourt starts with.', storedNow(queryRunner)],
     );
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
     for (const table of [...immutableTables].reverse()) {
-      await queryRunner.query(`DROP TRIGGER "${table}_no_delete"`);
-      await queryRunner.query(`DROP TRIGGER "${table}_no_update"`);
+      await dropAppendOnly(queryRunner, table);
     }
-    await queryRunner.query(`DROP INDEX "IDX_8e8ac054b106f8598ec8dd057e"`);
-    await queryRunner.query(`DROP INDEX "IDX_92a61f7652412a0e7c43c6eadc"`);
-    await queryRunner.query(`DROP TABLE "votes"`);
-    await queryRunner.query(`DROP INDEX "IDX_428aa626ac2b072c4e66d8e38b"`);
-    await queryRunner.query(`DROP TABLE "notes"`);
-    await queryRunner.query(`DROP TABLE "decisions"`);
-    await queryRunner.query(`DROP INDEX "IDX_91a46ecfb3e6b0d8c0999de12f"`);
-    await queryRunner.query(`DROP INDEX "IDX_c63d8067accabd9200636cc70f"`);
-    await queryRunner.query(`DROP TABLE "verdict_records"`);
-    await queryRunner.query(`DROP INDEX "IDX_7b0740cb1fc5046bfd6575f256"`);
-    await queryRunner.query(`DROP INDEX "IDX_6e0f253f551b35767f3c2e5c9f"`);
-    await queryRunner.query(`DROP TABLE "reviews"`);
-    await queryRunner.query(`DROP TABLE "policy_versions"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_8e8ac054b106f8598ec8dd057e"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_92a61f7652412a0e7c43c6eadc"`);
+    await portableQuery(queryRunner, `DROP TABLE "votes"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_428aa626ac2b072c4e66d8e38b"`);
+    await portableQuery(queryRunner, `DROP TABLE "notes"`);
+    await portableQuery(queryRunner, `DROP TABLE "decisions"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_91a46ecfb3e6b0d8c0999de12f"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_c63d8067accabd9200636cc70f"`);
+    await portableQuery(queryRunner, `DROP TABLE "verdict_records"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_7b0740cb1fc5046bfd6575f256"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_6e0f253f551b35767f3c2e5c9f"`);
+    await portableQuery(queryRunner, `DROP TABLE "reviews"`);
+    await portableQuery(queryRunner, `DROP TABLE "policy_versions"`);
   }
 }

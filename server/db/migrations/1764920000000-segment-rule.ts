@@ -1,4 +1,5 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
+import { portableQuery, storedNow } from './portable';
 
 /**
  * The segment rule ("no segment value significantly worse") and a quorum of two committee votes.
@@ -17,16 +18,18 @@ export class SegmentRule1764920000000 implements MigrationInterface {
   name = 'SegmentRule1764920000000';
 
   async up(queryRunner: QueryRunner): Promise<void> {
-    const rows: { version: number; policy: string; createdById: number | null }[] = await queryRunner.query(
-      `SELECT "version", "policy", "createdById" FROM "policy_versions" ORDER BY "version" DESC LIMIT 1`,
-    );
+    const rows = (await portableQuery(queryRunner, `SELECT "version", "policy", "createdById" FROM "policy_versions" ORDER BY "version" DESC LIMIT 1`)) as {
+      version: number;
+      policy: string;
+      createdById: number | null;
+    }[];
     const newest = rows[0];
     if (!newest) return;
     const policy = JSON.parse(newest.policy) as Record<string, unknown>;
     if (policy.segmentRule !== undefined) return;
     const untouchedDefault = newest.version === 1 && newest.createdById === null;
     const next = { ...policy, quorum: untouchedDefault && policy.quorum === 0 ? 2 : policy.quorum, segmentRule: segmentRuleAdded };
-    await queryRunner.query(
+    await portableQuery(queryRunner,
       `INSERT INTO "policy_versions" ("version", "policy", "reason", "createdById", "createdAt") VALUES (?, ?, ?, NULL, ?)`,
       [
         newest.version + 1,
@@ -34,7 +37,7 @@ export class SegmentRule1764920000000 implements MigrationInterface {
         untouchedDefault
           ? 'Scorecourt update: a segment value where the challenger is significantly worse now blocks adoption (at least 30 bads), and a decision needs two committee votes.'
           : 'Scorecourt update: a segment value where the challenger is significantly worse now blocks adoption (at least 30 bads).',
-        new Date().toISOString().replace('T', ' ').replace('Z', ''),
+        storedNow(queryRunner),
       ],
     );
   }

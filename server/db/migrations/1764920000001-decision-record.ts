@@ -1,4 +1,5 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
+import { portableQuery } from './portable';
 
 /**
  * Decisions that match the record (issue 13): the policy version governing a comparison from its
@@ -12,18 +13,18 @@ export class DecisionRecord1764920000001 implements MigrationInterface {
   name = 'DecisionRecord1764920000001';
 
   async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`ALTER TABLE "comparisons" ADD COLUMN "governingPolicyVersion" integer`);
-    await queryRunner.query(`ALTER TABLE "notes" ADD COLUMN "afterDecision" boolean NOT NULL DEFAULT (0)`);
-    await queryRunner.query(`ALTER TABLE "cutoff_scenarios" ADD COLUMN "afterDecision" boolean NOT NULL DEFAULT (0)`);
-    await queryRunner.query(`ALTER TABLE "decisions" ADD COLUMN "decidedByName" text`);
-    await queryRunner.query(`ALTER TABLE "decisions" ADD COLUMN "decidedByEmail" text`);
-    await queryRunner.query(`ALTER TABLE "decisions" ADD COLUMN "tally" text`);
-    await queryRunner.query(`ALTER TABLE "decisions" ADD COLUMN "acknowledgedAgainstRecord" boolean NOT NULL DEFAULT (0)`);
-    await queryRunner.query(`ALTER TABLE "decisions" ADD COLUMN "strategy" text`);
-    await queryRunner.query(`ALTER TABLE "votes" ADD COLUMN "voterName" text`);
-    await queryRunner.query(`ALTER TABLE "votes" ADD COLUMN "voterEmail" text`);
-    await queryRunner.query(`ALTER TABLE "reviews" ADD COLUMN "reviewerName" text`);
-    await queryRunner.query(`ALTER TABLE "reviews" ADD COLUMN "reviewerEmail" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "comparisons" ADD COLUMN "governingPolicyVersion" integer`);
+    await portableQuery(queryRunner, `ALTER TABLE "notes" ADD COLUMN "afterDecision" boolean NOT NULL DEFAULT (0)`);
+    await portableQuery(queryRunner, `ALTER TABLE "cutoff_scenarios" ADD COLUMN "afterDecision" boolean NOT NULL DEFAULT (0)`);
+    await portableQuery(queryRunner, `ALTER TABLE "decisions" ADD COLUMN "decidedByName" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "decisions" ADD COLUMN "decidedByEmail" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "decisions" ADD COLUMN "tally" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "decisions" ADD COLUMN "acknowledgedAgainstRecord" boolean NOT NULL DEFAULT (0)`);
+    await portableQuery(queryRunner, `ALTER TABLE "decisions" ADD COLUMN "strategy" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "votes" ADD COLUMN "voterName" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "votes" ADD COLUMN "voterEmail" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "reviews" ADD COLUMN "reviewerName" text`);
+    await portableQuery(queryRunner, `ALTER TABLE "reviews" ADD COLUMN "reviewerEmail" text`);
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
@@ -41,7 +42,7 @@ export class DecisionRecord1764920000001 implements MigrationInterface {
       ['notes', 'afterDecision'],
       ['comparisons', 'governingPolicyVersion'],
     ]) {
-      await queryRunner.query(`ALTER TABLE "${table}" DROP COLUMN "${column}"`);
+      await portableQuery(queryRunner, `ALTER TABLE "${table}" DROP COLUMN "${column}"`);
     }
   }
 }

@@ -1,4 +1,5 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
+import { portableQuery } from './portable';
 
 /**
  * The PSI's reference sample: the holdout a run took its development-sample scores from
@@ -10,12 +11,12 @@ export class ReferenceSample1764930000000 implements MigrationInterface {
   name = 'ReferenceSample1764930000000';
 
   public async up(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`ALTER TABLE "analysis_runs" ADD COLUMN "referenceHoldoutId" integer`);
-    await queryRunner.query(`CREATE INDEX "IDX_fb3b6c44cf82cf0858700c6d3c" ON "analysis_runs" ("referenceHoldoutId") `);
+    await portableQuery(queryRunner, `ALTER TABLE "analysis_runs" ADD COLUMN "referenceHoldoutId" integer`);
+    await portableQuery(queryRunner, `CREATE INDEX "IDX_fb3b6c44cf82cf0858700c6d3c" ON "analysis_runs" ("referenceHoldoutId") `);
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {
-    await queryRunner.query(`DROP INDEX "IDX_fb3b6c44cf82cf0858700c6d3c"`);
-    await queryRunner.query(`ALTER TABLE "analysis_runs" DROP COLUMN "referenceHoldoutId"`);
+    await portableQuery(queryRunner, `DROP INDEX "IDX_fb3b6c44cf82cf0858700c6d3c"`);
+    await portableQuery(queryRunner, `ALTER TABLE "analysis_runs" DROP COLUMN "referenceHoldoutId"`);
   }
 }

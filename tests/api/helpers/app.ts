@@ -6,7 +6,8 @@ import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
 import { closeApp, createApp } from '@server/app';
 import { analysisHandlers } from '@server/comparisons/analysis-handlers';
-import { loadConfig, type Config } from '@server/config';
+import { createPreparedCache, type PreparedCache } from '@server/comparisons/prepared-cache';
+import { databaseAddress, loadConfig, type Config } from '@server/config';
 import { openDatabase } from '@server/db/data-source';
 import { MailMessage } from '@server/db/entities/index';
 import { JobRunner, type JobRunnerOptions } from '@server/jobs/runner';
@@ -14,9 +15,11 @@ import { createLogger } from '@server/log';
 import { Mailer, type MailerOptions } from '@server/mail/mailer';
 import { startSmtpSink, type SmtpSink } from '@server/mail/sink';
 import { seedDemo } from '@server/seed';
+import { createTestDatabase, onPostgres } from '../../setup/test-database';
 
 /**
- * A real app on a real temporary SQLite file, with the real local SMTP sink, for API tests.
+ * A real app on a real temporary SQLite file (or, with TEST_DATABASE_URL, a PostgreSQL database of
+ * its own: tests/setup/test-database.ts), with the real local SMTP sink, for API tests.
  * bcrypt runs at cost 4 so the suite stays quick; everything else is as in production.
  */
 export interface TestApp {
@@ -25,6 +28,8 @@ export interface TestApp {
   mailer: Mailer;
   /** The analysis queue (started). */
   jobs: JobRunner;
+  /** The app's prepared swap-set cache (shared with the queue's handlers). */
+  preparedCache: PreparedCache;
   sink: SmtpSink;
   config: Config;
   directory: string;
@@ -52,24 +57,27 @@ export async function buildTestApp(
   } = {},
 ): Promise<TestApp> {
   const directory = options.directory ?? mkdtempSync(join(tmpdir(), 'scorecourt-test-'));
-  const config = testConfig(options.config, directory);
+  // A database of its own, unless the test names one (a second instance on the same PostgreSQL database).
+  const database = options.config?.databaseUrl ? null : await createTestDatabase(directory);
+  const config = testConfig({ databaseUrl: onPostgres ? database?.address : undefined, ...options.config }, directory);
   const log = createLogger(config.logLevel);
-  const dataSource = await openDatabase(config.databasePath);
+  const dataSource = await openDatabase(databaseAddress(config));
   if (options.seed !== false) await seedDemo(dataSource, { bcryptCost: config.bcryptCost });
   const sink = await startSmtpSink(dataSource, log);
   const transport = options.transport ?? nodemailer.createTransport({ host: sink.host, port: sink.port, secure: false, ignoreTLS: true });
   const mailer = new Mailer(dataSource, transport, { from: config.mailFrom, log, pollMs: 60_000, ...options.mailer });
+  const preparedCache = createPreparedCache(dataSource);
   const jobs = new JobRunner({
     dataSource,
-    databasePath: config.databasePath,
+    databasePath: databaseAddress(config),
     concurrency: config.analysisConcurrency,
     log,
-    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl }),
+    handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl, preparedCache }),
     ...options.jobs,
   });
   await jobs.start();
   const uploadDir = join(directory, 'uploads');
-  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir });
+  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir, preparedCache });
 
   async function deliveredMail(where: { to?: string; afterId?: number } = {}): Promise<MailMessage> {
     const deadline = Date.now() + 10_000;
@@ -90,6 +98,7 @@ export async function buildTestApp(
     dataSource,
     mailer,
     jobs,
+    preparedCache,
     sink,
     config,
     directory,
@@ -100,6 +109,7 @@ export async function buildTestApp(
       await mailer.stop();
       await sink.close();
       await dataSource.destroy();
+      await database?.drop();
       if (!options.directory) rmSync(directory, { recursive: true, force: true });
     },
   };

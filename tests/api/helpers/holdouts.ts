@@ -11,6 +11,14 @@ export const sampleDir = join(import.meta.dirname, '..', '..', '..', 'sample-dat
 /** The demo's 2,000-row sample (sample-data/README.md): points, higher = safer, bad_12m = 1 is bad. */
 const sample2kPath = join(sampleDir, 'tallowmere-holdout-2025-sample-2k.csv');
 export const sample2k = () => readFileSync(sample2kPath);
+/**
+ * The first `rows` accounts of the 2,000-row sample, for tests of rules rather than figures (the
+ * workflow matrix): every analysis costs a tenth, the columns and both outcomes stay.
+ */
+export const sampleHead = (rows: number) => {
+  const lines = readFileSync(sample2kPath, 'utf8').split('\n');
+  return `${lines.slice(0, rows + 1).join('\n')}\n`;
+};
 
 export const sampleMapping: ColumnMapping = {
   outcome: 'bad_12m',

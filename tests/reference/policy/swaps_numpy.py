@@ -4,8 +4,10 @@ implementation of the rules documented in server/stats/cutoffs.ts, on a generate
 Rules: accepted ⇔ the score is on the safe side of the cut-off, the cut-off included (≥ for a
 higher = safer score, ≤ for higher = riskier). For a target approval rate r the cut-off is the
 score of the k-th safest account, k = ceil(r·n − 1e-7), and every account tied with it is accepted.
-Approvals gained at equal bad rate: the largest challenger book (all accounts at or beyond one of
-its score values) whose bad rate is at most the champion's at r, minus the champion's book.
+Bads avoided at equal approval: the champion's book at its cut-off for r holds N accounts; the
+challenger's bads in a book of exactly N accounts (the tie block at the edge taken in proportion).
+Approvals gained at equal bad rate: the largest challenger book (whole score values, or part of
+one, mixed in proportion) whose bad rate is at most the champion's at r, minus the champion's book.
 
 Run from the repository root:  /usr/bin/python3 tests/reference/policy/swaps_numpy.py
 Writes tests/reference/policy/swaps-numpy.json.
@@ -67,12 +69,39 @@ for r in [0.01, 0.1, 0.5, 0.7, 1.0]:
 r = 0.7
 acc_a, bads_a = book("champion", cut_for_rate("champion", r))
 acc_b, bads_b = book("challenger", cut_for_rate("challenger", r))
+
+# Books of the challenger at each of its score values, safest value first: (accounts, bads) of all
+# accounts at or beyond the value, starting from the empty book.
+values = np.unique(safety["challenger"])[::-1]
+books = [(0, 0)] + [book("challenger", v) for v in values]
+
+# Bads avoided at equal approval: the challenger's bads in a book of exactly acc_a accounts, the
+# tie block that straddles acc_a taken in proportion (linear between the two whole books around it).
+equal_bads = None
+for (a0, b0), (a1, b1) in zip(books, books[1:]):
+    if a0 < acc_a <= a1:
+        equal_bads = b0 + (acc_a - a0) / (a1 - a0) * (b1 - b0)
+assert equal_bads is not None
+
+# Approvals gained at equal bad rate: every book along the curve (whole books, and within each
+# block the part f in [0, 1] where the mixed bad rate equals the champion's), the largest with a bad
+# rate at most the champion's.
+R = bads_a / acc_a
 best = None
-for v in np.unique(safety["challenger"]):
-    acc, b = book("challenger", v)
-    if b * acc_a <= bads_a * acc and (best is None or acc > best):
-        best = acc
-at = {"approvalRate": r, "championBads": bads_a, "challengerBads": bads_b, "badsAvoided": bads_a - bads_b,
+for (a0, b0), (a1, b1) in zip(books, books[1:]):
+    candidates = []
+    if b1 <= R * a1:
+        candidates.append(float(a1))
+    da, db = a1 - a0, b1 - b0
+    if db - R * da != 0:
+        f = (R * a0 - b0) / (db - R * da)
+        if 0 <= f <= 1 and a0 + f * da > 0:
+            candidates.append(a0 + f * da)
+    for c in candidates:
+        if best is None or c > best:
+            best = c
+at = {"approvalRate": r, "accounts": acc_a, "championBads": bads_a, "challengerBads": equal_bads,
+      "badsAvoided": bads_a - equal_bads, "challengerAtCutoff": {"accounts": acc_b, "bads": bads_b},
       "approvalsGainedAtEqualBadRate": None if best is None else best - acc_a}
 
 with open("tests/reference/policy/swaps-numpy.json", "w") as f:

@@ -1,7 +1,8 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import ExcelJS from 'exceljs';
 import { describe, expect, it } from 'vitest';
 import { type ColumnMapping, type Report, reportSchema } from '@shared/report';
 import { parseCommand, runCompare, usage } from '@server/cli/compare';
@@ -86,6 +87,31 @@ describe('compare CLI', () => {
     expect(wrongColumn.stderr.split('\n')).toHaveLength(2);
   });
 
+  it('reads the sheet named by --sheet from a workbook, and names it in errors and the summary', async () => {
+    const rows = readFileSync(demo, 'utf8').trim().split('\n').map((line) => line.split(','));
+    const book = new ExcelJS.Workbook();
+    book.addWorksheet('Notes').addRow(['not the holdout']);
+    const sheet = book.addWorksheet('Holdout 2025');
+    rows.forEach((row, index) => sheet.addRow(index === 0 ? row : row.map((cell) => (/^-?\d+(\.\d+)?$/.test(cell) ? Number(cell) : cell))));
+    const dir = mkdtempSync(join(tmpdir(), 'compare-sheet-'));
+    const file = join(dir, 'holdout.xlsx');
+    writeFileSync(file, new Uint8Array(await book.xlsx.writeBuffer()));
+    const fromCsv = JSON.parse((await run([demo, ...demoFlags, '--bootstrap', '0', '--json'])).stdout) as Report;
+    const fromSheet = await run([file, ...demoFlags, '--sheet', 'Holdout 2025', '--bootstrap', '0', '--json']);
+    expect(fromSheet.status, fromSheet.stderr).toBe(0);
+    const report = JSON.parse(fromSheet.stdout) as Report;
+    expect(report.input.sheet).toBe('Holdout 2025');
+    expect(report.champion).toEqual(fromCsv.champion);
+    expect(report.difference).toEqual(fromCsv.difference);
+    expect((await run([file, ...demoFlags, '--sheet', 'Holdout 2025', '--bootstrap', '0'])).stdout).toContain('Scorecourt comparison of holdout.xlsx, sheet “Holdout 2025”');
+    const missing = await run([file, ...demoFlags, '--sheet', 'Holdout 2024']);
+    expect(missing.status).toBe(2);
+    expect(missing.stderr).toBe(`compare: ${file}: the workbook has no sheet named "Holdout 2024"; its sheets are "Notes", "Holdout 2025"\n`);
+    const firstSheet = await run([file, ...demoFlags]);
+    expect(firstSheet.status).toBe(2);
+    expect(firstSheet.stderr).toMatch(/^compare: .*: sheet "Notes", column "bad_12m" is not in the file/);
+  });
+
   it('exits 2 on bad options and a missing file', async () => {
     for (const [argv, message] of [
       [[demo, '--confidence', '2'], 'compare: --confidence must be between 0.5 and 1 (e.g. 0.95), got "2"\n'],
@@ -149,6 +175,7 @@ describe('compare CLI', () => {
       },
       settings: { bootstrap: 500, seed: 7, confidence: 0.9, cutoffs: { champion: 0.2, challenger: 610 }, dropMissing: true },
       reference: null,
+      sheet: null,
     });
     expect(parseCommand(['f.csv', '--approval-rate', '0.8', '--champion-higher-is', 'riskier']).settings.approvalRate).toBe(0.8);
   });
@@ -185,7 +212,7 @@ describe('compare CLI', () => {
     expect(result.stdout).toBe('');
     expect(result.stderr.trim().split('\n')).toHaveLength(1);
     expect(result.stderr).not.toMatch(/\n\s+at /);
-  }, 30_000);
+  });
 });
 
 describe('compare CLI arguments', () => {

@@ -54,7 +54,7 @@ describe('viewerActions', () => {
 
 describe('votes and quorum in words', () => {
   it('counts each choice and states the quorum', () => {
-    const vote = (id: number, choice: 'adopt' | 'keep' | 'defer') => ({ id, vote: choice, comment: '', voter: { id, name: `P${id}` }, createdAt: '2026-01-01T00:00:00Z' });
+    const vote = (id: number, choice: 'adopt' | 'keep' | 'defer') => ({ id, vote: choice, challenger: choice === 'adopt' ? 0 : null, comment: '', voter: { id, name: `P${id}` }, createdAt: '2026-01-01T00:00:00Z' });
     expect(tally([vote(1, 'adopt'), vote(2, 'keep'), vote(3, 'adopt')])).toEqual({ adopt: 2, keep: 1, defer: 0 });
     expect(quorumText(1, 3)).toBe('1 of the 3 votes the adoption policy needs before a decision');
     expect(quorumText(3, 3)).toBe('3 votes cast; the quorum of 3 is met');

@@ -4,18 +4,9 @@ import { ApiError } from '@/lib/api-client';
 import { nameFromFile } from '@/features/comparisons/lib/name-from-file';
 import { columnOptionLabel, mappingFormDefaults, mappingFormSchema, outcomeValues, toColumnMapping } from '@/features/holdouts/lib/mapping';
 import { rowErrorsFrom } from '@/features/holdouts/lib/row-errors';
+import { pdGuess, pdGuessMapping } from './pd-holdout';
 
-const guess: HoldoutInfo['guess'] = {
-  outcome: 'bad_12m',
-  badValue: '1',
-  champion: 'champion_points',
-  challenger: 'challenger_pd',
-  higherIs: { champion: 'safer', challenger: 'riskier' },
-  orientationHints: { champion: 'bads have lower scores', challenger: 'bads have higher scores' },
-  id: 'account_id',
-  segments: ['product'],
-  exposure: null,
-};
+const guess = pdGuess;
 
 describe('the column-mapping form', () => {
   it('starts from the reader\'s guess, with "" for columns left out', () => {
@@ -25,6 +16,9 @@ describe('the column-mapping form', () => {
       champion: 'champion_points',
       challenger: 'challenger_pd',
       higherIs: { champion: 'safer', challenger: 'riskier' },
+      championName: '',
+      challengerName: '',
+      moreChallengers: [],
       id: 'account_id',
       segments: ['product'],
       exposure: '',
@@ -68,17 +62,7 @@ describe('the column-mapping form', () => {
 
   it('turns the form into the shared mapping, with null for columns left out', () => {
     const values = { ...mappingFormDefaults(guess), dropMissing: true };
-    expect(toColumnMapping(values)).toEqual({
-      outcome: 'bad_12m',
-      badValue: '1',
-      champion: 'champion_points',
-      challenger: 'challenger_pd',
-      higherIs: { champion: 'safer', challenger: 'riskier' },
-      id: 'account_id',
-      segments: ['product'],
-      exposure: null,
-      weight: null,
-    });
+    expect(toColumnMapping(values)).toEqual(pdGuessMapping);
   });
 
   it('refuses a column given two roles, naming the column and its first role', () => {

@@ -16,12 +16,13 @@ describe('query keys', () => {
       queryKeys.comparisons.notes(7),
       queryKeys.comparisons.scenarios(7),
       queryKeys.comparisons.swap(7, 3, { approvalRate: 0.7 }),
+      queryKeys.comparisons.mixedStrategy(7, 3, { keepChampion: [] }),
     ];
     for (const key of parts) {
       expect(startsWith(key, detail)).toBe(true);
       expect(startsWith(key, queryKeys.comparisons.detail(70))).toBe(false);
     }
-    expect(parts.map(comparisonPart)).toEqual(['report', 'governance', 'audit', 'notes', 'scenarios', 'swap']);
+    expect(parts.map(comparisonPart)).toEqual(['report', 'governance', 'audit', 'notes', 'scenarios', 'swap', 'mixed-strategy']);
     expect(comparisonPart(detail)).toBeNull();
     expect(startsWith(queryKeys.comparisons.list({ page: 1 }), queryKeys.comparisons.lists())).toBe(true);
     expect(startsWith(queryKeys.comparisons.list({ page: 1 }), detail)).toBe(false);

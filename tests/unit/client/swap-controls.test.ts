@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { type SwapSets } from '@shared/report';
 import { acceptanceRule, approvedBooks, heatLevel, reportSwapQuery, sameSwapQuery, scoreRange, snapToRange, swapQueryFromParams, swapQueryToParams } from '@/features/swap-sets/lib/swap-controls';
-import { tradeOff } from '@/features/swap-sets/lib/trade-off';
+import { equalApprovalSentence } from '@shared/equal-approval-words';
 
 describe('cut-off sliders in each model\'s units', () => {
   it('steps whole points by one', () => {
@@ -96,13 +96,17 @@ describe('numbers derived from a swap result', () => {
     expect(heatLevel(100, 100)).toBe(5);
   });
 
-  it('words the trade-offs whichever way they go', () => {
-    expect(tradeOff({ approvalRate: 0.7, badsAvoided: 171, approvalsGainedAtEqualBadRate: 2913 })).toBe(
-      'At a 70% approval rate the challenger approves 171 fewer bads than the champion; at the champion’s bad rate it could approve 2,913 more accounts.',
+  it('words the trade-offs at equal approval whichever way they go', () => {
+    const at = { approvalRate: 0.7, accounts: 42_000, championBads: 1_200, challengerBads: 1_029, badsAvoided: 171, challengerAtCutoff: { accounts: 42_000, bads: 1_029 }, approvalsGainedAtEqualBadRate: 2913 };
+    expect(equalApprovalSentence(at)).toBe(
+      'At equal approval — the 42,000 accounts the champion approves at 70.0% — the champion’s book holds 1,200 bads and the challenger’s 1,029: the challenger approves 171 fewer bads than the champion. At the champion’s bad rate it could approve 2,913 more accounts.',
     );
-    expect(tradeOff({ approvalRate: 0.62, badsAvoided: -13, approvalsGainedAtEqualBadRate: -124 })).toBe(
-      'At a 62% approval rate the challenger approves 13 more bads than the champion; at the champion’s bad rate it would approve 124 fewer accounts.',
+    // Ties: the challenger's own cut-off approves fewer; the equal book's bads are fractional.
+    expect(
+      equalApprovalSentence({ ...at, approvalRate: 0.62, challengerBads: 1_213.5, badsAvoided: -13.5, challengerAtCutoff: { accounts: 41_725, bads: 1_190 }, approvalsGainedAtEqualBadRate: -124 }),
+    ).toBe(
+      'At equal approval — the 42,000 accounts the champion approves at 62.0% — the champion’s book holds 1,200 bads and the challenger’s 1,213.5: the challenger approves 13.5 more bads than the champion (its own cut-off for 62.0% approves 41,725 accounts with 1,190 bads; ties at the cut-offs make the two books differ in size). At the champion’s bad rate it could approve 124 fewer accounts.',
     );
-    expect(tradeOff({ approvalRate: 0.5, badsAvoided: 0, approvalsGainedAtEqualBadRate: null })).toContain('no approval rate of the challenger matches');
+    expect(equalApprovalSentence({ ...at, badsAvoided: 0, approvalsGainedAtEqualBadRate: null })).toContain('No book of the challenger reaches the champion’s bad rate.');
   });
 });

@@ -9,11 +9,11 @@ describe('scanning a holdout', () => {
   it('describes the demo holdout and guesses its mapping from names and data', async () => {
     const path = sample('tallowmere-holdout-2025.csv');
     const scan = await scanHoldout({ path });
-    // sample-data/README.md: 60,000 accounts; columns as listed there
-    expect(scan.rowCount).toBe(60_000);
+    // sample-data/README.md: 58,699 rows (a through-the-door sample); columns as listed there
+    expect(scan.rowCount).toBe(58_699);
     expect(scan.sha256).toBe(createHash('sha256').update(readFileSync(path)).digest('hex'));
     expect(scan.preview).toHaveLength(PREVIEW_ROWS);
-    expect(scan.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', 'credit-card/branch', '3900', '0', '622', '643']);
+    expect(scan.preview[0]).toEqual(['TCC-25-000001', '2025-05', 'credit-card', 'branch', 'credit-card/branch', '3900', '0', '622', '643', '4', '', '', '626']);
     expect(Object.fromEntries(scan.columns.map((c) => [c.name, c.kind]))).toEqual({
       account_id: 'text',
       application_month: 'categorical',
@@ -24,6 +24,10 @@ describe('scanning a holdout', () => {
       bad_12m: 'numeric',
       champion_points: 'numeric',
       challenger_points: 'numeric',
+      sample_weight: 'numeric',
+      bureau_pd_12m: 'numeric',
+      bureau_basis: 'categorical',
+      refit_points: 'numeric',
     });
     expect(scan.guess).toMatchObject({
       outcome: 'bad_12m',
@@ -32,7 +36,7 @@ describe('scanning a holdout', () => {
       challenger: 'challenger_points',
       higherIs: { champion: 'safer', challenger: 'safer' },
       id: 'account_id',
-      segments: ['application_month', 'product', 'channel', 'product_channel'],
+      segments: ['application_month', 'product', 'channel', 'product_channel', 'bureau_basis'],
       exposure: 'loan_amount',
     });
     expect(scan.guess.orientationHints.champion).toMatch(/^bads have lower scores: AUC 0\.\d{3} taking higher = safer/);
@@ -64,6 +68,22 @@ describe('scanning a holdout', () => {
       id: null,
       exposure: null,
     });
+  });
+
+  it('proposes a coded "no outcome" value of a through-the-door sample, and keeps the outcome out of the segments', async () => {
+    // 300 rows: declined applicants (every third) coded R, booked ones 0 or 1 (every fifth bad).
+    const lines = ['account_id,bad_12m,champion_points,challenger_points,channel'];
+    for (let i = 0; i < 300; i++) {
+      const outcome = i % 3 === 0 ? 'R' : i % 5 === 0 ? '1' : '0';
+      lines.push(`A${i},${outcome},${outcome === '1' ? 540 + (i % 40) : 600 + (i % 60)},${outcome === '1' ? 530 + (i % 50) : 610 + (i % 55)},${['web', 'branch'][i % 2]}`);
+    }
+    const scan = await scanHoldout({ bytes: new TextEncoder().encode(lines.join('\n')), fileName: 'through-the-door.csv' });
+    expect(scan.guess).toMatchObject({ outcome: 'bad_12m', badValue: '1', unknownValues: ['R'], champion: 'champion_points', challenger: 'challenger_points', segments: ['channel'] });
+    expect(mappingFromGuess(scan.guess)).toMatchObject({ outcome: 'bad_12m', badValue: '1', keepUnknown: true, unknownValues: ['R'] });
+    // A plain two-valued outcome proposes none.
+    const plain = await scanHoldout({ bytes: new TextEncoder().encode(lines.filter((line) => !line.includes(',R,')).join('\n')), fileName: 'plain.csv' });
+    expect(plain.guess.outcome).toBe('bad_12m');
+    expect(plain.guess.unknownValues).toBeUndefined();
   });
 
   it('leaves the guess incomplete when there is no outcome column', async () => {

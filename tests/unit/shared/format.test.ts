@@ -8,6 +8,7 @@ import {
   formatCount,
   formatDate,
   formatDateTime,
+  formatDecimal,
   formatFixed,
   formatGini,
   formatGiniDelta,
@@ -243,6 +244,18 @@ describe('settings given as shares, fixed decimals', () => {
     expect(formatFixed(8.05249, 3)).toBe('8.052');
     expect(formatFixed(-0.00004, 3)).toBe('0.000');
     expect(formatFixed(0.71063, 4)).toBe('0.7106');
+  });
+
+  it('writes an α or a threshold to at most so many decimals, without trailing zeros', () => {
+    expect(formatDecimal(0.05, 3)).toBe('0.05');
+    expect(formatDecimal(0.1, 3)).toBe('0.1');
+    expect(formatDecimal(0.0125, 3)).toBe('0.013');
+    expect(formatDecimal(2, 3)).toBe('2');
+    expect(formatDecimal(100, 2)).toBe('100');
+    expect(formatDecimal(10, 0)).toBe('10');
+    expect(formatDecimal(-0.25, 3)).toBe(`${MINUS}0.25`);
+    expect(formatDecimal(0.00004, 3)).toBe('0');
+    expect(formatDecimal(Number.NaN, 3)).toBe('—');
   });
 });
 

@@ -1,7 +1,8 @@
 import seedrandom from 'seedrandom';
 import { describe, expect, it } from 'vitest';
 import { bootstrap, histogram } from '@server/stats/bootstrap';
-import { nextUint32, planBootstrap, replicateScratch, replicateState, runReplicates } from '@server/stats/bootstrap-kernel';
+import { nextUint32, replicateScratch, replicateState, runReplicates } from '@server/stats/bootstrap-kernel';
+import { planBootstrap } from '@server/stats/bootstrap-plan';
 import { auc } from '@server/stats/auc';
 import { ks } from '@server/stats/ks';
 import { scoreBlocks } from '@server/stats/order';
@@ -158,7 +159,33 @@ describe('bootstrap', () => {
     expect(two).toEqual(here);
     expect(progress.at(-1)).toBe(110);
     expect([...progress].sort((x, y) => x - y)).toEqual(progress);
-  }, 60_000);
+    // A plan with staged challenger-order writes (large plans; bootstrap-scatter.ts), on threads.
+    expect(await bootstrap(a, b, bad, { ...options, threads: 2, stageFrom: 0 })).toEqual(here);
+  });
+
+  it('stops when its signal aborts, on threads and in this thread', async () => {
+    const { bad, a, b } = holdout(2000, 'abort-check');
+    for (const threads of [2, 0]) {
+      const stop = new AbortController();
+      let seen = 0;
+      const running = bootstrap(a, b, bad, {
+        replicates: 5000,
+        seed: 3,
+        confidence: 0.95,
+        threads,
+        signal: stop.signal,
+        onProgress: (done) => {
+          seen = done;
+          if (done >= 50) stop.abort(new Error('stopped by the test'));
+        },
+      });
+      await expect(running).rejects.toThrow('stopped by the test');
+      // Stopped long before the end (a thread may still report the blocks it had been handed).
+      expect(seen).toBeLessThan(1000);
+    }
+    const aborted = AbortSignal.abort(new Error('already stopped'));
+    await expect(bootstrap(a, b, bad, { replicates: 100, seed: 3, confidence: 0.95, threads: 2, signal: aborted })).rejects.toThrow('already stopped');
+  });
 
   it('brackets the point estimates with percentile intervals and bins every replicate', async () => {
     const { bad, a, b } = holdout(3000, 'interval-check');

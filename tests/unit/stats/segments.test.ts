@@ -57,9 +57,9 @@ describe('segments', () => {
         expect(Math.abs(row.championGini! - (2 * segment.champion.auc - 1))).toBeLessThan(2e-9);
         expect(Math.abs(row.challengerGini! - (2 * segment.challenger.auc - 1))).toBeLessThan(2e-9);
         expect(relative(row.giniSe!, (2 * (segment.challenger.auc - segment.champion.auc)) / segment.z)).toBeLessThan(1e-10);
-        expect(relative(row.p!, segment.pTwoSided)).toBeLessThan(1e-4);
+        expect(relative(row.p!, segment.pTwoSided)).toBeLessThan(1e-12);
         expect(row.pTwoSided).toBe(row.p);
-        expect(relative(row.pHolm!, segment.pTwoSidedHolm)).toBeLessThan(1e-4);
+        expect(relative(row.pHolm!, segment.pTwoSidedHolm)).toBeLessThan(1e-12);
         // ΔGini interval = 2 × pROC's ΔAUC interval (ci of roc.test, Δ ± qnorm(0.975)·se)
         expect(relative(row.giniCi![0], 2 * segment.ciLower)).toBeLessThan(1e-10);
         expect(relative(row.giniCi![1], 2 * segment.ciUpper)).toBeLessThan(1e-10);

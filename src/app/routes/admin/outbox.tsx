@@ -1,4 +1,4 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
 import { type LoaderFunctionArgs, useNavigate, useSearchParams } from 'react-router';
 import { type MailMessage } from '@shared/users';
@@ -6,11 +6,9 @@ import { paths } from '@/config/paths';
 import { Button, ButtonLink } from '@/components/button';
 import { DocumentTitle } from '@/components/document-title';
 import { EmptyState } from '@/components/empty-state';
-import { ErrorState } from '@/components/error-state';
 import { MailIcon, RefreshIcon } from '@/components/icons';
-import { LoadingState } from '@/components/loading-state';
 import { PageHeader } from '@/components/page-header';
-import { OUTBOX_PAGE_SIZE, outboxQueryOptions, useOutbox } from '@/features/outbox/api/get-outbox';
+import { OUTBOX_PAGE_SIZE, outboxQueryOptions } from '@/features/outbox/api/get-outbox';
 import { MailMessageDialog } from '@/features/outbox/components/mail-message-dialog';
 import { OutboxTable } from '@/features/outbox/components/outbox-table';
 import { requireRole } from '@/app/guards';
@@ -30,11 +28,12 @@ export function Component() {
   const [params] = useSearchParams();
   const navigate = useNavigate();
   const page = pageFrom(params);
-  const outbox = useOutbox({ page, pageSize: OUTBOX_PAGE_SIZE });
+  // The loader filled the cache for this page; a failed load shows the route's error boundary.
+  const outbox = useSuspenseQuery(outboxQueryOptions({ page, pageSize: OUTBOX_PAGE_SIZE }));
   const [reading, setReading] = useState<MailMessage | null>(null);
   const onOpen = useCallback((message: MailMessage) => setReading(message), []);
   // The open message follows the polled list, so its delivery status stays current.
-  const current = reading ? (outbox.data?.messages.find((message) => message.id === reading.id) ?? reading) : null;
+  const current = reading ? (outbox.data.messages.find((message) => message.id === reading.id) ?? reading) : null;
 
   return (
     <>
@@ -44,16 +43,12 @@ export function Component() {
         title="Outbox"
         subtitle="Every e-mail Scorecourt sends: invitations, password resets and workflow notices, with delivery status. Open a subject to read the message."
         actions={
-          <Button onClick={() => outbox.refetch()} loading={outbox.isFetching && !outbox.isPending} loadingText="Refreshing…" icon={<RefreshIcon />}>
+          <Button onClick={() => outbox.refetch()} loading={outbox.isFetching} loadingText="Refreshing…" icon={<RefreshIcon />}>
             Refresh
           </Button>
         }
       />
-      {outbox.isPending ? (
-        <LoadingState label="Loading the outbox…" variant="skeleton" />
-      ) : outbox.isError ? (
-        <ErrorState error={outbox.error} onRetry={() => outbox.refetch()} retrying={outbox.isFetching} />
-      ) : outbox.data.messages.length === 0 && outbox.data.total > 0 ? (
+      {outbox.data.messages.length === 0 && outbox.data.total > 0 ? (
         <EmptyState title="This page is past the last e-mail" action={<ButtonLink to={paths.admin.outbox()} icon={<MailIcon />}>Go to the newest e-mails</ButtonLink>} />
       ) : (
         <OutboxTable

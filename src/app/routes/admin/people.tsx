@@ -1,4 +1,4 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback, useState } from 'react';
 import { type LoaderFunctionArgs } from 'react-router';
 import { type User } from '@shared/users';
@@ -6,10 +6,8 @@ import { useUser } from '@/lib/auth';
 import { Button } from '@/components/button';
 import { Alert } from '@/components/callout';
 import { DocumentTitle } from '@/components/document-title';
-import { ErrorState } from '@/components/error-state';
-import { LoadingState } from '@/components/loading-state';
 import { PageHeader } from '@/components/page-header';
-import { usersQueryOptions, useUsers } from '@/features/users/api/get-users';
+import { usersQueryOptions } from '@/features/users/api/get-users';
 import { ChangeRolesDialog } from '@/features/users/components/change-roles-dialog';
 import { InvitePersonDialog } from '@/features/users/components/invite-person-dialog';
 import { PeopleTable } from '@/features/users/components/people-table';
@@ -26,7 +24,8 @@ type Open = { kind: 'invite' } | { kind: 'roles'; user: User } | { kind: 'active
 
 export function Component() {
   const { data: me } = useUser();
-  const users = useUsers();
+  // The loader filled the cache; a failed load shows the route's error boundary.
+  const users = useSuspenseQuery(usersQueryOptions());
   const [open, setOpen] = useState<Open>(null);
   const [notice, setNotice] = useState<string | null>(null);
 
@@ -39,7 +38,7 @@ export function Component() {
   };
 
   if (!me) return null;
-  const activeCount = users.data?.filter((user) => user.active).length ?? 0;
+  const activeCount = users.data.filter((user) => user.active).length;
 
   return (
     <>
@@ -47,11 +46,7 @@ export function Component() {
       <PageHeader
         eyebrow="Administration"
         title="People"
-        subtitle={
-          users.data
-            ? `${users.data.length} ${users.data.length === 1 ? 'account' : 'accounts'}, ${activeCount} active. Invited people stay inactive until they choose a password with their link.`
-            : undefined
-        }
+        subtitle={`${users.data.length} ${users.data.length === 1 ? 'account' : 'accounts'}, ${activeCount} active. Invited people stay inactive until they choose a password with their link.`}
         actions={
           <Button variant="primary" onClick={() => setOpen({ kind: 'invite' })}>
             Invite a person
@@ -64,13 +59,7 @@ export function Component() {
             <p>{notice}</p>
           </Alert>
         ) : null}
-        {users.isPending ? (
-          <LoadingState label="Loading people…" variant="skeleton" />
-        ) : users.isError ? (
-          <ErrorState error={users.error} onRetry={() => users.refetch()} retrying={users.isFetching} />
-        ) : (
-          <PeopleTable users={users.data} currentUserId={me.id} onChangeRoles={onChangeRoles} onSetActive={onSetActive} />
-        )}
+        <PeopleTable users={users.data} currentUserId={me.id} onChangeRoles={onChangeRoles} onSetActive={onSetActive} />
       </div>
       <InvitePersonDialog
         open={open?.kind === 'invite'}

@@ -1,4 +1,6 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { useMemo } from 'react';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
+import { chosenModelWords, hasSeveralChallengers, recommendedName } from '@shared/challengers-words';
 import { canSetUp } from '@shared/workflow';
 import { type LoaderFunctionArgs, Link, Outlet, redirect, useParams } from 'react-router';
 import { paths } from '@/config/paths';
@@ -15,8 +17,9 @@ import { StatusBadge } from '@/components/status-badge';
 import { Steps } from '@/components/steps';
 import { Tabs } from '@/components/tabs';
 import { PackDownloads } from '@/features/comparisons/components/pack-downloads';
-import { comparisonQueryOptions, isRunActive, useComparison } from '@/features/comparisons/api/get-comparison';
+import { comparisonQueryOptions, isRunActive } from '@/features/comparisons/api/get-comparison';
 import { reportQueryOptions, useReport } from '@/features/comparisons/api/get-report';
+import { shownReport } from '@/features/comparisons/lib/shown-report';
 import { AnalysisFailed, AnalysisProgress } from '@/features/comparisons/components/analysis-progress';
 import { NextStepCallout } from '@/features/comparisons/components/next-step-callout';
 import { nextSteps } from '@/features/comparisons/lib/next-step';
@@ -53,20 +56,24 @@ export const loader = (queryClient: QueryClient) => async ({ request, params }: 
 export function Component() {
   const id = comparisonIdFrom(useParams());
   const { data: user } = useUser();
-  const comparison = useComparison(id);
-  const detail = comparison.data;
-  const report = useReport(id, detail?.currentRunId ?? null);
+  // The loader filled the cache; a failed load shows the route's error boundary. The report is
+  // read with useQuery: a new run's report arrives while the page is open (page-state.ts).
+  const { data: detail } = useSuspenseQuery(comparisonQueryOptions(id));
+  const report = useReport(id, detail.currentRunId);
+  // Several challengers: each one's verdict and the recommended one as the current verdict record says.
+  const shown = useMemo(() => (report.data ? shownReport(report.data, detail.verdict) : undefined), [report.data, detail.verdict]);
+  // Several challengers, decided: the header names the model chosen (the comparison's decision).
+  const several = !!shown && hasSeveralChallengers(shown);
+  const decided = several && detail.state === 'decided' ? chosenModelWords(detail.decided?.chosen) : null;
 
-  if (comparison.isPending) return <LoadingState label="Loading the comparison…" variant="skeleton" />;
-  if (comparison.isError) return <ErrorState error={comparison.error} onRetry={() => comparison.refetch()} retrying={comparison.isFetching} />;
-  if (!detail || !user) return null;
+  if (!user) return null;
 
   const latest = detail.runs[0] ?? null;
   const active = isRunActive(detail);
   const pageInput = {
     comparison: detail,
     active,
-    report: { loaded: !!report.data, pending: report.isPending, errorStatus: isApiError(report.error) ? report.error.status : null },
+    report: { loaded: !!shown, pending: report.isPending, errorStatus: isApiError(report.error) ? report.error.status : null },
   };
   const state = comparisonPageState(pageInput);
   const steps = nextSteps({ state: detail.state, latestRun: latest, hasReport: detail.currentRunId !== null, createdById: detail.createdBy.id, authorIds: detail.authorIds, user });
@@ -81,10 +88,10 @@ export function Component() {
   const isModeler = hasRole(user, 'modeler');
   const bodySaysNextStep = bodyShowsNextStep(pageInput);
   // One verdict everywhere: the comparison's current verdict record (newest, or the decided one).
-  const verdict = detail.verdict?.outcome ?? report.data?.verdict.outcome;
+  const verdict = detail.verdict?.outcome ?? shown?.verdict.outcome;
 
   let body;
-  if (state.kind === 'report' && report.data) {
+  if (state.kind === 'report' && shown) {
     body = (
       <>
         {state.newRunActive && latest ? (
@@ -94,7 +101,7 @@ export function Component() {
             </p>
           </Callout>
         ) : null}
-        <Outlet context={{ comparison: detail, report: report.data } satisfies ComparisonPageContext} />
+        <Outlet context={{ comparison: detail, report: shown } satisfies ComparisonPageContext} />
       </>
     );
   } else if (state.kind === 'running' && latest) {
@@ -164,6 +171,24 @@ export function Component() {
               <StatusBadge tone={verdictTones[verdict]}>{verdictLabels[verdict]}</StatusBadge>
             </span>
           ) : null}
+          {shown && hasSeveralChallengers(shown) ? (
+            <span data-testid="header-recommended">
+              {shown.challengers.length} challengers ·{' '}
+              {recommendedName(shown) ? (
+                <>
+                  recommended: <span className="font-medium text-ink">{recommendedName(shown)}</span>
+                </>
+              ) : (
+                'none recommended'
+              )}
+              {decided ? (
+                <>
+                  {' '}
+                  · decided: <span className="font-medium text-ink">{decided}</span>
+                </>
+              ) : null}
+            </span>
+          ) : null}
           <span>
             {detail.holdout.fileName} · <span className="num">{formatCount(detail.holdout.rowCount)}</span> rows
           </span>
@@ -190,7 +215,7 @@ export function Component() {
             ))}
           </ul>
         ) : null}
-        {report.data ? <PackDownloads comparisonId={id} decided={detail.state === 'decided'} /> : null}
+        {shown ? <PackDownloads comparisonId={id} decided={detail.state === 'decided'} /> : null}
         <Tabs
           label="Comparison pages"
           items={comparisonTabs.map((tab) => ({ to: tab.path(id), label: tab.label, end: tab.key === 'verdict' }))}

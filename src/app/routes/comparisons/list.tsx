@@ -1,16 +1,14 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useCallback } from 'react';
-import { type LoaderFunctionArgs, useNavigate, useSearchParams } from 'react-router';
+import { type LoaderFunctionArgs, useNavigate, useNavigation, useSearchParams } from 'react-router';
 import { comparisonStateSchema, listComparisonsQuerySchema } from '@shared/comparisons';
 import { paths } from '@/config/paths';
 import { hasRole, useUser } from '@/lib/auth';
 import { ButtonLink } from '@/components/button';
 import { DocumentTitle } from '@/components/document-title';
 import { EmptyState } from '@/components/empty-state';
-import { ErrorState } from '@/components/error-state';
-import { LoadingState } from '@/components/loading-state';
 import { PageHeader } from '@/components/page-header';
-import { type ComparisonListParams, comparisonsQueryOptions, useComparisons } from '@/features/comparisons/api/get-comparisons';
+import { type ComparisonListParams, comparisonsQueryOptions } from '@/features/comparisons/api/get-comparisons';
 import { type ComparisonFilterValues, ComparisonFilters } from '@/features/comparisons/components/comparison-filters';
 import { ComparisonsTable } from '@/features/comparisons/components/comparisons-table';
 import { requireUser } from '@/app/guards';
@@ -41,7 +39,10 @@ export function Component() {
   const navigate = useNavigate();
   const { data: user } = useUser();
   const params = paramsFrom(search);
-  const list = useComparisons(params);
+  // The loader filled the cache for these parameters; a failed load shows the route's error boundary.
+  const list = useSuspenseQuery(comparisonsQueryOptions(params));
+  // While the next page or filter loads, the router keeps this one on screen, dimmed.
+  const loadingNext = useNavigation().state === 'loading';
   const isModeler = hasRole(user, 'modeler');
   const filtered = !!params.state || !!params.q;
 
@@ -66,11 +67,7 @@ export function Component() {
       />
       <div className="space-y-5">
         <ComparisonFilters values={{ state: params.state, q: params.q ?? '', sort: params.sort }} onChange={onFilter} />
-        {list.isPending ? (
-          <LoadingState label="Loading comparisons…" variant="skeleton" />
-        ) : list.isError ? (
-          <ErrorState error={list.error} onRetry={() => list.refetch()} retrying={list.isFetching} />
-        ) : list.data.items.length === 0 && list.data.total > 0 ? (
+        {list.data.items.length === 0 && list.data.total > 0 ? (
           <EmptyState
             title="This page is past the last comparison"
             action={
@@ -80,7 +77,7 @@ export function Component() {
             }
           />
         ) : (
-          <div aria-busy={list.isPlaceholderData || undefined} className={list.isPlaceholderData ? 'opacity-70 transition-opacity' : undefined}>
+          <div aria-busy={loadingNext || undefined} className={loadingNext ? 'opacity-70 transition-opacity' : undefined}>
             <ComparisonsTable
               items={list.data.items}
               total={list.data.total}

@@ -1,21 +1,20 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useEffect, useState } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router';
+import { hasSeveralChallengers } from '@shared/challengers-words';
 import { comparisonStateLabels } from '@shared/comparisons';
 import { paths } from '@/config/paths';
 import { useUser } from '@/lib/auth';
 import { ksChart, rocChart, segmentIntervalsChart, strategyChart, swapGridChart, upliftChart } from '@shared/pack/charts';
-import { formatCount, formatDateTime, formatPercent, formatScore } from '@/lib/format';
+import { formatDateTime, formatPercent, formatScore } from '@/lib/format';
 import { Button } from '@/components/button';
 import { PackChart } from '@/components/charts/pack-chart';
 import { DecisionCautions } from '@/components/decision-cautions';
 import { DocumentTitle } from '@/components/document-title';
-import { ErrorState } from '@/components/error-state';
-import { LoadingState } from '@/components/loading-state';
 import { GiniContext } from '@/features/comparisons/components/gini-context';
-import { auditTrailQueryOptions, useAuditTrail } from '@/features/governance/api/get-audit-trail';
-import { governanceQueryOptions, useGovernance } from '@/features/governance/api/get-governance';
-import { notesQueryOptions, useNotes } from '@/features/governance/api/get-notes';
+import { auditTrailQueryOptions } from '@/features/governance/api/get-audit-trail';
+import { governanceQueryOptions } from '@/features/governance/api/get-governance';
+import { notesQueryOptions } from '@/features/governance/api/get-notes';
 import { AuditEventWhat, ChainStatus } from '@/features/governance/components/audit-timeline';
 import { DecisionRecord } from '@/features/governance/components/decision-record';
 import { NoteItem } from '@/features/governance/components/discussion-thread';
@@ -33,10 +32,13 @@ import {
 } from '@/features/governance/components/report/report-evidence';
 import { ReportCalibrationStability } from '@/features/governance/components/report/report-calibration';
 import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/components/report/report-table';
-import { scenariosQueryOptions, useScenarios } from '@/features/swap-sets/api/get-scenarios';
+import { scenariosQueryOptions } from '@/features/swap-sets/api/get-scenarios';
+import { ReportChallengers } from '@/features/governance/components/report/report-challengers';
+import { challengerOptions } from '@/features/governance/lib/choosing';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
-import { policyInOneSentence } from '@/features/policy/components/policy-words';
+import { committeeDecidesNote, criteriaTable, noDecisionSentence, notDecidedSentence, policyInOneSentence, shortenedHashesNote, verdictHeading, verdictRecordsNote } from '@shared/pack/record-words';
+import { scenarioAccounts, scenarioBadRate } from '@/features/swap-sets/lib/scenario-cell';
 
 export const loader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   const id = comparisonIdFrom(params);
@@ -60,10 +62,11 @@ export function Component() {
   const id = comparisonIdFrom(useParams());
   const { comparison, report } = useComparisonPage();
   const { data: user } = useUser();
-  const governance = useGovernance(id);
-  const audit = useAuditTrail(id);
-  const notes = useNotes(id);
-  const scenarios = useScenarios(id);
+  // The loader filled the cache; a failed load shows the route's error boundary.
+  const governance = useSuspenseQuery(governanceQueryOptions(id));
+  const audit = useSuspenseQuery(auditTrailQueryOptions(id));
+  const notes = useSuspenseQuery(notesQueryOptions(id));
+  const scenarios = useSuspenseQuery(scenariosQueryOptions(id));
   const [paper, setPaper] = useState<Paper>('a4');
   const [generatedAt] = useState(() => new Date());
   // The print stylesheet picks the paper from the root element (styles.css, "report").
@@ -74,18 +77,15 @@ export function Component() {
     };
   }, [paper]);
 
-  if (governance.isPending || audit.isPending) return <LoadingState label="Assembling the report…" variant="skeleton" />;
-  if (governance.isError) return <ErrorState error={governance.error} onRetry={() => governance.refetch()} />;
-  if (audit.isError) return <ErrorState error={audit.error} onRetry={() => audit.refetch()} />;
   const g = governance.data;
   const trail = audit.data;
-  const hasAmount = !!report.mapping.exposure;
   // The comparison's current verdict record (the decided one after a decision), as every page shows it.
   const verdict = comparison.verdict ?? report.verdict;
-  const annotations = (notes.data ?? []).filter((note) => note.anchor !== 'discussion');
-  const discussion = (notes.data ?? []).filter((note) => note.anchor === 'discussion');
+  const annotations = notes.data.filter((note) => note.anchor !== 'discussion');
+  const discussion = notes.data.filter((note) => note.anchor === 'discussion');
   const segmentChart = segmentIntervalsChart(report);
-  const scenarioName = new Map((scenarios.data ?? []).map((scenario) => [scenario.id, scenario.name]));
+  const scenarioName = new Map(scenarios.data.map((scenario) => [scenario.id, scenario.name]));
+  const challengers = challengerOptions(report);
 
   return (
     <article data-report data-paper={paper} className="report mx-auto max-w-5xl space-y-10" aria-label="Model-risk report">
@@ -122,20 +122,22 @@ export function Component() {
           </p>
         </div>
         <div className="report-block flex flex-wrap items-center gap-3 rounded-md border border-line p-3 text-sm">
-          <span className="font-medium">Verdict under adoption policy version {verdict.policyVersion}:</span>
+          <span className="font-medium">{verdictHeading(verdict)}:</span>
           <VerdictOutcomeBadge outcome={verdict.outcome} />
           <span className="text-ink-soft">{verdict.summary}</span>
         </div>
         {g.decision ? (
           <div className="report-block rounded-md border border-line p-3">
-            <DecisionRecord decision={g.decision} />
+            <DecisionRecord decision={g.decision} several={challengers.length > 0} />
           </div>
         ) : (
-          <p className="text-sm text-ink-soft">No committee decision is recorded yet: this comparison is {comparisonStateLabels[g.state].toLowerCase()}.</p>
+          <p className="text-sm text-ink-soft">{noDecisionSentence(g.state)}</p>
         )}
         <ReportData report={report} comparison={comparison} />
         <DecisionCautions className="report-block" />
       </ReportPart>
+
+      {hasSeveralChallengers(report) ? <ReportChallengers report={report} /> : null}
 
       <ReportPart title="Evidence: metrics and tests" id="report-metrics">
         <ReportMetrics report={report} />
@@ -153,11 +155,11 @@ export function Component() {
       </ReportPart>
 
       <ReportPart title="Who changes sides: swap sets and segments" id="report-swap">
-        <ReportSwapTable swap={report.swap} confidence={report.settings.confidence} hasAmount={hasAmount} title="Swap sets at the report’s cut-offs" />
+        <ReportSwapTable report={report} title="Swap sets at the report’s cut-offs" />
         <PackChart chart={swapGridChart(report)} />
         <ReportStrategy report={report} />
         <PackChart chart={strategyChart(report)} />
-        <ReportSwapSegments swap={report.swap} confidence={report.settings.confidence} />
+        <ReportSwapSegments report={report} />
         {scenarios.data && scenarios.data.length > 0 ? (
           <ReportBlock title="Saved cut-off scenarios" note="Chosen by credit policy; swap sets as computed when each was saved.">
             <ReportTable
@@ -169,10 +171,10 @@ export function Component() {
                 formatScore(scenario.cutoffs.champion),
                 formatScore(scenario.cutoffs.challenger),
                 scenario.approvalRate === null ? 'cut-offs' : formatPercent(scenario.approvalRate, 1),
-                formatCount(scenario.swapIn.count),
-                formatPercent(scenario.swapIn.badRate),
-                formatCount(scenario.swapOut.count),
-                formatPercent(scenario.swapOut.badRate),
+                scenarioAccounts(scenario.swapIn),
+                scenarioBadRate(scenario.swapIn),
+                scenarioAccounts(scenario.swapOut),
+                scenarioBadRate(scenario.swapOut),
                 scenario.createdBy.name,
               ])}
             />
@@ -193,25 +195,20 @@ export function Component() {
 
       <ReportPart title="Verdict, review and decision" id="report-governance">
         <ReportBlock title={`Adoption criteria (policy version ${verdict.policyVersion})`}>
-          <ReportTable
-            caption="Adoption criteria"
-            head={['Criterion', 'Result', 'Why']}
-            nowrap={[1]}
-            rows={verdict.criteria.map((criterion) => [criterion.label, criterion.met ? 'Met' : 'Not met', criterion.detail])}
-          />
+          <ReportTable caption="Adoption criteria" nowrap={[1]} {...criteriaTable(verdict)} />
           <p className="text-xs text-ink-soft">{policyInOneSentence(report.policy)}</p>
         </ReportBlock>
-        <ReportBlock title="Verdict records" note="Every verdict given, newest first, each under the policy version it used; a stored verdict never changes.">
+        <ReportBlock title="Verdict records" note={verdictRecordsNote}>
           <VerdictRecords comparisonId={id} records={g.verdicts} currentRunId={comparison.currentRunId} canReEvaluate={false} />
         </ReportBlock>
         <ReportBlock title="Review findings">
           <ReviewsList reviews={g.reviews} />
         </ReportBlock>
         <ReportBlock title="Committee votes">
-          <VotesTally votes={g.votes} quorum={g.quorum} />
+          <VotesTally votes={g.votes} quorum={g.quorum} challengers={challengers} adoptVotesByChallenger={g.adoptVotesByChallenger} />
         </ReportBlock>
         <ReportBlock title="Decision">
-          {g.decision ? <DecisionRecord decision={g.decision} /> : <p className="text-sm text-ink-soft">Not decided yet.</p>}
+          {g.decision ? <DecisionRecord decision={g.decision} several={challengers.length > 0} /> : <p className="text-sm text-ink-soft">{notDecidedSentence}</p>}
         </ReportBlock>
         {discussion.length > 0 ? (
           <ReportBlock title="Discussion">
@@ -222,9 +219,7 @@ export function Component() {
             </ol>
           </ReportBlock>
         ) : null}
-        <p className="report-block text-xs text-ink-soft">
-          The verdict advises and the committee decides; the cautions on the first page apply to every decision recorded here.
-        </p>
+        <p className="report-block text-xs text-ink-soft">{committeeDecidesNote}</p>
       </ReportPart>
 
       <ReportPart title="Audit trail" id="report-audit">
@@ -242,9 +237,7 @@ export function Component() {
             </code>,
           ])}
         />
-        <p className="text-xs text-ink-soft">
-          Hashes are shortened here; the evidence pack holds them in full, with every event’s details.
-        </p>
+        <p className="text-xs text-ink-soft">{shortenedHashesNote}</p>
       </ReportPart>
     </article>
   );

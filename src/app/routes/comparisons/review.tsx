@@ -1,4 +1,4 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { type LoaderFunctionArgs, useParams } from 'react-router';
 import { paths } from '@/config/paths';
@@ -7,11 +7,9 @@ import { ButtonLink } from '@/components/button';
 import { Alert } from '@/components/callout';
 import { Section } from '@/components/card';
 import { DecisionCautions } from '@/components/decision-cautions';
-import { ErrorState } from '@/components/error-state';
-import { LoadingState } from '@/components/loading-state';
-import { auditTrailQueryOptions, useAuditTrail } from '@/features/governance/api/get-audit-trail';
-import { governanceQueryOptions, useGovernance } from '@/features/governance/api/get-governance';
-import { notesQueryOptions, useNotes } from '@/features/governance/api/get-notes';
+import { auditTrailQueryOptions } from '@/features/governance/api/get-audit-trail';
+import { governanceQueryOptions } from '@/features/governance/api/get-governance';
+import { notesQueryOptions } from '@/features/governance/api/get-notes';
 import { AuditTimeline, ChainStatus } from '@/features/governance/components/audit-timeline';
 import { DecisionForm } from '@/features/governance/components/decision-form';
 import { DecisionRecord } from '@/features/governance/components/decision-record';
@@ -23,7 +21,11 @@ import { SubmitForm } from '@/features/governance/components/submit-form';
 import { VerdictRecords } from '@/features/governance/components/verdict-records';
 import { VoteForm, VotesTally } from '@/features/governance/components/votes-panel';
 import { WorkflowProgress } from '@/features/governance/components/workflow-progress';
+import { keepableValues } from '@/features/governance/components/keep-champion';
+import { segmentsOf } from '@shared/challenger-sections';
+import { decisionRecipients } from '@/features/governance/lib/recipients';
 import { viewerActions } from '@/features/governance/lib/workflow';
+import { challengerOptions } from '@/features/governance/lib/choosing';
 import { comparisonIdFrom } from '@/app/routes/comparisons/comparison-id';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
 
@@ -45,15 +47,14 @@ export const loader = (queryClient: QueryClient) => async ({ params }: LoaderFun
  */
 export function Component() {
   const id = comparisonIdFrom(useParams());
-  const { comparison } = useComparisonPage();
+  const { comparison, report } = useComparisonPage();
   const { data: user } = useUser();
-  const governance = useGovernance(id);
-  const audit = useAuditTrail(id);
-  const notes = useNotes(id);
+  // The loader filled the cache; a failed load shows the route's error boundary.
+  const governance = useSuspenseQuery(governanceQueryOptions(id));
+  const audit = useSuspenseQuery(auditTrailQueryOptions(id));
+  const notes = useSuspenseQuery(notesQueryOptions(id));
   const [notice, setNotice] = useState<string | null>(null);
 
-  if (governance.isPending) return <LoadingState label="Loading the review…" variant="skeleton" />;
-  if (governance.isError) return <ErrorState error={governance.error} onRetry={() => governance.refetch()} retrying={governance.isFetching} />;
   if (!user) return null;
   const g = governance.data;
   const actions = viewerActions({
@@ -65,9 +66,11 @@ export function Component() {
   });
   const myVote = g.votes.find((vote) => vote.voter.id === user.id) ?? null;
   const quorumMet = g.quorum <= 0 || g.votes.length >= g.quorum;
+  // Several challengers: votes and the decision name one (empty with one challenger).
+  const challengers = challengerOptions(report);
   const step = (() => {
     if (actions.submit.kind === 'allowed') return { title: 'Submit for review', body: <SubmitForm comparisonId={id} onDone={setNotice} /> };
-    if (actions.review.kind === 'allowed') return { title: 'Your review', body: <ReviewForm comparisonId={id} onDone={setNotice} /> };
+    if (actions.review.kind === 'allowed') return { title: 'Your review', body: <ReviewForm comparisonId={id} creator={g.createdBy.name} onDone={setNotice} /> };
     const refusal = [actions.submit, actions.review, actions.vote].find((permission) => permission.kind === 'refused');
     if (refusal?.kind === 'refused') {
       return {
@@ -109,20 +112,32 @@ export function Component() {
         {g.state === 'validated' || g.state === 'decided' || g.votes.length > 0 ? (
           <Section title="Committee votes" description="The votes of the current validation round; a member who votes again replaces their earlier vote.">
             <div className="space-y-5">
-              <VotesTally votes={g.votes} quorum={g.quorum} />
-              {actions.vote.kind === 'allowed' ? <VoteForm comparisonId={id} current={myVote} /> : null}
+              <VotesTally votes={g.votes} quorum={g.quorum} challengers={challengers} adoptVotesByChallenger={g.adoptVotesByChallenger} />
+              {actions.vote.kind === 'allowed' ? <VoteForm comparisonId={id} current={myVote} challengers={challengers} /> : null}
               {actions.vote.kind === 'refused' ? <RefusalNote>{actions.vote.reason}</RefusalNote> : null}
             </div>
           </Section>
         ) : null}
 
         {g.decision || actions.decide.kind !== 'hidden' ? (
-          <Section title="Decision" description={g.decision ? undefined : 'Adopt the challenger, keep the champion or defer, with the rationale.'}>
+          <Section title="Decision" description={g.decision ? undefined : challengers.length > 0 ? 'Adopt one of the challengers, keep the champion or defer, with the rationale.' : 'Adopt the challenger, keep the champion or defer, with the rationale.'}>
             {g.decision ? (
-              <DecisionRecord decision={g.decision} />
+              <DecisionRecord decision={g.decision} several={challengers.length > 0} />
             ) : actions.decide.kind === 'allowed' ? (
               <div className="grid grid-cols-1 gap-5 xl:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
-                <DecisionForm comparisonId={id} quorumMet={quorumMet} tally={g.tally} majority={g.majority} onDone={setNotice} />
+                <DecisionForm
+                  comparisonId={id}
+                  runId={comparison.currentRunId}
+                  quorumMet={quorumMet}
+                  tally={g.tally}
+                  majority={g.majority}
+                  segmentValues={keepableValues(report.segments)}
+                  recipients={decisionRecipients(g, user.id)}
+                  onDone={setNotice}
+                  challengers={challengers}
+                  adoptVotesByChallenger={g.adoptVotesByChallenger}
+                  segmentValuesByChallenger={challengers.map((option) => keepableValues(segmentsOf(report, option.index)))}
+                />
                 <DecisionCautions compact />
               </div>
             ) : actions.decide.kind === 'refused' ? (
@@ -136,7 +151,7 @@ export function Component() {
         </Section>
 
         <Section title="Discussion">
-          {notes.data ? <DiscussionThread comparisonId={id} notes={notes.data} /> : notes.isError ? <ErrorState error={notes.error} onRetry={() => notes.refetch()} /> : null}
+          <DiscussionThread comparisonId={id} notes={notes.data} />
         </Section>
       </div>
 
@@ -150,16 +165,10 @@ export function Component() {
             </ButtonLink>
           }
         >
-          {audit.data ? (
-            <div className="space-y-4">
-              <ChainStatus valid={audit.data.chainValid} events={audit.data.events.length} />
-              <AuditTimeline events={audit.data.events} />
-            </div>
-          ) : audit.isError ? (
-            <ErrorState error={audit.error} onRetry={() => audit.refetch()} />
-          ) : (
-            <LoadingState label="Loading the audit trail…" />
-          )}
+          <div className="space-y-4">
+            <ChainStatus valid={audit.data.chainValid} events={audit.data.events.length} />
+            <AuditTimeline events={audit.data.events} />
+          </div>
         </Section>
       </aside>
     </div>

@@ -1,4 +1,4 @@
-import { type QueryClient } from '@tanstack/react-query';
+import { type QueryClient, useSuspenseQuery } from '@tanstack/react-query';
 import { canSetUp } from '@shared/workflow';
 import { useCallback, useState } from 'react';
 import { type LoaderFunctionArgs, useNavigate, useParams } from 'react-router';
@@ -10,15 +10,13 @@ import { Button, ButtonLink } from '@/components/button';
 import { Alert, Callout } from '@/components/callout';
 import { Section } from '@/components/card';
 import { DocumentTitle } from '@/components/document-title';
-import { ErrorState } from '@/components/error-state';
-import { LoadingState } from '@/components/loading-state';
 import { PageHeader } from '@/components/page-header';
 import { Steps } from '@/components/steps';
-import { comparisonQueryOptions, isRunActive, useComparison } from '@/features/comparisons/api/get-comparison';
+import { comparisonQueryOptions, isRunActive } from '@/features/comparisons/api/get-comparison';
 import { type ReferenceChoice, ReferenceSampleField } from '@/features/holdouts/components/reference-sample-field';
 import { useSetupComparison } from '@/features/comparisons/api/setup-comparison';
 import { AnalysisSettingsForm, type SettingsFormValues, settingsDefaults } from '@/features/comparisons/components/analysis-settings-form';
-import { holdoutQueryOptions, useHoldout } from '@/features/holdouts/api/get-holdout';
+import { holdoutQueryOptions } from '@/features/holdouts/api/get-holdout';
 import { useValidateMapping } from '@/features/holdouts/api/validate-mapping';
 import { HoldoutPreviewTable } from '@/features/holdouts/components/holdout-preview-table';
 import { HoldoutSummary } from '@/features/holdouts/components/holdout-summary';
@@ -44,8 +42,9 @@ type Step = 'mapping' | 'check' | 'settings';
 export function Component() {
   const id = comparisonIdFrom(useParams());
   const navigate = useNavigate();
-  const comparison = useComparison(id);
-  const holdout = useHoldout(comparison.data?.holdout.id ?? 0);
+  // The loader filled the cache; a failed load shows the route's error boundary.
+  const comparison = useSuspenseQuery(comparisonQueryOptions(id));
+  const holdout = useSuspenseQuery(holdoutQueryOptions(comparison.data.holdout.id));
   const validate = useValidateMapping();
   const setup = useSetupComparison();
 
@@ -58,9 +57,6 @@ export function Component() {
   const [reference, setReference] = useState<ReferenceChoice>({ kind: 'none' });
   const onRolesChange = useCallback((next: Record<string, string>) => setRoles(next), []);
 
-  if (comparison.isPending || holdout.isPending) return <LoadingState label="Loading the comparison…" variant="skeleton" />;
-  if (comparison.isError) return <ErrorState error={comparison.error} onRetry={() => comparison.refetch()} />;
-  if (holdout.isError) return <ErrorState error={holdout.error} onRetry={() => holdout.refetch()} />;
   const detail = comparison.data;
 
   const header = (

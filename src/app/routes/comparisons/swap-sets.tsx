@@ -1,6 +1,9 @@
+import { hasSeveralChallengers } from '@shared/challengers-words';
+import { hasUnknownOrWeights } from '@shared/population';
 import { useCallback, useMemo, useState } from 'react';
 import { useSearchParams } from 'react-router';
 import { type Scenario, type SwapQuery, type SwapResult } from '@shared/comparisons';
+import { type SegmentValueRef } from '@shared/mixed-strategy';
 import { hasRole, useUser } from '@/lib/auth';
 import { formatCount, formatPercent } from '@/lib/format';
 import { useDebounced } from '@/lib/use-debounced';
@@ -11,6 +14,9 @@ import { DecisionCautions } from '@/components/decision-cautions';
 import { ErrorState } from '@/components/error-state';
 import { LoadingState } from '@/components/loading-state';
 import { Spinner } from '@/components/spinner';
+import { keepableValues, KeepChampionPicker, MixedStrategyPreview } from '@/features/governance/components/keep-champion';
+import { segmentsOf } from '@shared/challenger-sections';
+import { Select } from '@/components/select';
 import { SwapSetNotes } from '@/features/governance/components/swap-set-notes';
 import { useScenarios } from '@/features/swap-sets/api/get-scenarios';
 import { useSwap } from '@/features/swap-sets/api/get-swap';
@@ -25,6 +31,7 @@ import { SwapTable } from '@/features/swap-sets/components/swap-table';
 import { SwapTest } from '@/features/swap-sets/components/swap-test';
 import { reportSwapQuery, swapQueryFromParams } from '@/features/swap-sets/lib/swap-controls';
 import { isUpdating, needsServer, reportSwapResult, scenarioQuery, swapSearchParams } from '@/features/swap-sets/lib/swap-page';
+import { ChallengersSwapSection } from '@/features/swap-sets/components/challengers-swap-section';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
 
 /**
@@ -38,6 +45,10 @@ export function Component() {
   const { data: user } = useUser();
   const [params, setParams] = useSearchParams();
   const isPolicy = hasRole(user, 'policy');
+  const isCommittee = hasRole(user, 'committee');
+  const [kept, setKept] = useState<SegmentValueRef[]>([]);
+  // Several challengers: the one adopted outside the kept values (0 = the first).
+  const [strategyChallenger, setStrategyChallenger] = useState(0);
   const fromReport = useMemo(() => reportSwapQuery(report.swap), [report.swap]);
   const [draft, setDraft] = useState<SwapQuery>(() => swapQueryFromParams(params) ?? fromReport);
   const settled = useDebounced(draft, 300);
@@ -106,7 +117,11 @@ export function Component() {
           <div className="space-y-6">
             <Section
               title="Who each model accepts"
-              description={`${formatCount(report.rows)} accounts of the holdout. Bad rates with ${confidence} Wilson intervals${hasAmount ? `; amounts are the sum of ${report.mapping.exposure}` : ''}.`}
+              description={`${
+                report.population && hasUnknownOrWeights(report)
+                  ? `${formatCount(report.population.rows)} rows of the holdout standing for ${formatCount(Math.round(report.population.accounts))} applicants, ${formatCount(Math.round(report.population.unknown.accounts))} of them without an outcome`
+                  : `${formatCount(report.rows)} accounts of the holdout`
+              }. Bad rates with ${confidence} Wilson intervals${hasAmount ? `; amounts are the sum of ${report.mapping.exposure}` : ''}.`}
             >
               <div className="space-y-4">
                 <SwapTable swap={result.swap} confidence={confidence} hasAmount={hasAmount} caption="Accounts by the champion's and the challenger's decision" />
@@ -130,6 +145,32 @@ export function Component() {
           </div>
         </div>
       )}
+
+      {hasSeveralChallengers(report) ? <ChallengersSwapSection comparisonId={comparison.id} runId={comparison.currentRunId} report={report} canExportSwapList={isPolicy} /> : null}
+
+      {(isPolicy || isCommittee) && report.segments.length > 0 ? (
+        <Section
+          title="Adopt except in some segment values"
+          description={`Conditional adoption: the challenger decides every account except those in the values ticked here, which keep the champion; both at their cut-offs for the run’s ${formatPercent(
+            report.settings.approvalRate,
+            0,
+          )} approval rate. The committee can record a decision with such exceptions.`}
+        >
+          <div className="space-y-3" data-testid="conditional-adoption">
+            {hasSeveralChallengers(report) ? (
+              <Select
+                label="Challenger adopted outside the kept values"
+                className="max-w-sm"
+                value={String(strategyChallenger)}
+                onChange={(event) => setStrategyChallenger(Number(event.target.value))}
+                options={report.challengers.map((challenger, index) => ({ value: String(index), label: `${challenger.name} (challenger ${index + 1})` }))}
+              />
+            ) : null}
+            <KeepChampionPicker values={keepableValues(segmentsOf(report, strategyChallenger))} kept={kept} onChange={setKept} />
+            <MixedStrategyPreview comparisonId={comparison.id} runId={comparison.currentRunId} kept={kept} challenger={hasSeveralChallengers(report) ? strategyChallenger : undefined} />
+          </div>
+        </Section>
+      ) : null}
 
       <Section title="Saved scenarios">
         {scenarios.isPending ? (

@@ -1,15 +1,17 @@
+import { hasSeveralChallengers } from '@shared/challengers-words';
 import { paths } from '@/config/paths';
 import { formatCount, formatPercent } from '@/lib/format';
 import { ButtonLink } from '@/components/button';
 import { Section } from '@/components/card';
 import { DecisionCautions } from '@/components/decision-cautions';
 import { CriteriaList } from '@/features/comparisons/components/criteria-list';
-import { FlaggedSegments } from '@/features/comparisons/components/flagged-segments';
+import { FlaggedSegments, FlaggedSegmentsByChallenger } from '@/features/comparisons/components/flagged-segments';
 import { GiniContext } from '@/features/comparisons/components/gini-context';
 import { ModelMetrics } from '@/features/comparisons/components/model-metrics';
 import { SwapGlance } from '@/features/comparisons/components/swap-glance';
 import { UpliftChart } from '@/features/comparisons/components/uplift-chart';
 import { VerdictHeadline } from '@/features/comparisons/components/verdict-headline';
+import { SeveralChallengersSections } from '@/features/comparisons/components/challengers-overview';
 import { useComparisonPage } from '@/app/routes/comparisons/context';
 
 /** The comparison's front page: the verdict, the uplift against zero and materiality, the metrics and criteria. */
@@ -22,7 +24,8 @@ export function Component() {
   const runRate = report.swap.basis === 'approval-rate' ? report.swap.requestedApprovalRate : null;
   return (
     <div className="space-y-6">
-      <VerdictHeadline verdict={verdict} />
+      {hasSeveralChallengers(report) ? <SeveralChallengersSections report={report} /> : null}
+      <VerdictHeadline verdict={verdict} title={hasSeveralChallengers(report) ? `Verdict on ${report.challengers[0]!.name}, challenger 1` : undefined} />
       <Section title="The uplift" description="How much better the challenger separates goods from bads, with the uncertainty of the estimate.">
         <UpliftChart report={report} />
       </Section>
@@ -36,14 +39,14 @@ export function Component() {
       </div>
       {report.segments.length > 0 ? (
         <Section
-          title="Segments where the challenger is worse"
+          title={hasSeveralChallengers(report) ? 'Segments where a challenger is worse' : 'Segments where the challenger is worse'}
           actions={
             <ButtonLink to={paths.comparisons.segments(comparison.id)} size="sm">
               All segments
             </ButtonLink>
           }
         >
-          <FlaggedSegments report={report} />
+          {hasSeveralChallengers(report) ? <FlaggedSegmentsByChallenger report={report} /> : <FlaggedSegments report={report} />}
         </Section>
       ) : null}
       <Section title="Both models" description={`On ${formatCount(report.rows)} accounts with ${formatCount(report.bads)} bads.`}>

@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type ComparisonDetail, comparisonDetailSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -25,7 +25,3 @@ export const comparisonQueryOptions = (id: number) =>
     // A background tab keeps following the run, so the verdict is there when the person returns.
     refetchIntervalInBackground: true,
   });
-
-export function useComparison(id: number) {
-  return useQuery(comparisonQueryOptions(id));
-}

@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type ComparisonList, type ListComparisonsQuery, comparisonListSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -20,11 +20,6 @@ export const comparisonsQueryOptions = (params: ComparisonListParams) =>
   queryOptions({
     queryKey: queryKeys.comparisons.list(params),
     queryFn: () => getComparisons(params),
-    placeholderData: keepPreviousData,
     // While an analysis in the list runs, its progress and headline numbers follow.
     refetchInterval: (query) => (isActive(query.state.data) ? 2000 : false),
   });
-
-export function useComparisons(params: ComparisonListParams) {
-  return useQuery(comparisonsQueryOptions(params));
-}

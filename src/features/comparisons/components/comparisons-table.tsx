@@ -7,8 +7,10 @@ import { formatCount, formatDate, formatDateTime, formatGini, formatGiniDelta, f
 import { DataTable } from '@/components/data-table';
 import { StatusBadge } from '@/components/status-badge';
 import { runNote, stateLabel, stateTones, verdictLabels, verdictTones } from '@/features/comparisons/lib/state-tone';
+import { choiceLines } from '@/features/comparisons/lib/list-choice';
 
 const column = createColumnHelper<ComparisonSummary>();
+
 
 type ComparisonsTableProps = {
   items: ComparisonSummary[];
@@ -99,7 +101,19 @@ export function ComparisonsTable({ items, total, pageIndex, pageSize, onPageChan
         header: 'Verdict',
         cell: ({ row }) => {
           const verdict = row.original.verdict?.outcome ?? row.original.headline?.verdict;
-          return verdict ? <StatusBadge tone={verdictTones[verdict]}>{verdictLabels[verdict]}</StatusBadge> : <span className="text-ink-faint">—</span>;
+          const badge = verdict ? <StatusBadge tone={verdictTones[verdict]}>{verdictLabels[verdict]}</StatusBadge> : <span className="text-ink-faint">—</span>;
+          const choice = choiceLines(row.original);
+          if (choice.length === 0) return badge;
+          return (
+            <div className="space-y-0.5">
+              {badge}
+              {choice.map((line) => (
+                <p key={line} className="text-xs text-ink-soft" data-testid="list-choice">
+                  {line}
+                </p>
+              ))}
+            </div>
+          );
         },
       }),
       column.accessor('createdAt', {

@@ -1,6 +1,13 @@
-import { type Report, swapInRiskier } from '@shared/report';
+import { equalApprovalSentence, formatBads } from '@shared/equal-approval-words';
+import { type Report, statedBadRate, type SwapCell, swapInRiskier } from '@shared/report';
 import { formatCount, formatPercent, formatScore } from '@/lib/format';
 import { Stat, StatGroup } from '@/components/stat';
+
+/** A swap set's bad rate as the run states it: inferred (named so) when the run infers the unknown applicants' bads. */
+function glanceRate(cell: SwapCell): string {
+  if (cell.inferred && (cell.unknown ?? 0) > 0) return `bad rate ${formatPercent(statedBadRate(cell))} inferred`;
+  return `bad rate ${formatPercent(cell.badRate)}${(cell.unknown ?? 0) > 0 ? ' of those with an outcome' : ''}`;
+}
 
 /** Segment values named in the sentence; the Swap sets tab lists them all. */
 const NAMED = 4;
@@ -11,6 +18,7 @@ const NAMED = 4;
  */
 export function SwapGlance({ report }: { report: Report }) {
   const { swap, strategyCurve } = report;
+  const equal = strategyCurve.atApprovalRate;
   // Only values with both a swap-in and a swap-out can be compared.
   const comparable = swap.bySegment.filter((row) => row.swapIn.count > 0 && row.swapOut.count > 0);
   const riskier = comparable.filter(swapInRiskier);
@@ -25,19 +33,22 @@ export function SwapGlance({ report }: { report: Report }) {
         At {at} (champion cut-off {formatScore(swap.champion.cutoff)}, challenger {formatScore(swap.challenger.cutoff)}):
       </p>
       <StatGroup>
-        <Stat label="Swap-in: newly approved" value={formatCount(swap.swapIn.count)} unit="accounts" interval={`bad rate ${formatPercent(swap.swapIn.badRate)}`} />
-        <Stat label="Swap-out: newly declined" value={formatCount(swap.swapOut.count)} unit="accounts" interval={`bad rate ${formatPercent(swap.swapOut.badRate)}`} />
+        <Stat label="Swap-in: newly approved" value={formatCount(Math.round(swap.swapIn.accounts ?? swap.swapIn.count))} unit="accounts" interval={glanceRate(swap.swapIn)} />
+        <Stat label="Swap-out: newly declined" value={formatCount(Math.round(swap.swapOut.accounts ?? swap.swapOut.count))} unit="accounts" interval={glanceRate(swap.swapOut)} />
         <Stat
           label="Bads avoided at equal approval"
-          value={formatCount(strategyCurve.atApprovalRate.badsAvoided)}
-          footnote={`champion's approved bads minus the challenger's, at ${formatPercent(strategyCurve.atApprovalRate.approvalRate, 0)} approval`}
+          value={formatBads(equal.badsAvoided)}
+          footnote={`both books ${formatCount(equal.accounts)} accounts (the champion's at ${formatPercent(equal.approvalRate, 0)}): ${formatBads(equal.championBads)} bads against ${formatBads(equal.challengerBads)}`}
         />
         <Stat
           label="Approvals gained at equal bad rate"
-          value={formatCount(strategyCurve.atApprovalRate.approvalsGainedAtEqualBadRate)}
+          value={formatCount(equal.approvalsGainedAtEqualBadRate)}
           footnote="keeping the champion's portfolio bad rate"
         />
       </StatGroup>
+      <p className="text-sm text-ink-soft" data-testid="equal-approval">
+        {equalApprovalSentence(equal)}
+      </p>
       {swap.bySegment.length > 0 ? (
         <p className="text-sm text-ink-soft" data-testid="swap-segments-glance">
           {riskier.length === 0

@@ -12,12 +12,12 @@ const frames: Record<Verdict['outcome'], string> = {
 };
 
 /** The verdict in a word and a symbol, and the engine's one-sentence summary of the evidence. */
-export function VerdictHeadline({ verdict }: { verdict: Pick<Verdict, 'outcome' | 'criteria' | 'summary' | 'policyVersion'> }) {
+export function VerdictHeadline({ verdict, title = 'Verdict' }: { verdict: Pick<Verdict, 'outcome' | 'criteria' | 'summary' | 'policyVersion'>; title?: string }) {
   return (
     <section aria-labelledby="verdict-title" className={cn('space-y-3 rounded-lg border-2 bg-paper-raised p-5', frames[verdict.outcome])}>
       <div className="flex flex-wrap items-center gap-3">
         <h2 id="verdict-title" className="text-sm font-semibold tracking-wide text-ink-soft uppercase">
-          Verdict
+          {title}
         </h2>
         <StatusBadge tone={verdictTones[verdict.outcome]} className="px-2 py-1 text-sm">
           {verdictLabels[verdict.outcome]}

@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type z } from 'zod';
 import { auditTrailSchema } from '@shared/governance';
 import { pageLimitMax } from '@shared/paging';
@@ -23,7 +23,3 @@ export async function getAuditTrail(id: number): Promise<AuditTrail> {
 
 export const auditTrailQueryOptions = (id: number) =>
   queryOptions({ queryKey: queryKeys.comparisons.audit(id), queryFn: () => getAuditTrail(id) });
-
-export function useAuditTrail(id: number) {
-  return useQuery(auditTrailQueryOptions(id));
-}

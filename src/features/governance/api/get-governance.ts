@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type Governance, governanceSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -10,7 +10,3 @@ export async function getGovernance(id: number): Promise<Governance> {
 
 export const governanceQueryOptions = (id: number) =>
   queryOptions({ queryKey: queryKeys.comparisons.governance(id), queryFn: () => getGovernance(id) });
-
-export function useGovernance(id: number) {
-  return useQuery(governanceQueryOptions(id));
-}

@@ -5,6 +5,7 @@ import { errorMessage } from '@/lib/api-client';
 import { formatDateTime, isoDateTime } from '@/lib/format';
 import { Button } from '@/components/button';
 import { Alert } from '@/components/callout';
+import { StatusBadge } from '@/components/status-badge';
 import { TextAreaField } from '@/components/text-area-field';
 import { useAddNote } from '@/features/governance/api/add-note';
 
@@ -21,6 +22,15 @@ export function anchorLabel(anchor: Note['anchor']): string {
   return anchorWords[anchor];
 }
 
+/** Marks what was written after the committee's decision: not part of what the committee saw. */
+export function AfterDecisionMark() {
+  return (
+    <span data-testid="after-decision">
+      <StatusBadge tone="caution">After the decision</StatusBadge>
+    </span>
+  );
+}
+
 export function NoteItem({ note, scenarioName = null }: { note: Note; scenarioName?: string | null }) {
   return (
     <li className="break-inside-avoid px-4 py-3 text-sm" data-testid="note">
@@ -28,6 +38,12 @@ export function NoteItem({ note, scenarioName = null }: { note: Note; scenarioNa
         <span className="font-medium text-ink">{note.author.name}</span> · <time dateTime={isoDateTime(note.createdAt)}>{formatDateTime(note.createdAt)}</time>
         {note.anchor !== 'discussion' ? <> · {anchorWords[note.anchor].toLowerCase()}</> : null}
         {note.scenarioId !== null ? <> · scenario “{scenarioName ?? note.scenarioId}”</> : null}
+        {note.afterDecision ? (
+          <>
+            {' '}
+            <AfterDecisionMark />
+          </>
+        ) : null}
       </p>
       <p className="prewrap mt-1 text-ink">{note.body}</p>
     </li>

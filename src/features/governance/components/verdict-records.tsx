@@ -65,6 +65,20 @@ export function VerdictRecords({
               </span>
             </div>
             <p className="mt-1 text-ink-soft">{record.summary}</p>
+            {record.challengers.length >= 2 ? (
+              <div className="mt-2 space-y-1" data-testid="verdict-record-challengers">
+                <ul className="flex flex-wrap gap-x-4 gap-y-1">
+                  {record.challengers.map((challenger) => (
+                    <li key={challenger.challenger} className="inline-flex items-center gap-1.5">
+                      <span className="text-ink">{challenger.name}</span>
+                      <VerdictOutcomeBadge outcome={challenger.outcome} />
+                      {record.recommended === challenger.challenger ? <span className="text-xs font-medium text-good-strong">recommended</span> : null}
+                    </li>
+                  ))}
+                </ul>
+                {record.choiceSummary ? <p className="text-ink">{record.choiceSummary}</p> : null}
+              </div>
+            ) : null}
             {showCriteria ? (
               <ul className="mt-2 space-y-1">
                 {record.criteria.map((criterion) => (

@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type HoldoutInfo, holdoutSchema } from '@shared/comparisons';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -11,7 +11,3 @@ export async function getHoldout(id: number): Promise<HoldoutInfo> {
 export const holdoutQueryOptions = (id: number) =>
   // A stored holdout never changes.
   queryOptions({ queryKey: queryKeys.holdouts.detail(id), queryFn: () => getHoldout(id), staleTime: Infinity });
-
-export function useHoldout(id: number) {
-  return useQuery(holdoutQueryOptions(id));
-}

@@ -7,7 +7,10 @@ export function HoldoutSummary({ holdout }: { holdout: HoldoutInfo }) {
     <dl className="grid gap-x-6 gap-y-3 text-sm sm:grid-cols-2 lg:grid-cols-4">
       <div>
         <dt className="text-xs font-medium text-ink-soft">File</dt>
-        <dd className="font-medium break-words text-ink">{holdout.fileName}</dd>
+        <dd className="font-medium break-words text-ink">
+          {holdout.fileName}
+          {holdout.sheet !== null ? <span className="font-normal text-ink-soft"> · sheet “{holdout.sheet}”</span> : null}
+        </dd>
       </div>
       <div>
         <dt className="text-xs font-medium text-ink-soft">Rows and columns</dt>

@@ -1,8 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useEffect, useMemo } from 'react';
-import { type DeepPartial, type UseFormRegister, useForm, useWatch } from 'react-hook-form';
+import { type DeepPartial, type FieldErrors, type UseFormRegister, useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { type HoldoutInfo } from '@shared/comparisons';
-import { type ColumnMapping, type HigherIs } from '@shared/report';
+import { type ColumnMapping, type HigherIs, MAX_CHALLENGERS } from '@shared/report';
 import { Button } from '@/components/button';
 import { Callout } from '@/components/callout';
 import { Checkbox, CheckboxGroup } from '@/components/checkbox';
@@ -47,6 +47,7 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
     formState: { errors },
   } = useForm<MappingFormValues>({ resolver: zodResolver(mappingFormSchema), defaultValues: defaults });
   const values = useWatch({ control });
+  const extras = useFieldArray({ control, name: 'moreChallengers' });
 
   const columnOptions = holdout.columns.map((column) => ({ value: column.name, label: columnOptionLabel(column) }));
   const none = { value: '', label: 'None' };
@@ -64,13 +65,16 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
     if (values.outcome) roles[values.outcome] = 'Outcome';
     if (values.champion) roles[values.champion] = 'Champion';
     if (values.challenger) roles[values.challenger] = 'Challenger';
+    (values.moreChallengers ?? []).forEach((extra, index) => {
+      if (extra?.column) roles[extra.column] = `Challenger ${index + 2}`;
+    });
     if (values.id) roles[values.id] = 'Account id';
     if (values.exposure) roles[values.exposure] = 'Exposure';
     if (values.weight) roles[values.weight] = 'Weight';
     if (values.keepUnknown && values.inferredBad) roles[values.inferredBad] = 'Inferred bad';
     for (const segment of values.segments ?? []) if (segment) roles[segment] = 'Segment';
     onRolesChange(roles);
-  }, [values.outcome, values.champion, values.challenger, values.id, values.exposure, values.weight, values.keepUnknown, values.inferredBad, values.segments, onRolesChange]);
+  }, [values.outcome, values.champion, values.challenger, values.moreChallengers, values.id, values.exposure, values.weight, values.keepUnknown, values.inferredBad, values.segments, onRolesChange]);
   const numericOptions = columnOptions.filter((option) => holdout.columns.find((column) => column.name === option.value)?.kind === 'numeric');
 
   const submit = handleSubmit((form) => onSubmit(toColumnMapping(form), form.dropMissing));
@@ -91,8 +95,43 @@ export function MappingForm({ holdout, initial, initialDropMissing, onSubmit, on
 
       <div className="grid gap-6 md:grid-cols-2">
         <ScoreFields model="champion" holdout={holdout} register={register} values={values} error={errors.champion?.message} columnOptions={columnOptions} pdError={errors.pd?.champion?.message} gradeError={errors.grades?.champion?.message} />
-        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} pdError={errors.pd?.challenger?.message} gradeError={errors.grades?.challenger?.message} />
+        <ScoreFields model="challenger" holdout={holdout} register={register} values={values} error={errors.challenger?.message} columnOptions={columnOptions} pdError={errors.pd?.challenger?.message} gradeError={errors.grades?.challenger?.message} nameError={errors.challengerName?.message} several={extras.fields.length > 0} />
       </div>
+
+      <fieldset className="space-y-4" data-testid="more-challengers">
+        <legend className="mb-2 text-base font-semibold text-ink">More challengers</legend>
+        <p className="text-sm text-ink-soft">
+          Up to {MAX_CHALLENGERS} challengers in all, each scored on the same holdout. Each is tested against the champion (with a Holm adjustment across them), all
+          together in a joint test, and against each other; the verdict recommends at most one. Probability-of-default calibration and grades are computed for the
+          champion and the first challenger.
+        </p>
+        {extras.fields.length > 0 ? (
+          <div className="grid gap-6 md:grid-cols-2">
+            {extras.fields.map((field, index) => (
+              <ExtraChallengerFields
+                key={field.id}
+                index={index}
+                register={register}
+                errors={errors.moreChallengers?.[index]}
+                columnOptions={columnOptions}
+                onRemove={() => extras.remove(index)}
+              />
+            ))}
+          </div>
+        ) : null}
+        {errors.moreChallengers?.root?.message || errors.moreChallengers?.message ? (
+          <p className="text-sm text-bad" role="alert">
+            {errors.moreChallengers?.root?.message ?? errors.moreChallengers?.message}
+          </p>
+        ) : null}
+        {extras.fields.length < MAX_CHALLENGERS - 1 ? (
+          <Button type="button" size="sm" onClick={() => extras.append({ column: '', higherIs: 'safer', name: '' })}>
+            Add a challenger
+          </Button>
+        ) : (
+          <p className="text-sm text-ink-soft">A comparison holds at most {MAX_CHALLENGERS} challengers.</p>
+        )}
+      </fieldset>
 
       <fieldset className="grid gap-4 md:grid-cols-2">
         <legend className="mb-2 text-base font-semibold text-ink">Optional columns</legend>
@@ -181,6 +220,8 @@ function ScoreFields({
   columnOptions,
   pdError,
   gradeError,
+  nameError,
+  several = false,
 }: {
   model: 'champion' | 'challenger';
   holdout: HoldoutInfo;
@@ -190,6 +231,9 @@ function ScoreFields({
   columnOptions: { value: string; label: string }[];
   pdError?: string;
   gradeError?: string;
+  nameError?: string;
+  /** The comparison has more challengers: this one is the first of them. */
+  several?: boolean;
 }) {
   const column = values[model];
   const chosen = values.higherIs?.[model];
@@ -203,7 +247,7 @@ function ScoreFields({
   };
   const hint = hintFor(column);
   const disagrees = hint?.higherIs && chosen && hint.higherIs !== chosen;
-  const title = model === 'champion' ? 'Champion (the model in production)' : 'Challenger (the candidate)';
+  const title = model === 'champion' ? 'Champion (the model in production)' : several ? 'Challenger 1 (the first candidate)' : 'Challenger (the candidate)';
   return (
     <fieldset className="space-y-4 rounded-lg border border-line p-4">
       <legend className="px-1">
@@ -211,6 +255,14 @@ function ScoreFields({
       </legend>
       <p className="-mt-2 text-sm text-ink-soft">{title}</p>
       <Select label={`${model === 'champion' ? 'Champion' : 'Challenger'} score column`} error={error} options={[{ value: '', label: 'Choose a column' }, ...columnOptions]} {...register(model)} />
+      <TextField
+        label={`${model === 'champion' ? 'Champion' : 'Challenger'} name`}
+        optional
+        hint={`How the pages, report and e-mails name it, e.g. "${model === 'champion' ? 'CF-2 scorecard' : 'CF-3 bureau'}". Empty: the column name.`}
+        error={nameError}
+        autoComplete="off"
+        {...register(model === 'champion' ? 'championName' : 'challengerName')}
+      />
       <RadioGroup legend="Orientation" inline hint={hint ? `From the data: ${hint.text}.` : column ? 'No hint from the data for this column: check which way it points.' : undefined}>
         <Radio value="safer" label="Higher is safer" hint="points" {...register(`higherIs.${model}`)} />
         <Radio value="riskier" label="Higher is riskier" hint="a PD" {...register(`higherIs.${model}`)} />
@@ -230,6 +282,52 @@ function ScoreFields({
           </p>
         </Callout>
       ) : null}
+    </fieldset>
+  );
+}
+
+/** A challenger after the first: its score column, orientation and name (no PD flag or grades). */
+function ExtraChallengerFields({
+  index,
+  register,
+  errors,
+  columnOptions,
+  onRemove,
+}: {
+  index: number;
+  register: UseFormRegister<MappingFormValues>;
+  errors?: FieldErrors<MappingFormValues['moreChallengers'][number]>;
+  columnOptions: { value: string; label: string }[];
+  onRemove: () => void;
+}) {
+  const number = index + 2;
+  return (
+    <fieldset className="space-y-4 rounded-lg border border-line p-4" data-testid={`challenger-${number}`}>
+      <legend className="px-1">
+        <ModelTag model="challenger" />
+      </legend>
+      <p className="-mt-2 text-sm text-ink-soft">Challenger {number}</p>
+      <Select
+        label={`Challenger ${number} score column`}
+        error={errors?.column?.message}
+        options={[{ value: '', label: 'Choose a column' }, ...columnOptions]}
+        {...register(`moreChallengers.${index}.column`)}
+      />
+      <TextField
+        label={`Challenger ${number} name`}
+        optional
+        hint='E.g. "CF-4 open banking". Empty: the column name.'
+        error={errors?.name?.message}
+        autoComplete="off"
+        {...register(`moreChallengers.${index}.name`)}
+      />
+      <RadioGroup legend={`Challenger ${number} orientation`} inline error={errors?.higherIs?.message}>
+        <Radio value="safer" label="Higher is safer" hint="points" {...register(`moreChallengers.${index}.higherIs`)} />
+        <Radio value="riskier" label="Higher is riskier" hint="a PD" {...register(`moreChallengers.${index}.higherIs`)} />
+      </RadioGroup>
+      <Button type="button" size="sm" variant="ghost" onClick={onRemove}>
+        Remove challenger {number}
+      </Button>
     </fieldset>
   );
 }

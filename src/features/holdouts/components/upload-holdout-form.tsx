@@ -1,4 +1,4 @@
-import { type ChangeEvent, type DragEvent, useId, useRef, useState } from 'react';
+import { type ChangeEvent, type DragEvent, useEffect, useId, useRef, useState } from 'react';
 import { type HoldoutInfo } from '@shared/comparisons';
 import { type UploadProgress, errorMessage, isApiError } from '@/lib/api-client';
 import { cn } from '@/lib/cn';
@@ -6,9 +6,11 @@ import { formatBytes } from '@/lib/format';
 import { Button } from '@/components/button';
 import { Alert } from '@/components/callout';
 import { ProgressBar } from '@/components/progress-bar';
+import { Select } from '@/components/select';
 import { useUploadHoldout } from '@/features/holdouts/api/upload-holdout';
 import { RowErrorsTable } from '@/features/holdouts/components/row-errors-table';
 import { rowErrorsFrom } from '@/features/holdouts/lib/row-errors';
+import { looksLikeWorkbook, workbookSheetNames } from '@/features/holdouts/lib/workbook-sheets';
 
 /**
  * Step 1: choose a CSV file (or drop it here) and upload it with a real progress bar (upload
@@ -18,6 +20,9 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
   const inputId = useId();
   const hintId = useId();
   const [file, setFile] = useState<File | null>(null);
+  /** A workbook's sheet names (read in the browser), null for CSV or an unreadable workbook. */
+  const [sheets, setSheets] = useState<string[] | null>(null);
+  const [sheet, setSheet] = useState<string | null>(null);
   const [progress, setProgress] = useState<UploadProgress | null>(null);
   const [dragging, setDragging] = useState(false);
   const abort = useRef<AbortController | null>(null);
@@ -26,16 +31,32 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
   const choose = (chosen: File | null | undefined) => {
     if (!chosen) return;
     setFile(chosen);
+    setSheets(null);
+    setSheet(null);
     setProgress(null);
     uploadHoldout.reset();
   };
+
+  // A workbook's sheets, to choose the one that holds the holdout (default: the first).
+  useEffect(() => {
+    if (!file || !looksLikeWorkbook(file)) return;
+    let current = true;
+    void workbookSheetNames(file).then((names) => {
+      if (!current) return;
+      setSheets(names);
+      setSheet(names?.[0] ?? null);
+    });
+    return () => {
+      current = false;
+    };
+  }, [file]);
 
   const start = () => {
     if (!file) return;
     abort.current = new AbortController();
     setProgress({ loaded: 0, total: file.size, fraction: 0 });
     uploadHoldout.mutate(
-      { file, onProgress: setProgress, signal: abort.current.signal },
+      { file, sheet, onProgress: setProgress, signal: abort.current.signal },
       { onSuccess: (holdout) => onUploaded(holdout) },
     );
   };
@@ -69,7 +90,7 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
           <span className="text-sm font-semibold text-ink">Holdout file (CSV or .xlsx)</span>
           <span id={hintId} className="max-w-lg text-sm text-ink-soft">
             One row per account with the observed outcome and both models’ scores; optionally an account id, segments and an amount. Choose a
-            file or drop it here. From a workbook the first sheet is read, its first row the column names.
+            file or drop it here. From a workbook you choose the sheet (the first by default); its first row holds the column names.
           </span>
           <input
             id={inputId}
@@ -87,6 +108,18 @@ export function UploadHoldoutForm({ onUploaded }: { onUploaded: (holdout: Holdou
         <p className="text-sm text-ink-soft">
           Chosen: <span className="font-medium text-ink">{file.name}</span> · <span className="num">{formatBytes(file.size)}</span>
         </p>
+      ) : null}
+
+      {sheets && sheets.length > 0 ? (
+        <Select
+          label="Sheet with the holdout"
+          hint={sheets.length === 1 ? 'The workbook has one sheet.' : `The workbook has ${sheets.length} sheets; the one chosen is read, its first row the column names.`}
+          value={sheet ?? sheets[0]}
+          onChange={(event) => setSheet(event.target.value)}
+          disabled={uploadHoldout.isPending}
+          options={sheets.map((name) => ({ value: name, label: name }))}
+          className="max-w-sm"
+        />
       ) : null}
 
       {uploadHoldout.isPending && progress ? (

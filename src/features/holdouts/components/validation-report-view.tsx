@@ -34,14 +34,22 @@ export function ValidationReportView({ report }: { report: ValidationReport }) {
   return (
     <div className="space-y-5">
       <Callout tone="success" title="Every row fits the mapping" live>
-        <p>The analysis will run on {formatCount(summary.rowsUsed)} accounts.</p>
+        <p>
+          {summary.accounts === undefined
+            ? `The analysis will run on ${formatCount(summary.rowsUsed)} accounts.`
+            : `The analysis will run on ${formatCount(summary.rowsUsed)} rows standing for ${formatCount(Math.round(summary.accounts))} applicants${
+                summary.unknownRows ? `; ${formatCount(summary.unknownRows)} rows have no outcome` : ''
+              }.`}
+        </p>
       </Callout>
       <StatGroup>
         <Stat label="Rows in the file" value={formatCount(summary.rows)} />
         <Stat label="Rows used" value={formatCount(summary.rowsUsed)} footnote={summary.rowsDroppedMissingScore > 0 ? `${formatCount(summary.rowsDroppedMissingScore)} left out: empty score` : 'none left out'} />
-        <Stat label="Goods" value={formatCount(summary.goods)} />
+        {summary.accounts !== undefined ? <Stat label="Applicants" value={formatCount(Math.round(summary.accounts))} footnote="the rows' weights summed" /> : null}
+        {summary.unknownRows !== undefined ? <Stat label="Rows without an outcome" value={formatCount(summary.unknownRows)} footnote="in approval rates and swap sets, not in AUC or bad rates" /> : null}
+        <Stat label="Goods" value={formatCount(summary.goods)} footnote={summary.accounts !== undefined ? 'rows with an outcome' : undefined} />
         <Stat label="Bads" value={formatCount(summary.bads)} footnote={summary.bads < 300 ? 'fewer than 300: intervals will be wide' : undefined} />
-        <Stat label="Bad rate" value={formatPercent(summary.badRate)} />
+        <Stat label={summary.accounts !== undefined ? 'Bad rate of the rows' : 'Bad rate'} value={formatPercent(summary.badRate)} footnote={summary.accounts !== undefined ? 'unweighted; the report gives the weighted rate' : undefined} />
       </StatGroup>
       {summary.warnings.map((warning) => (
         <Callout key={warning} tone="caution" title="Warning">

@@ -1,11 +1,14 @@
 import { z } from 'zod';
 import { type HoldoutInfo, type MappingGuess } from '@shared/comparisons';
-import { type ColumnMapping, columnMappingSchema, higherIsSchema } from '@shared/report';
+import { type ColumnMapping, columnMappingSchema, higherIsSchema, MAX_CHALLENGERS, mappingModelProblems } from '@shared/report';
 
 /**
  * The column-mapping form: its values (what the selects hold), the defaults from the reader's
  * guess or an earlier mapping, and the conversion to the shared ColumnMapping. Pure.
  */
+
+/** A model's name as typed: "" for none (the column name is used), else one line of at most 80 characters. */
+const modelNameField = z.string().max(80, 'A model name has at most 80 characters').regex(/^[^\r\n]*$/, 'A model name is one line');
 
 /** The form's shape: selects hold "" for "none", so optional columns are strings here. */
 export const mappingFormSchema = z
@@ -15,6 +18,13 @@ export const mappingFormSchema = z
     champion: z.string().min(1, "Choose the champion's score column"),
     challenger: z.string().min(1, "Choose the challenger's score column"),
     higherIs: z.object({ champion: higherIsSchema, challenger: higherIsSchema }),
+    /** The modeler's names for the champion and the primary challenger ("" = the column name). */
+    championName: modelNameField,
+    challengerName: modelNameField,
+    /** Challengers after the primary (0 to MAX_CHALLENGERS − 1), each with its score column, orientation and name. */
+    moreChallengers: z
+      .array(z.object({ column: z.string().min(1, "Choose this challenger's score column"), higherIs: higherIsSchema, name: modelNameField }))
+      .max(MAX_CHALLENGERS - 1, `At most ${MAX_CHALLENGERS} challengers in all`),
     id: z.string(),
     segments: z.array(z.string()),
     exposure: z.string(),
@@ -52,6 +62,15 @@ export const mappingFormSchema = z
       if (other) context.addIssue({ code: 'custom', path: [field], message: `"${column}" is already ${other}` });
       else used.set(column, label);
     }
+    value.moreChallengers.forEach((extra, index) => {
+      const other = extra.column === '' ? undefined : used.get(extra.column);
+      // Another model's score is said in the shared words below; the other roles here.
+      if (other && other !== "the champion's score" && other !== "the challenger's score") {
+        context.addIssue({ code: 'custom', path: ['moreChallengers', index, 'column'], message: `"${extra.column}" is already ${other}` });
+      }
+      if (extra.column !== '' && !other) used.set(extra.column, `challenger ${index + 2}'s score`);
+    });
+    for (const problem of modelProblemsByField(value)) context.addIssue({ code: 'custom', path: problem.path, message: problem.message });
     for (const model of ['champion', 'challenger'] as const) {
       if (value.pd[model] && value.higherIs[model] !== 'riskier') {
         context.addIssue({ code: 'custom', path: ['pd', model], message: 'A probability of default is higher = riskier: change the orientation or clear this box' });
@@ -68,6 +87,53 @@ export const mappingFormSchema = z
 
 export type MappingFormValues = z.infer<typeof mappingFormSchema>;
 
+type ModelFields = Pick<MappingFormValues, 'outcome' | 'badValue' | 'champion' | 'challenger' | 'higherIs' | 'championName' | 'challengerName' | 'moreChallengers'>;
+
+/** The models of the form as the shared mapping names them (names left empty are absent). */
+function modelsMapping(values: ModelFields, extras = values.moreChallengers): ColumnMapping {
+  return {
+    outcome: values.outcome,
+    badValue: values.badValue,
+    champion: values.champion,
+    challenger: values.challenger,
+    higherIs: values.higherIs,
+    ...(values.championName.trim() ? { championName: values.championName.trim() } : {}),
+    ...(values.challengerName.trim() ? { challengerName: values.challengerName.trim() } : {}),
+    ...(extras.length > 0
+      ? { moreChallengers: extras.map((extra) => ({ column: extra.column, higherIs: extra.higherIs, ...(extra.name.trim() ? { name: extra.name.trim() } : {}) })) }
+      : {}),
+  };
+}
+
+const sentence = (text: string) => `${text.charAt(0).toUpperCase()}${text.slice(1)}.`;
+
+/**
+ * The shared rule on the models (mappingModelProblems: distinct score columns and names, none the
+ * outcome), each problem placed at the field of the model that brings it: the problems of the
+ * mapping up to challenger k that the mapping up to challenger k − 1 did not have belong to k.
+ * The champion's and the primary's columns are also checked by the form's own rule above, so only
+ * their names are placed here.
+ */
+export function modelProblemsByField(values: ModelFields): { path: (string | number)[]; message: string }[] {
+  const placed: { path: (string | number)[]; message: string }[] = [];
+  const seen = new Set<string>();
+  for (let count = 0; count <= values.moreChallengers.length; count += 1) {
+    const extras = values.moreChallengers.slice(0, count);
+    if (extras.some((extra) => extra.column === '') || values.champion === '' || values.challenger === '') continue;
+    for (const problem of mappingModelProblems(modelsMapping(values, extras))) {
+      if (seen.has(problem)) continue;
+      seen.add(problem);
+      const aboutName = problem.startsWith('the name');
+      if (count === 0) {
+        if (aboutName) placed.push({ path: ['challengerName'], message: sentence(problem) });
+      } else {
+        placed.push({ path: ['moreChallengers', count - 1, aboutName ? 'name' : 'column'], message: sentence(problem) });
+      }
+    }
+  }
+  return placed;
+}
+
 /** Form values from an earlier mapping (resuming or re-running), else from the reader's guess. */
 export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping | null = null, dropMissing = false): MappingFormValues {
   if (previous) {
@@ -77,6 +143,9 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
       champion: previous.champion,
       challenger: previous.challenger,
       higherIs: previous.higherIs,
+      championName: previous.championName ?? '',
+      challengerName: previous.challengerName ?? '',
+      moreChallengers: (previous.moreChallengers ?? []).map((extra) => ({ column: extra.column, higherIs: extra.higherIs, name: extra.name ?? '' })),
       id: previous.id ?? '',
       segments: previous.segments ?? [],
       exposure: previous.exposure ?? '',
@@ -96,12 +165,16 @@ export function mappingFormDefaults(guess: MappingGuess, previous: ColumnMapping
     champion: guess.champion ?? '',
     challenger: guess.challenger ?? '',
     higherIs: { champion: guess.higherIs.champion ?? 'safer', challenger: guess.higherIs.challenger ?? 'safer' },
+    championName: '',
+    challengerName: '',
+    moreChallengers: [],
     id: guess.id ?? '',
     segments: guess.segments,
     exposure: guess.exposure ?? '',
     weight: '',
-    keepUnknown: false,
-    unknownValues: '',
+    // A through-the-door sample's coded "no outcome" values, when the reader saw them.
+    keepUnknown: (guess.unknownValues ?? []).length > 0,
+    unknownValues: (guess.unknownValues ?? []).join(', '),
     inferredBad: '',
     dropMissing,
     pd: { champion: false, challenger: false },
@@ -118,11 +191,7 @@ export function parseUnknownValues(text: string): string[] {
 /** The shared ColumnMapping the API takes (checked against the shared schema). */
 export function toColumnMapping(values: MappingFormValues): ColumnMapping {
   return columnMappingSchema.parse({
-    outcome: values.outcome,
-    badValue: values.badValue,
-    champion: values.champion,
-    challenger: values.challenger,
-    higherIs: values.higherIs,
+    ...modelsMapping(values),
     id: values.id || null,
     segments: values.segments,
     exposure: values.exposure || null,

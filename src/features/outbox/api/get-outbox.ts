@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { outboxResponseSchema } from '@shared/users';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -22,10 +22,5 @@ export const outboxQueryOptions = (params: OutboxPage) =>
     queryFn: () => getOutbox(params),
     // The outbox is a live log: always check on opening, and keep checking while mail is queued.
     staleTime: 0,
-    placeholderData: keepPreviousData,
     refetchInterval: (query) => (query.state.data?.messages.some((message) => message.status === 'queued') ? 3000 : false),
   });
-
-export function useOutbox(params: OutboxPage) {
-  return useQuery(outboxQueryOptions(params));
-}

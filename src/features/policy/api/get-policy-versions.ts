@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type PolicyVersion, policyVersionsSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -9,7 +9,3 @@ export async function getPolicyVersions(): Promise<PolicyVersion[]> {
 }
 
 export const policyVersionsQueryOptions = () => queryOptions({ queryKey: queryKeys.policy.versions(), queryFn: getPolicyVersions });
-
-export function usePolicyVersions() {
-  return useQuery(policyVersionsQueryOptions());
-}

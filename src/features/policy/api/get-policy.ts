@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type PolicyVersion, policyVersionSchema } from '@shared/governance';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -9,7 +9,3 @@ export async function getPolicy(): Promise<PolicyVersion> {
 }
 
 export const policyQueryOptions = () => queryOptions({ queryKey: queryKeys.policy.current(), queryFn: getPolicy });
-
-export function usePolicy() {
-  return useQuery(policyQueryOptions());
-}

@@ -111,6 +111,13 @@ export function PolicyForm({ current, onSaved }: { current: PolicyVersion; onSav
               )}
             />
           ) : null}
+          {swapEnabled ? (
+            <Checkbox
+              label="Must also hold at the worst case"
+              hint="For holdouts with applicants without an outcome: the swap-in's bad rate with every such applicant bad must not be above the swap-out's with every such applicant good."
+              {...register('swapRule.worstCase')}
+            />
+          ) : null}
         </div>
         <div className="space-y-3 sm:col-span-2">
           <Checkbox label="No segment value significantly worse (Holm-adjusted two-sided test)" {...register('segmentRule.enabled')} />

@@ -1,5 +1,5 @@
 import { type AdoptionPolicy } from '@shared/policy';
-import { formatCount, formatPercent, formatShare } from '@/lib/format';
+import { formatCount, formatShare } from '@/lib/format';
 
 /** Each rule of the adoption policy in words, for the summary and the version history. */
 export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: string; value: string }[] {
@@ -11,7 +11,9 @@ export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: s
     {
       label: 'Swap sets',
       value: policy.swapRule.enabled
-        ? `Swap-in bad rate not above the swap-out bad rate at a ${percent(policy.swapRule.approvalRate)} approval rate`
+        ? `Swap-in bad rate not above the swap-out bad rate at a ${percent(policy.swapRule.approvalRate)} approval rate${
+            policy.swapRule.worstCase ? ', also at the worst case (every applicant without an outcome bad in the swap-in, good in the swap-out)' : ''
+          }`
         : 'Not checked',
     },
     { label: 'Minimum bads', value: `At least ${formatCount(policy.minBads)} bads in the holdout` },
@@ -29,16 +31,5 @@ export function policyRules(policy: Omit<AdoptionPolicy, 'version'>): { label: s
   ];
 }
 
-/**
- * The policy a report was judged under, in one sentence (the printable report's note under the
- * adoption criteria): "Policy version 3: α = 0.05 (one-sided), materiality 2 Gini points, interval
- * above zero required, swap rule at a 70.0% approval rate, at least 300 bads, quorum 2."
- */
-export function policyInOneSentence(policy: AdoptionPolicy): string {
-  const swapRule = policy.swapRule.enabled ? `at a ${formatPercent(policy.swapRule.approvalRate, 1)} approval rate` : 'off';
-  return (
-    `Policy version ${policy.version}: α = ${policy.alpha} (${policy.sided}), materiality ${policy.materialityGiniPoints} Gini points, ` +
-    `interval above zero ${policy.requireIntervalAboveZero ? 'required' : 'not required'}, swap rule ${swapRule}, ` +
-    `at least ${policy.minBads} bads, quorum ${policy.quorum || 'none'}.`
-  );
-}
+/** The policy a report was judged under, in one sentence: the committee pack's wording (shared). */
+export { policyInOneSentence } from '@shared/pack/record-words';

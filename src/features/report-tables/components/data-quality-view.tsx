@@ -51,6 +51,14 @@ export function DataQualityView({ report, comparison }: { report: Report; compar
             <dt className="text-xs font-medium text-ink-soft">File name</dt>
             <dd className="font-medium break-all text-ink">{report.input.fileName}</dd>
           </div>
+          {report.input.sheet !== undefined ? (
+            <div>
+              <dt className="text-xs font-medium text-ink-soft">Sheet read</dt>
+              <dd className="font-medium break-all text-ink" data-testid="sheet">
+                {report.input.sheet}
+              </dd>
+            </div>
+          ) : null}
           <div>
             <dt className="text-xs font-medium text-ink-soft">Size</dt>
             <dd className="num text-ink">{formatBytes(report.input.bytes)}</dd>

@@ -18,15 +18,35 @@ function PCell({ p, alpha }: { p: number | null; alpha: number }) {
 }
 
 /**
- * Both models within each value of each segment column: n, bads, both Ginis, ΔGini with its
+ * Both models within each value of each segment column (with `population`: also the applicants,
+ * weights summed, and those without an outcome): n, bads, both Ginis, ΔGini with its
  * DeLong interval and two-sided p, the Holm-adjusted p across all segment rows, and the flags
  * (significantly worse, materially worse, too few bads).
  */
-export function SegmentsTable({ segments, alpha }: { segments: SegmentRow[]; alpha: number }) {
+export function SegmentsTable({ segments, alpha, population = false }: { segments: SegmentRow[]; alpha: number; population?: boolean }) {
+  // With applicants without an outcome or weights: the applicants each value stands for and those
+  // without an outcome, beside the rows with an outcome the Ginis rest on.
+  const populationColumns = population
+    ? [
+        column.accessor((row) => row.accounts ?? row.n, {
+          id: 'applicants',
+          header: 'Applicants',
+          meta: { numeric: true },
+          cell: ({ getValue }) => formatCount(Math.round(getValue())),
+        }),
+        column.accessor((row) => row.unknown ?? 0, {
+          id: 'unknown',
+          header: 'Without an outcome',
+          meta: { numeric: true },
+          cell: ({ getValue }) => formatCount(Math.round(getValue())),
+        }),
+      ]
+    : [];
   const columns = [
     column.accessor('column', { header: 'Column', cell: ({ getValue }) => <code className="font-mono text-xs">{getValue()}</code> }),
     column.accessor('value', { header: 'Value', meta: { rowHeader: true } }),
-    column.accessor('n', { header: 'Accounts', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
+    ...populationColumns,
+    column.accessor('n', { header: population ? 'Rows with an outcome' : 'Accounts', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
     column.accessor('bads', { header: 'Bads', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
     column.accessor('championGini', { header: 'Champion Gini', meta: { numeric: true }, cell: ({ getValue }) => formatGini(getValue()) }),
     column.accessor('challengerGini', { header: 'Challenger Gini', meta: { numeric: true }, cell: ({ getValue }) => formatGini(getValue()) }),

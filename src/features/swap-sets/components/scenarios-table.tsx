@@ -1,10 +1,11 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import { useMemo } from 'react';
 import { type Scenario } from '@shared/comparisons';
-import { formatCount, formatDate, formatPercent, formatScore, isoDateTime } from '@/lib/format';
+import { formatDate, formatPercent, formatScore, isoDateTime } from '@/lib/format';
 import { Button } from '@/components/button';
 import { DataTable } from '@/components/data-table';
 import { EmptyState } from '@/components/empty-state';
+import { scenarioAccounts, scenarioBadRate } from '../lib/scenario-cell';
 
 const column = createColumnHelper<Scenario>();
 
@@ -27,13 +28,13 @@ export function ScenariosTable({ scenarios, onShow, canSave }: { scenarios: Scen
         id: 'swapIn',
         header: 'Swap-in',
         meta: { numeric: true },
-        cell: ({ row }) => `${formatCount(row.original.swapIn.count)} at ${formatPercent(row.original.swapIn.badRate)}`,
+        cell: ({ row }) => `${scenarioAccounts(row.original.swapIn)} at ${scenarioBadRate(row.original.swapIn)}`,
       }),
       column.display({
         id: 'swapOut',
         header: 'Swap-out',
         meta: { numeric: true },
-        cell: ({ row }) => `${formatCount(row.original.swapOut.count)} at ${formatPercent(row.original.swapOut.badRate)}`,
+        cell: ({ row }) => `${scenarioAccounts(row.original.swapOut)} at ${scenarioBadRate(row.original.swapOut)}`,
       }),
       column.accessor('note', { header: 'Note', cell: ({ getValue }) => <span className="line-clamp-3 max-w-sm text-ink-soft">{getValue()}</span> }),
       column.accessor('createdAt', {
@@ -41,6 +42,11 @@ export function ScenariosTable({ scenarios, onShow, canSave }: { scenarios: Scen
         cell: ({ row, getValue }) => (
           <span className="whitespace-nowrap">
             {row.original.createdBy.name}, <time dateTime={isoDateTime(getValue())}>{formatDate(getValue())}</time>
+            {row.original.afterDecision ? (
+              <span className="ml-1 text-xs font-medium text-caution-strong" data-testid="after-decision">
+                · after the decision
+              </span>
+            ) : null}
           </span>
         ),
       }),

@@ -1,5 +1,6 @@
 import { type LineCustomSvgLayerProps, ResponsiveLine } from '@nivo/line';
 import { createColumnHelper } from '@tanstack/react-table';
+import { equalApprovalSentence } from '@shared/equal-approval-words';
 import { type StrategyCurve, type SwapSets } from '@shared/report';
 import { formatPercent, formatScore } from '@/lib/format';
 import { ChartFrame } from '@/components/charts/chart-frame';
@@ -9,7 +10,6 @@ import { MarkerShape } from '@/components/charts/series-marker';
 import { type XYSeries, styledLinesLayer } from '@/components/charts/styled-lines-layer';
 import { DataTable } from '@/components/data-table';
 import { approvedBooks } from '@/features/swap-sets/lib/swap-controls';
-import { tradeOff } from '@/features/swap-sets/lib/trade-off';
 
 type Point = StrategyCurve['points'][number];
 const column = createColumnHelper<Point>();
@@ -29,7 +29,7 @@ const lines = styledLinesLayer<XYSeries>(seriesStyles, 7);
 type StrategyCurveChartProps = {
   curve: StrategyCurve;
   swap: SwapSets;
-  position: { badsAvoided: number; approvalsGainedAtEqualBadRate: number | null; approvalRate: number };
+  position: StrategyCurve['atApprovalRate'];
 };
 
 /**
@@ -96,7 +96,7 @@ export function StrategyCurveChart({ curve, swap, position }: StrategyCurveChart
       caption={`Bad rate of the approved book at each approval rate, both models. At the current cut-offs the champion approves ${formatPercent(swap.champion.approvalRate)} with a ${formatPercent(
         books.champion.badRate,
         2,
-      )} bad rate and the challenger ${formatPercent(swap.challenger.approvalRate)} with ${formatPercent(books.challenger.badRate, 2)}. ${tradeOff(position)}`}
+      )} bad rate and the challenger ${formatPercent(swap.challenger.approvalRate)} with ${formatPercent(books.challenger.badRate, 2)}. ${equalApprovalSentence(position)}`}
       legend={
         <ChartLegend
           items={[

@@ -1,6 +1,7 @@
 import { createColumnHelper } from '@tanstack/react-table';
 import { useState } from 'react';
-import { type SegmentSwapCell, type SwapSegmentRow, swapInRiskier } from '@shared/report';
+import { swapRowsHaveUnknownOrWeights } from '@shared/population';
+import { type SegmentSwapCell, type SwapSegmentRow, statedBadRate, swapInRiskier } from '@shared/report';
 import { formatCount, formatInterval, formatPercent, formatSignedNumber } from '@/lib/format';
 import { DataTable } from '@/components/data-table';
 import { EmptyState } from '@/components/empty-state';
@@ -23,14 +24,27 @@ function Change({ champion, challenger }: { champion: string; challenger: string
   );
 }
 
-/** Count, bad rate and its interval of a swap-in or swap-out cell within one segment value. */
+/**
+ * Count, bad rate and its interval of a swap-in or swap-out cell within one segment value. With
+ * applicants without an outcome or weights: applicants (weighted), how many have no outcome, and
+ * the bad rate the run states — inferred, and named so, when the run infers their bads.
+ */
 function SwapCellView({ cell }: { cell: SegmentSwapCell }) {
+  const accounts = cell.accounts ?? cell.count;
+  const unknown = cell.unknown ?? 0;
+  const inferred = cell.inferred !== undefined && cell.inferred !== null && unknown > 0;
   return (
     <span className="inline-flex flex-col items-end whitespace-nowrap">
       <span>
-        <span className="font-medium text-ink">{formatCount(cell.count)}</span>
-        {cell.count > 0 ? <span className="text-ink-soft"> at {formatPercent(cell.badRate)}</span> : null}
+        <span className="font-medium text-ink">{formatCount(Math.round(accounts))}</span>
+        {cell.count > 0 ? <span className="text-ink-soft"> at {formatPercent(inferred ? statedBadRate(cell) : cell.badRate)}</span> : null}
+        {inferred ? <span className="text-ink-soft italic"> inferred</span> : null}
       </span>
+      {unknown > 0 ? (
+        <span className="text-xs text-ink-soft">
+          {formatCount(Math.round(unknown))} without an outcome{inferred ? `; known ${formatPercent(cell.badRate)}` : ''}
+        </span>
+      ) : null}
       {cell.badRateCi ? <span className="text-xs text-ink-soft">{formatInterval(cell.badRateCi, formatPercent)}</span> : null}
     </span>
   );
@@ -48,10 +62,32 @@ export function SwapSegmentsTable({ rows, confidence }: { rows: SwapSegmentRow[]
   const visible = shown === '' ? rows : rows.filter((row) => row.column === shown);
   // The column's name only while rows of several columns are shown.
   const oneColumn = shown !== '' || segmentColumns.length === 1;
+  const population = swapRowsHaveUnknownOrWeights(rows);
   const columns = [
     ...(oneColumn ? [] : [column.accessor('column', { header: 'Column', cell: ({ getValue }) => <code className="font-mono text-xs">{getValue()}</code> })]),
     column.accessor('value', { header: oneColumn ? (shown || segmentColumns[0]) : 'Value', meta: { rowHeader: true, cellClassName: 'whitespace-nowrap' } }),
-    column.accessor('accounts', { header: 'Accounts', meta: { numeric: true }, cell: ({ getValue }) => formatCount(getValue()) }),
+    column.accessor((row) => swapInRiskier(row), {
+      id: 'flag',
+      // Beside the value, so the flag is seen without scrolling the table sideways.
+      header: 'Flags',
+      cell: ({ getValue }) =>
+        getValue() ? (
+          <StatusBadge tone="caution" className="whitespace-normal!">Swap-in riskier than swap-out</StatusBadge>
+        ) : (
+          <span className="text-ink-faint">none</span>
+        ),
+    }),
+    column.accessor('accounts', { header: population ? 'Applicants' : 'Accounts', meta: { numeric: true }, cell: ({ getValue }) => formatCount(Math.round(getValue())) }),
+    ...(population
+      ? [
+          column.accessor((row) => row.unknown ?? 0, {
+            id: 'unknown',
+            header: 'Without an outcome',
+            meta: { numeric: true },
+            cell: ({ getValue }) => formatCount(Math.round(getValue())),
+          }),
+        ]
+      : []),
     column.accessor((row) => row.challenger.approvalRate - row.champion.approvalRate, {
       id: 'approval',
       header: 'Approval rate',
@@ -75,27 +111,17 @@ export function SwapSegmentsTable({ rows, confidence }: { rows: SwapSegmentRow[]
       cell: ({ row }) => <Change champion={formatPercent(row.original.champion.approvedBadRate)} challenger={formatPercent(row.original.challenger.approvedBadRate)} />,
       },
     ),
-    column.accessor((row) => row.swapIn.count, {
+    column.accessor((row) => row.swapIn.accounts ?? row.swapIn.count, {
       id: 'swap-in',
       header: 'Swap-in',
       meta: { numeric: true },
       cell: ({ row }) => <SwapCellView cell={row.original.swapIn} />,
     }),
-    column.accessor((row) => row.swapOut.count, {
+    column.accessor((row) => row.swapOut.accounts ?? row.swapOut.count, {
       id: 'swap-out',
       header: 'Swap-out',
       meta: { numeric: true },
       cell: ({ row }) => <SwapCellView cell={row.original.swapOut} />,
-    }),
-    column.accessor((row) => swapInRiskier(row), {
-      id: 'flag',
-      header: 'Flags',
-      cell: ({ getValue }) =>
-        getValue() ? (
-          <StatusBadge tone="caution" className="whitespace-normal!">Swap-in riskier than swap-out</StatusBadge>
-        ) : (
-          <span className="text-ink-faint">none</span>
-        ),
     }),
   ];
   return (

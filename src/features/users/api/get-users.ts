@@ -1,4 +1,4 @@
-import { queryOptions, useQuery } from '@tanstack/react-query';
+import { queryOptions } from '@tanstack/react-query';
 import { type User, usersResponseSchema } from '@shared/users';
 import { api } from '@/lib/api-client';
 import { queryKeys } from '@/lib/query-keys';
@@ -9,7 +9,3 @@ export async function getUsers(): Promise<User[]> {
 }
 
 export const usersQueryOptions = () => queryOptions({ queryKey: queryKeys.users.list(), queryFn: getUsers });
-
-export function useUsers() {
-  return useQuery(usersQueryOptions());
-}
