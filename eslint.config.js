@@ -135,6 +135,21 @@ export default tseslint.config(
     languageOptions: { globals: { ...globals.node } },
   },
   { files: ['tests/**/*.{ts,tsx,mjs}'], languageOptions: { globals: { ...globals.node, ...globals.browser } } },
+  {
+    // The unit suite shares loaded modules between test files (vitest.config.ts, isolate: false), so
+    // a module replaced with vi.mock stays real wherever an earlier file loaded it first: the test
+    // passes or fails by file order. Pass the behaviour in instead (the app's deps, a parameter).
+    files: ['tests/**/*.{ts,tsx}'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: "CallExpression[callee.object.name='vi'][callee.property.name=/^(mock|doMock)$/]",
+          message: 'vi.mock does not take under shared modules (vitest.config.ts isolate: false); pass the behaviour in through the app deps or a parameter.',
+        },
+      ],
+    },
+  },
   // Type-aware rules for the server: a promise nobody awaits or handles loses its error. The
   // project service finds server/tsconfig.json for each file (a little less work than naming it:
   // 28 s against 30 s of CPU for a cold lint of server/).

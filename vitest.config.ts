@@ -24,6 +24,7 @@ export default defineConfig({
     // server (TypeORM, Express, the engine) afresh for every file: on ten API files this cut the CPU
     // time 2.3× (63 s → 27 s, measured back to back on the shared machine). Test files share no
     // state through modules: every app, database, cache and lock belongs to its own DataSource.
+    // For the same reason vi.mock is refused by lint in tests: a module an earlier file loaded stays real.
     isolate: false,
     // Generous bounds, one for the whole suite (tests set a longer one only where they need more):
     // the suite must stay green on a shared 2-core machine with other work beside it (at load 40 a

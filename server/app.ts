@@ -17,6 +17,7 @@ import { apiNotFound, errorMiddleware } from './errors';
 import { clientRouter, noClientRouter } from './http/client';
 import { holdoutRoutes } from './holdouts/router';
 import { governanceRoutes } from './governance/router';
+import { renderPackOffThread } from './pack/render-thread';
 import { packRoutes } from './pack/router';
 import { uploadDirFor } from './holdouts/upload-dir';
 import { healthRoutes } from './http/health';
@@ -53,6 +54,8 @@ export interface AppDeps {
   uploadDir?: string;
   /** The prepared swap-set cache, shared with the queue's handlers (made here when not given). */
   preparedCache?: PreparedCache;
+  /** Lays out a committee pack's PDF; default: on a pack thread (pack/render-thread.ts). */
+  layOutPack?: AppContext['layOutPack'];
 }
 
 /** Sessions last 8 hours from the last request. */
@@ -102,7 +105,7 @@ export function createApp(deps: AppDeps): Express {
       handlers: analysisHandlers({ dataSource, mailer, publicUrl: config.publicUrl, preparedCache }),
     });
   if (ownJobs) void jobs.start().catch((error: unknown) => log.error('the analysis queue could not start', error));
-  const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir, preparedCache };
+  const ctx: AppContext = { config, dataSource, mailer, log, jobs, uploadDir, preparedCache, layOutPack: deps.layOutPack ?? renderPackOffThread };
 
   const app = express();
   app.set('trust proxy', config.trustProxy);

@@ -4,6 +4,7 @@ import type { PreparedCache } from './comparisons/prepared-cache';
 import type { AnalysisQueue } from './jobs/queue';
 import type { Logger } from './log';
 import type { Mailer } from './mail/mailer';
+import type { PackInput } from './pack/sections';
 
 /** What every feature's routes and services are built with (see createApp in app.ts). */
 export interface AppContext {
@@ -21,4 +22,10 @@ export interface AppContext {
    * Another instance that lacks a run prepares it again from the stored columns.
    */
   preparedCache: PreparedCache;
+  /**
+   * Lays out a committee pack's PDF (pack/render-thread.ts `renderPackOffThread`: on a pack thread,
+   * kept between packs). Given in the context so a test can watch or fail the layout without
+   * replacing a module (the unit suite shares modules between test files).
+   */
+  layOutPack: (input: PackInput) => Promise<Buffer>;
 }

@@ -14,7 +14,6 @@ import { inTransaction, insideUnitOfWork } from '../db/transaction';
 import { comparisonAuditEvents, presentAuditEvent } from '../governance/audit-trail';
 import { getGovernance } from '../governance/service';
 import { listNotes } from '../notes/service';
-import { renderPackOffThread } from './render-thread';
 import { packSections, type PackInput } from './sections';
 import { buildWorkbook } from './workbook';
 
@@ -87,7 +86,7 @@ export async function sendPackPdf(ctx: AppContext, actor: User, comparisonId: nu
   const comparison = await findComparison(ctx.dataSource, comparisonId);
   const archived = await archivedPack(ctx.dataSource, comparisonId);
   // A pack made afresh is laid out on a worker thread; the archived one is sent as stored.
-  const pdf = archived ? archived.pdf : await renderPackOffThread(await packInput(ctx.dataSource, comparisonId, { generatedFor: actor.name, archived: false }));
+  const pdf = archived ? archived.pdf : await ctx.layOutPack(await packInput(ctx.dataSource, comparisonId, { generatedFor: actor.name, archived: false }));
   res.status(200);
   res.setHeader('Content-Type', 'application/pdf');
   res.setHeader('X-Pack-SHA256', archived ? archived.sha256 : sha256Hex(pdf));
@@ -149,12 +148,12 @@ function printed(input: PackInput): unknown {
   return { sections: packSections.map((section) => section(input)), id: input.comparison.id, name: input.comparison.name, at: input.generatedAt.getTime() };
 }
 
-export async function decideWithPack(ctx: Pick<AppContext, 'dataSource' | 'log'>, comparisonId: number, actor: User, decide: DecideWithPack): Promise<void> {
+export async function decideWithPack(ctx: Pick<AppContext, 'dataSource' | 'log' | 'layOutPack'>, comparisonId: number, actor: User, decide: DecideWithPack): Promise<void> {
   const options = { generatedFor: actor.name, archived: true };
   const laidOutInside = () =>
     inTransaction(ctx.dataSource, (manager) =>
       decide(manager, async (decisionId) => {
-        const pdf = await renderPackOffThread(await packInput(manager, comparisonId, options));
+        const pdf = await ctx.layOutPack(await packInput(manager, comparisonId, options));
         await storeDecisionPack(manager, { comparisonId, decisionId, actor, pdf });
       }),
     );
@@ -178,7 +177,7 @@ export async function decideWithPack(ctx: Pick<AppContext, 'dataSource' | 'log'>
     rehearsal = error.input;
   }
   if (!rehearsal) throw new Error('the rehearsal of a decision ended without its pack');
-  const pdf = await renderPackOffThread(rehearsal);
+  const pdf = await ctx.layOutPack(rehearsal);
   const expected = printed(rehearsal);
   try {
     await atMoment(moment, () =>

@@ -1,9 +1,8 @@
 import { createHash } from 'node:crypto';
 import { auditTrailSchema } from '@shared/governance';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Comparison, Decision, DecisionPack } from '@server/db/entities/index';
 import { withWriteLock } from '@server/db/transaction';
-import type * as renderThread from '@server/pack/render-thread';
 import { packThreads, renderPackOffThread, stopPackThreads } from '@server/pack/render-thread';
 import type { PackInput } from '@server/pack/sections';
 import { packInput } from '@server/pack/service';
@@ -19,21 +18,15 @@ import { pdfPages } from './helpers/pack';
  * one transaction, both or neither, with the PDF laid out while no write lock is held; and the
  * pack threads (pack/render-thread.ts): kept between packs, at most two, a dead one replaced.
  *
- * The layout is watched through the module the server calls (pack/render-thread.ts): each test
- * says what happens while a pack is laid out (a write, a note, a failure) and counts the layouts.
+ * The layout is watched through the app's `layOutPack` (the pack threads, with what each test says
+ * happens while a pack is laid out: a write, a note, a failure) and the layouts are counted.
  */
-const layout = vi.hoisted(() => ({ calls: 0, during: null as null | ((call: number) => Promise<void>) }));
+const layout = { calls: 0, during: null as null | ((call: number) => Promise<void>) };
 
-vi.mock('@server/pack/render-thread', async (importOriginal) => {
-  const real = await importOriginal<typeof renderThread>();
-  return {
-    ...real,
-    renderPackOffThread: (input: PackInput) => {
-      layout.calls++;
-      return layout.during ? layout.during(layout.calls).then(() => real.renderPackOffThread(input)) : real.renderPackOffThread(input);
-    },
-  };
-});
+function watchedLayout(input: PackInput): Promise<Buffer> {
+  layout.calls++;
+  return layout.during ? layout.during(layout.calls).then(() => renderPackOffThread(input)) : renderPackOffThread(input);
+}
 
 let t: TestApp;
 let modeler: TestClient;
@@ -54,7 +47,7 @@ async function comparison(name: string, analysed = true): Promise<number> {
 }
 
 beforeAll(async () => {
-  t = await buildTestApp();
+  t = await buildTestApp({ layOutPack: watchedLayout });
   [modeler, analyst, committee, policy] = await Promise.all((['modeler', 'analyst', 'committee', 'policy'] as const).map((role) => signedInAs(t.app, role)));
   committee2 = new TestClient(t.app);
   expect((await committee2.signIn('committee2@tallowmere.test')).status).toBe(200);

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { Express } from 'express';
 import nodemailer, { type Transporter } from 'nodemailer';
 import type { DataSource } from 'typeorm';
-import { closeApp, createApp } from '@server/app';
+import { type AppDeps, closeApp, createApp } from '@server/app';
 import { analysisHandlers } from '@server/comparisons/analysis-handlers';
 import { createPreparedCache, type PreparedCache } from '@server/comparisons/prepared-cache';
 import { databaseAddress, loadConfig, type Config } from '@server/config';
@@ -54,6 +54,8 @@ export async function buildTestApp(
     transport?: Transporter;
     mailer?: Partial<MailerOptions>;
     jobs?: Partial<JobRunnerOptions>;
+    /** Lays out committee packs instead of the pack threads (a test that watches or fails the layout). */
+    layOutPack?: AppDeps['layOutPack'];
   } = {},
 ): Promise<TestApp> {
   const directory = options.directory ?? mkdtempSync(join(tmpdir(), 'scorecourt-test-'));
@@ -77,7 +79,7 @@ export async function buildTestApp(
   });
   await jobs.start();
   const uploadDir = join(directory, 'uploads');
-  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir, preparedCache });
+  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir, preparedCache, layOutPack: options.layOutPack });
 
   async function deliveredMail(where: { to?: string; afterId?: number } = {}): Promise<MailMessage> {
     const deadline = Date.now() + 10_000;
