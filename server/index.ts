@@ -18,6 +18,7 @@ import { analysisHandlers } from './comparisons/analysis-handlers';
 import { createPreparedCache } from './comparisons/prepared-cache';
 import { stopPackThreads } from './pack/render-thread';
 import { startProcess, stopOnSignals } from './start-up';
+import { renderPackOffThread } from './pack/render-thread';
 
 /**
  * `node dist/server/index.js`: opens the database and migrates it, starts mail (the local sink
@@ -62,7 +63,7 @@ async function main(config: Config, log: Logger): Promise<void> {
     const started = performance.now();
     if (config.demoScenario) console.log('The database is empty: adding the demo people and the demo comparisons, whose analyses run now (a few seconds)…');
     try {
-      seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir, preparedCache } : null });
+      seeded = await seedDemo(dataSource, { bcryptCost: config.bcryptCost, scenario: config.demoScenario ? { config, dataSource, mailer, log, jobs, uploadDir, preparedCache, layOutPack: renderPackOffThread } : null });
       if (seeded.comparisons.length > 0) console.log(`The demo is ready (${formatFixed((performance.now() - started) / 1000, 1)} s).`);
     } catch (error) {
       log.error(

@@ -17,6 +17,7 @@ import { createLogger } from '@server/log';
 import { listNotes } from '@server/notes/service';
 import { seedDemo, type SeedResult } from '@server/seed';
 import { buildTestApp, type TestApp } from './helpers/app';
+import { renderPackOffThread } from '@server/pack/render-thread';
 
 /**
  * The first start's demo at a small size: the same seed (server/seed.ts with demo/scenario.ts),
@@ -55,7 +56,7 @@ beforeAll(async () => {
     development: thinned(demoFiles.development, dataDir),
     sample: thinned(demoFiles.sample, dataDir),
   };
-  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache };
+  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache, layOutPack: renderPackOffThread };
   seeded = await seedDemo(t.dataSource, { bcryptCost: t.config.bcryptCost, scenario: context, today, replicates, dataDir });
 });
 afterAll(async () => t?.close());

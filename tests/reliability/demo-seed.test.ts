@@ -17,6 +17,7 @@ import { listNotes } from '@server/notes/service';
 import { seedDemo, type SeedResult } from '@server/seed';
 import { buildTestApp, type TestApp } from '../api/helpers/app';
 import { signedInAs } from '../api/helpers/client';
+import { renderPackOffThread } from '@server/pack/render-thread';
 
 /**
  * The first start's demo (server/seed.ts with demo/scenario.ts), as index.ts runs it: the real
@@ -33,7 +34,7 @@ const today = new Date();
 
 beforeAll(async () => {
   t = await buildTestApp({ seed: false });
-  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache };
+  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache, layOutPack: renderPackOffThread };
   seeded = await seedDemo(t.dataSource, { bcryptCost: t.config.bcryptCost, scenario: context, today });
 }, 240_000);
 afterAll(async () => t?.close());
