@@ -1,6 +1,7 @@
 import type ExcelJS from 'exceljs';
 import { segmentsOf } from '@shared/challenger-sections';
-import { championName, hasSeveralChallengers, segmentFlagsText, verdictOutcomeLabels } from '@shared/challengers-words';
+import { championName, hasSeveralChallengers, verdictOutcomeLabels } from '@shared/challengers-words';
+import { segmentFlagsText, segmentP, segmentPSidedness } from '@shared/segments-words';
 import { type ChallengerResult, type ModelMetrics, type Report, type SegmentRow, statedBadRate } from '@shared/report';
 import { col, F, facts, type Field, writeFields } from './workbook-tables';
 
@@ -118,34 +119,46 @@ export function challengersSheet(workbook: ExcelJS.Workbook, report: Report): vo
 }
 
 /**
- * Several challengers: every challenger against the champion within each segment value, with
- * the two-sided DeLong p, the interval, the Holm-adjusted p across that challenger's rows and the
- * harm flags its segment rule was judged on (the report's `segments` for the first, each further
- * challenger's own rows after it). None with one challenger.
+ * The columns of every segments sheet, the first challenger's ("Segments") and every challenger's
+ * ("Segments by challenger") alike: per value the counts, both Ginis, ΔGini with its standard
+ * error and DeLong interval, the p (two-sided since engine 1.2; the header says which, as
+ * segmentPSidedness does for the printed tables), the Holm-adjusted p across that challenger's
+ * rows, the harm flags, "few bads" and the note. Fractions, as the report holds them.
+ */
+export function segmentFields<Row extends SegmentRow>(report: Pick<Report, 'segments' | 'challengers' | 'policy'>, k = 0): Field<Row>[] {
+  return [
+    col.text('Segment column', (row) => row.column, 18),
+    col.text('Value', (row) => row.value, 18),
+    col.count('Accounts', (row) => row.n),
+    col.count('Goods', (row) => row.goods),
+    col.count('Bads', (row) => row.bads),
+    col.metric('Champion Gini', (row) => row.championGini, 15),
+    col.metric('Challenger Gini', (row) => row.challengerGini, 15),
+    col.metric('ΔGini', (row) => row.deltaGini),
+    col.metric('se(ΔGini)', (row) => row.giniSe),
+    ...col.interval<Row>('ΔGini interval', F.metric, (row) => row.giniCi ?? null, 18),
+    col.p(`p, ${segmentPSidedness(report, k)}`, (row) => segmentP(row), 14),
+    col.p('Holm p', (row) => row.pHolm),
+    col.text('Flag', (row) => segmentFlagsText(row.flags ?? []), 30),
+    col.yesNo('Few bads', (row) => row.tooFewBads),
+    col.text('Note', (row) => row.note, 40),
+  ];
+}
+
+/**
+ * Several challengers: every challenger against the champion within each segment value, in the
+ * columns of the first challenger's Segments sheet (segmentFields), the challenger named first:
+ * the report's `segments` for the first, each further challenger's own rows after it. None with
+ * one challenger.
  */
 export function challengerSegmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
   if (!hasSeveralChallengers(report) || report.segments.length === 0) return;
   const sheet = workbook.addWorksheet('Segments by challenger');
   type Row = SegmentRow & { challenger: string };
-  const fields: Field<Row>[] = [
-    col.text('Challenger', (row) => row.challenger, 28),
-    col.text('Segment column', (row) => row.column, 18),
-    col.text('Value', (row) => row.value, 18),
-    col.count('Accounts', (row) => row.n),
-    col.count('Bads', (row) => row.bads),
-    col.metric('Champion Gini', (row) => row.championGini, 15),
-    col.metric('Challenger Gini', (row) => row.challengerGini, 15),
-    col.metric('ΔGini', (row) => row.deltaGini),
-    ...col.interval('ΔGini interval', F.metric, (row: Row) => row.giniCi ?? null, 18),
-    col.p('p two-sided', (row) => row.pTwoSided ?? null),
-    col.p('Holm p', (row) => row.pHolm),
-    col.text('Flag', (row) => segmentFlagsText(row.flags), 30),
-    col.yesNo('Few bads', (row) => row.tooFewBads),
-  ];
-  writeFields(
+  writeFields<Row>(
     sheet,
-    'Each challenger − the champion per segment value (fractions), two-sided DeLong, Holm across that challenger’s rows',
-    fields,
+    'Each challenger − the champion per segment value (fractions), DeLong, Holm across that challenger’s rows',
+    [col.text('Challenger', (row) => row.challenger, 28), ...segmentFields<Row>(report)],
     report.challengers.flatMap((challenger, index) => segmentsOf(report, index).map((row) => ({ ...row, challenger: challenger.name }))),
   );
 }

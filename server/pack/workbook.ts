@@ -4,7 +4,7 @@ import { fileWithSheet } from '@shared/input-file';
 import { formatFixed } from '@shared/format';
 import { calibrationSheet, stabilitySheet } from './calibration-sheets';
 import { bandsOf } from '@shared/challenger-sections';
-import { challengerSegmentsSheet, challengersSheet } from './challengers-sheets';
+import { challengerSegmentsSheet, challengersSheet, segmentFields } from './challengers-sheets';
 import { col, type Column, F, facts, type Field, intervalRows, writeFields, writeTable } from './workbook-tables';
 
 /**
@@ -152,21 +152,8 @@ function segmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
   const sheet = workbook.addWorksheet('Segments');
   writeFields<Report['segments'][number]>(
     sheet,
-    'ΔGini per segment value (fractions), DeLong p and Holm-adjusted p',
-    [
-      ...segmentValue(),
-      col.count('Accounts', (row) => row.n),
-      col.count('Goods', (row) => row.goods),
-      col.count('Bads', (row) => row.bads),
-      col.metric('Champion Gini', (row) => row.championGini, 15),
-      col.metric('Challenger Gini', (row) => row.challengerGini, 15),
-      col.metric('ΔGini', (row) => row.deltaGini),
-      col.metric('se(ΔGini)', (row) => row.giniSe),
-      col.p('p', (row) => row.p),
-      col.p('Holm p', (row) => row.pHolm),
-      col.yesNo('Few bads', (row) => row.tooFewBads),
-      col.text('Note', (row) => row.note, 40),
-    ],
+    'ΔGini per segment value (fractions), DeLong interval and p, Holm-adjusted p across the rows, harm flags',
+    segmentFields(report),
     report.segments,
   );
 }

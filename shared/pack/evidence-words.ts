@@ -203,37 +203,3 @@ export function swapSegmentsTable(report: Pick<Report, 'swap' | 'settings'>): Wo
     ]),
   };
 }
-
-/** Said where the report has no segment rows. */
-export const noSegmentsSentence = 'No segment columns were mapped.';
-
-/**
- * How the segment rows' p is sided: two-sided since engine 1.2 (harm and benefit alike can be
- * significant; the row then carries `pTwoSided`), the policy's sidedness in older reports.
- */
-export function segmentPSidedness(report: Pick<Report, 'segments' | 'policy'>): 'one-sided' | 'two-sided' {
-  if (report.segments.some((row) => row.pTwoSided !== null && row.pTwoSided !== undefined)) return 'two-sided';
-  return report.policy.sided === 'one-sided' ? 'one-sided' : 'two-sided';
-}
-
-/** ΔGini per segment value with DeLong's p and Holm's adjusted p; null when no segment column was mapped. */
-export function segmentsTable(report: Pick<Report, 'segments' | 'policy'>): WordedTable | null {
-  if (report.segments.length === 0) return null;
-  const sided = segmentPSidedness(report);
-  return {
-    note: `ΔGini per segment value with its DeLong p (${sided}) and the Holm-adjusted p across all rows. “Few bads” marks values with too few bads to read.`,
-    head: ['Segment', 'Accounts', 'Bads', 'Champion Gini', 'Challenger Gini', 'ΔGini', 'p', 'Holm p', 'Note'],
-    numeric: [1, 2, 3, 4, 5, 6, 7],
-    rows: report.segments.map((row) => [
-      `${row.column} = ${row.value}`,
-      formatCount(row.n),
-      formatCount(row.bads),
-      formatGini(row.championGini),
-      formatGini(row.challengerGini),
-      formatGiniDelta(row.deltaGini),
-      formatPValue(row.p),
-      formatPValue(row.pHolm),
-      [row.tooFewBads ? 'few bads' : null, row.note].filter(Boolean).join('; '),
-    ]),
-  };
-}

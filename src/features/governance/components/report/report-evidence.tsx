@@ -2,7 +2,8 @@ import { equalApprovalSentence } from '@shared/equal-approval-words';
 import { type ComparisonDetail } from '@shared/comparisons';
 import { type Report } from '@shared/report';
 import { formatDateTime } from '@/lib/format';
-import { dataFacts, metricsTable, noSegmentsSentence, segmentsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
+import { noSegmentsSentence, segmentsTable } from '@shared/segments-words';
+import { dataFacts, metricsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
 import { FactList, ReportBlock, ReportTable } from '@/features/governance/components/report/report-table';
 
 /**
@@ -76,13 +77,14 @@ export function ReportStrategy({ report }: { report: Report }) {
   return <p className="text-sm text-ink">{equalApprovalSentence(report.strategyCurve.atApprovalRate)}</p>;
 }
 
-export function ReportSegments({ report }: { report: Report }) {
-  const words = segmentsTable(report);
-  if (!words) return <p className="text-sm text-ink-soft">{noSegmentsSentence}</p>;
+/** Challenger k's segments table (k = 0, the first challenger, under its own title "Segments"): the same columns for every challenger. */
+export function ReportSegments({ report, k = 0, title = 'Segments' }: { report: Report; k?: number; title?: string }) {
+  const words = segmentsTable(report, k);
+  if (!words) return k === 0 ? <p className="text-sm text-ink-soft">{noSegmentsSentence}</p> : null;
   const { note, ...table } = words;
   return (
-    <ReportBlock title="Segments" note={note}>
-      <ReportTable caption="Segments" {...table} />
+    <ReportBlock title={title} note={note}>
+      <ReportTable caption={title} nowrap={[0]} {...table} />
     </ReportBlock>
   );
 }
