@@ -17,6 +17,7 @@ import {
 } from '@shared/challengers-words';
 import { formatPercent } from '@shared/format';
 import { segmentsTable } from '@shared/segments-words';
+import { furtherSwapSegmentsTitle, swapSegmentsTable } from '@shared/pack/evidence-words';
 import { type Report } from '@shared/report';
 import { type WordTable, withFigures } from '@shared/word-table';
 import { type Block, type PackInput, type PackTable, type Section } from './sections';
@@ -62,6 +63,14 @@ function segmentBlocks(report: Report & { challengers: NonNullable<Report['chall
   return [flagged, ...further];
 }
 
+/** Each further challenger's swap sets within each segment value (the first's are in the swap sets section). */
+function furtherSwapSegmentBlocks(report: Report & { challengers: NonNullable<Report['challengers']> }): Block[] {
+  return report.challengers.flatMap((challenger, k) => {
+    const table = k === 0 ? null : swapSegmentsTable({ swap: challenger.swap, settings: report.settings });
+    return table ? [{ kind: 'table' as const, title: furtherSwapSegmentsTitle(challenger.name, challenger.swap), ...table }] : [];
+  });
+}
+
 export function severalChallengers(input: PackInput): Section | null {
   const { report } = input;
   if (!hasSeveralChallengers(report)) return null;
@@ -93,6 +102,7 @@ export function severalChallengers(input: PackInput): Section | null {
             packTable('Who each model approves', side.patterns, report.approvalPatterns!.models.map((_, index) => index), side.patternsNote),
           ]
         : []),
+      ...furtherSwapSegmentBlocks(report),
     ],
   };
 }

@@ -177,6 +177,14 @@ export function swapSetsTable(report: Pick<Report, 'swap' | 'settings' | 'mappin
   };
 }
 
+/**
+ * The title of challenger k's swap sets by segment after the first (the first's are the report's
+ * own, at its cut-offs): each further challenger's are at the report's approval rate.
+ */
+export function furtherSwapSegmentsTitle(name: string, swap: Pick<Report['swap'], 'requestedApprovalRate' | 'champion'>): string {
+  return `Swap sets by segment: ${name} against the champion at a ${formatPercent(swap.requestedApprovalRate ?? swap.champion.approvalRate, 1)} approval rate`;
+}
+
 /** The flag of a segment value whose swap-in is riskier than its swap-out. */
 export const swapInRiskierFlag = 'Swap-in riskier than swap-out';
 

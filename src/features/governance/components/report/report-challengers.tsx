@@ -19,7 +19,8 @@ import { type ChallengerResult, type Report } from '@shared/report';
 import { type WordTable, withFigures } from '@shared/word-table';
 import { formatPercent } from '@/lib/format';
 import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/components/report/report-table';
-import { ReportSegments } from '@/features/governance/components/report/report-evidence';
+import { ReportSegments, ReportSwapSegments } from '@/features/governance/components/report/report-evidence';
+import { furtherSwapSegmentsTitle } from '@shared/pack/evidence-words';
 
 /** A word table as a printable report table: the first column names the row, the rest are figures unless listed as words. */
 function PrintedTable({ table, caption, words = [] }: { table: WordTable; caption: string; words?: number[] }) {
@@ -68,6 +69,9 @@ export function ReportChallengers({ report }: { report: Report & { challengers: 
           </ReportBlock>
         </>
       ) : null}
+      {report.challengers.map((challenger, k) =>
+        k === 0 ? null : <ReportSwapSegments key={challenger.column} report={report} swap={challenger.swap} title={furtherSwapSegmentsTitle(challenger.name, challenger.swap)} />,
+      )}
     </ReportPart>
   );
 }

@@ -60,15 +60,15 @@ export function ReportSwapTable({ report, title }: { report: Report; title: stri
 }
 
 /** The report's swap sets within each segment value (engine 1.1 and later). */
-export function ReportSwapSegments({ report }: { report: Report }) {
-  const words = swapSegmentsTable(report);
+export function ReportSwapSegments({ report, swap = report.swap, title = 'Swap sets by segment' }: { report: Report; swap?: Report['swap']; title?: string }) {
+  const words = swapSegmentsTable({ swap, settings: report.settings });
   if (!words) return null;
   const { note, rows, ...table } = words;
   // Non-breaking hyphens in the flag: it may wrap between words, never inside "swap-in".
   const flag = table.head.length - 1;
   return (
-    <ReportBlock title="Swap sets by segment" note={note}>
-      <ReportTable caption="Swap sets by segment" nowrap={[0]} rows={rows.map((row) => row.map((cell, index) => (index === flag ? cell.replaceAll('-', '\u2011') : cell)))} {...table} />
+    <ReportBlock title={title} note={note}>
+      <ReportTable caption={title} nowrap={[0]} rows={rows.map((row) => row.map((cell, index) => (index === flag ? cell.replaceAll('-', '\u2011') : cell)))} {...table} />
     </ReportBlock>
   );
 }
