@@ -185,6 +185,16 @@ export function furtherSwapSegmentsTitle(name: string, swap: Pick<Report['swap']
   return `Swap sets by segment: ${name} against the champion at a ${formatPercent(swap.requestedApprovalRate ?? swap.champion.approvalRate, 1)} approval rate`;
 }
 
+/**
+ * Under a further challenger's swap sets by segment on the swap-sets page: which models and cut-offs.
+ * `fromCutoffs`: the page is at given cut-offs, and the rate is the champion's approval rate there.
+ */
+export function furtherSwapSegmentsSentence(name: string, approvalRate: number, fromCutoffs: boolean): string {
+  return `${name} against the champion within each value of each segment column, both at their cut-offs for a ${formatPercent(approvalRate, 1)} approval rate${
+    fromCutoffs ? ' (the champion’s approval rate at the cut-off above; the challenger’s cut-off is on its own score)' : ''
+  }: where it approves more or fewer accounts than the champion, and how risky they are.`;
+}
+
 /** The flag of a segment value whose swap-in is riskier than its swap-out. */
 export const swapInRiskierFlag = 'Swap-in riskier than swap-out';
 
