@@ -23,7 +23,8 @@ import {
   championOf,
   statedBadRate,
 } from './report';
-import { flaggedSegmentsOf, segmentsOf } from './challenger-sections';
+import { flaggedSegmentsOf } from './challenger-sections';
+import { segmentFlagsText } from './segments-words';
 
 /**
  * Several challengers in words and tables, one copy for the comparison pages, the printable
@@ -204,12 +205,6 @@ export function challengerVerdictsTable(report: Pick<Report, 'challengers' | 'ch
   };
 }
 
-/** The harm flags of a segment row in words ("Significantly worse; materially worse"). */
-export function segmentFlagsText(flags: readonly string[]): string {
-  const words = [flags.includes('significantly-worse') ? 'significantly worse' : null, flags.includes('materially-worse') ? 'materially worse' : null].filter((word) => word !== null);
-  return words.length === 0 ? '' : `${words[0]!.charAt(0).toUpperCase()}${words[0]!.slice(1)}${words.length > 1 ? `; ${words[1]}` : ''}`;
-}
-
 /**
  * Every challenger's flagged segment values (significantly or materially worse than the champion:
  * the rows each verdict's segment rule was judged on), one row per challenger and value: the
@@ -229,29 +224,6 @@ export function flaggedSegmentsTable(report: Pick<Report, 'segments' | 'challeng
     }
   });
   return { head: ['Challenger', 'Segment value', 'Flag', 'ΔGini', 'Interval', 'p, two-sided, Holm'], rows };
-}
-
-/**
- * One challenger's segment rows in full (a further challenger's own, as the primary's stand in the
- * report's segments part): per value the rows with an outcome, bads, both Ginis, ΔGini with its
- * interval, the two-sided DeLong p, the Holm-adjusted p across that challenger's rows and the flag.
- */
-export function challengerSegmentsTable(report: Pick<Report, 'segments' | 'challengers'>, k: number): WordTable {
-  return {
-    head: ['Segment', 'Accounts', 'Bads', 'Champion Gini', 'Challenger Gini', 'ΔGini', 'Interval', 'p, two-sided', 'Holm p', 'Flag or note'],
-    rows: segmentsOf(report, k).map((row) => [
-      `${row.column} = ${row.value}`,
-      formatCount(row.n),
-      formatCount(row.bads),
-      formatGini(row.championGini),
-      formatGini(row.challengerGini),
-      formatGiniDelta(row.deltaGini),
-      formatInterval(row.giniCi ?? null, formatGiniDelta),
-      formatPValue(row.pTwoSided ?? null),
-      formatPValue(row.pHolm),
-      [segmentFlagsText(row.flags) || null, row.tooFewBads ? 'few bads' : null, row.note].filter(Boolean).join('; '),
-    ]),
-  };
 }
 
 /** Under the flagged segments: what the flags mean, or that no challenger has one. */

@@ -7,6 +7,7 @@ import {
   higherIsSchema,
   intervalSchema,
   mappingModelProblems,
+  MAX_CHALLENGERS,
   strategyCurveSchema,
   swapMatrixSchema,
   swapSetsSchema,
@@ -303,11 +304,17 @@ export type ComparisonDetail = z.infer<typeof comparisonDetailSchema>;
 // no run is done. The same JSON as `npm run compare -- FILE --json` on the same file and settings.
 
 // --- swap sets on demand, scenarios -------------------------------------------------------
-/** POST /api/comparisons/:id/swap (any signed-in person): recomputed at these settings. */
+/**
+ * POST /api/comparisons/:id/swap (any signed-in person): recomputed at these settings. With several
+ * challengers, `challenger` (default 0, the first) is the one set against the champion: its swap
+ * sets (by segment too), swap matrix and strategy position; `cutoffs.challenger` is then on its
+ * score. A 400 names an index the comparison does not have.
+ */
 export const swapQuerySchema = z
   .object({
     cutoffs: z.object({ champion: z.number(), challenger: z.number() }).optional(),
     approvalRate: z.number().gt(0).lt(1).optional(),
+    challenger: z.number().int().min(0).max(MAX_CHALLENGERS - 1).optional(),
   })
   .refine((value) => value.cutoffs !== undefined || value.approvalRate !== undefined, 'Give cut-offs or an approval rate');
 export type SwapQuery = z.infer<typeof swapQuerySchema>;

@@ -1,7 +1,8 @@
 import { flaggedSegmentsOf } from '@shared/challenger-sections';
-import { segmentFlagsText } from '@shared/challengers-words';
+import { segmentFlagsText } from '@shared/segments-words';
 import { equalApprovalSentence } from '@shared/equal-approval-words';
-import { segmentPSidedness } from '@shared/pack/evidence-words';
+import { segmentsTable } from '@shared/segments-words';
+import { type WordedTable } from '@shared/word-table';
 import { parseArgs } from 'node:util';
 import { MISSING, formatCount, formatFixed, formatGini, formatPStatement, formatPercent, formatSignedNumber } from '@shared/format';
 import {
@@ -376,14 +377,14 @@ export function summary(report: Report): string {
     }
     lines.push("  (swap-in riskier): its bad rate is above the swap-out's. Point estimates: a small value moves a lot with a few accounts (intervals in --json)");
   }
-  if (report.segments.length > 0) {
+  // Every challenger's segments in the table the pack and the printable report print (shared/segments-words.ts).
+  for (let k = 0; k < Math.max(1, report.challengers?.length ?? 0); k++) {
+    const table = segmentsTable(report, k);
+    if (!table) continue;
     lines.push('');
-    lines.push(`Segments (ΔGini in points; p ${segmentPSidedness(report)}, Holm-adjusted across all segment rows)`);
-    const width = labelWidth(report.segments);
-    for (const row of report.segments) {
-      const delta = row.deltaGini === null ? `— (${row.note})` : `${signed(row.deltaGini)}  ${pStatement(row.p!)}  Holm ${pStatement(row.pHolm!)}`;
-      lines.push(`  ${pad(segmentLabel(row), width)}${pad(`${int(row.n)} accounts, ${int(row.bads)} bads`, 30)}${delta}${row.tooFewBads ? '  (few bads)' : ''}`);
-    }
+    lines.push(`${(report.challengers?.length ?? 0) >= 2 ? `Segments: ${report.challengers![k]!.name} against the champion` : 'Segments'} (ΔGini in points)`);
+    lines.push(...textTable(table).map((line) => `  ${line}`));
+    lines.push(`  ${table.note}`);
   }
   lines.push(...severalChallengerLines(report, level));
   lines.push(...calibrationStabilityLines(report.calibration, report.stability));
@@ -401,6 +402,17 @@ export function summary(report: Report): string {
   lines.push("model changes who is approved and declined, so fair-lending and adverse-action duties apply. Defer to the");
   lines.push("institution's model risk policy, local regulation and licensed advice.");
   return lines.join('\n') + '\n';
+}
+
+/** A worded table as text: columns padded to their widest cell, figures right-aligned. */
+export function textTable(table: WordedTable): string[] {
+  const widths = table.head.map((_, column) => Math.max(...[table.head, ...table.rows].map((row) => (row[column] ?? '').length)));
+  const line = (row: string[]) =>
+    row
+      .map((cell, column) => (table.numeric.includes(column) ? cell.padStart(widths[column]!) : cell.padEnd(widths[column]!)))
+      .join('  ')
+      .trimEnd();
+  return [line(table.head), ...table.rows.map(line)];
 }
 
 /** Several challengers (two or more): each against the champion, the joint test, every pair, the recommended one. None for one challenger. */

@@ -93,7 +93,7 @@ export function comparisonRoutes(ctx: AppContext): RouteDefinition[] {
       method: 'post',
       path: '/comparisons/:id/swap',
       access: 'signed-in',
-      summary: 'Swap sets, swap matrix and strategy-curve position at { cutoffs } or { approvalRate }, on the current run',
+      summary: 'Swap sets (by segment too), swap matrix and strategy-curve position at { cutoffs } or { approvalRate }, on the current run; { challenger: k } for a further challenger (default 0, the first)',
       validate: { params: idParams, body: swapQuerySchema },
       handler: async (req) => swapOnDemand(ctx, req.params.id, req.body),
     }),

@@ -1,5 +1,10 @@
 import type { ChallengersSwapQuery, ChallengersSwapResult, SwapQuery, SwapResult } from '@shared/comparisons';
-import { championOf, challengersOf, type SwapSets } from '@shared/report';
+import { noSuchChallengerMessage } from '@shared/challengers-words';
+import { errorCodes } from '@shared/errors';
+import { championOf, challengersOf, type SwapMatrix, type SwapSets } from '@shared/report';
+import { AppError } from '../errors';
+import { swapMatrix } from '../stats/swap-matrix';
+import type { PreparedHoldout } from '../stats/policy-data';
 import { approvalPatterns } from '../stats/approval-patterns';
 import { pairData } from '../stats/policy-data';
 import type { AppContext } from '../context';
@@ -36,8 +41,24 @@ export function swapRequestOf(query: { cutoffs?: { champion: number; challenger:
   return { basis: 'approval-rate', approvalRate: query.approvalRate };
 }
 
-export function swapAt(entry: PreparedRun, request: SwapRequest): SwapResult {
-  const { data, settings } = entry;
+/**
+ * Each further challenger's swap matrix against the champion, computed once per prepared run (it
+ * does not depend on the cut-offs either); the first challenger's is the entry's own.
+ */
+const pairMatrices = new WeakMap<PreparedRun, Map<number, SwapMatrix>>();
+function matrixOf(entry: PreparedRun, k: number, data: PreparedHoldout): SwapMatrix {
+  if (k === 0) return entry.matrix;
+  let byChallenger = pairMatrices.get(entry);
+  if (!byChallenger) pairMatrices.set(entry, (byChallenger = new Map()));
+  let matrix = byChallenger.get(k);
+  if (!matrix) byChallenger.set(k, (matrix = swapMatrix(data)));
+  return matrix;
+}
+
+/** Swap sets of challenger k (0 = the first) against the champion at the request, on a prepared run. */
+export function swapAt(entry: PreparedRun, request: SwapRequest, k = 0): SwapResult {
+  const { settings } = entry;
+  const data = pairData(entry.data, k);
   const swap: SwapSets = swapSets(data, request, settings.confidence);
   let position: SwapResult['strategyPosition'];
   if (request.basis === 'approval-rate') {
@@ -56,7 +77,7 @@ export function swapAt(entry: PreparedRun, request: SwapRequest): SwapResult {
       challengerApprovalRate: challenger.position.approvalRate,
     };
   }
-  return { swap, swapMatrix: entry.matrix, strategyPosition: position };
+  return { swap, swapMatrix: matrixOf(entry, k, data), strategyPosition: position };
 }
 
 /** The current run, prepared (409 while no run is done). */
@@ -66,9 +87,23 @@ export async function preparedCurrentRun(ctx: AppContext, comparisonId: number):
   return { run, entry };
 }
 
+/**
+ * The swap sets at the query's settings for challenger `query.challenger` (default 0, the first);
+ * a 400 names an index the current run does not have, before any data is read.
+ */
 export async function swapOnDemand(ctx: AppContext, comparisonId: number, query: SwapQuery): Promise<SwapResult> {
-  const { entry } = await preparedCurrentRun(ctx, comparisonId);
-  return swapAt(entry, swapRequestOf(query));
+  const run = await requireCurrentRun(ctx.dataSource, comparisonId);
+  const k = challengerIndexOf(run, query.challenger);
+  const entry = await ctx.preparedCache.get(ctx.dataSource, run);
+  return swapAt(entry, swapRequestOf(query), k);
+}
+
+/** The challenger asked for (default 0), checked against the run's challengers: a 400 naming it otherwise. */
+export function challengerIndexOf(run: Pick<AnalysisRun, 'mapping'>, asked: number | undefined): number {
+  const k = asked ?? 0;
+  const count = challengersOf(run.mapping).length;
+  if (k >= count) throw new AppError(errorCodes.badInput, noSuchChallengerMessage(k, count), 400);
+  return k;
 }
 
 /**

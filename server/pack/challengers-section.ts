@@ -4,7 +4,6 @@ import {
   approvalPatternsTable,
   challengerVerdictsTable,
   choiceCaution,
-  challengerSegmentsTable,
   choiceSentence,
   flaggedSegmentsNote,
   flaggedSegmentsTable,
@@ -17,6 +16,8 @@ import {
   swapSideBySideTable,
 } from '@shared/challengers-words';
 import { formatPercent } from '@shared/format';
+import { segmentsTable } from '@shared/segments-words';
+import { furtherSwapSegmentsTitle, swapSegmentsTable } from '@shared/pack/evidence-words';
 import { type Report } from '@shared/report';
 import { type WordTable, withFigures } from '@shared/word-table';
 import { type Block, type PackInput, type PackTable, type Section } from './sections';
@@ -55,12 +56,19 @@ function segmentBlocks(report: Report & { challengers: NonNullable<Report['chall
   const table = flaggedSegmentsTable(report);
   const flagged: Block =
     table.rows.length === 0 ? { kind: 'paragraph', text: flaggedSegmentsNote(table) } : packTable('Segments where a challenger is worse', table, [1, 2], flaggedSegmentsNote(table));
-  const further = report.challengers.flatMap((challenger, k) =>
-    k === 0 || !challenger.segments || challenger.segments.length === 0
-      ? []
-      : [packTable(`Segments: ${challenger.name} against the champion`, challengerSegmentsTable(report, k), [9], 'Two-sided DeLong per value, Holm-adjusted across this challenger’s rows.')],
-  );
+  const further = report.challengers.flatMap((challenger, k) => {
+    const table = k === 0 ? null : segmentsTable(report, k);
+    return table ? [{ kind: 'table' as const, title: `Segments: ${challenger.name} against the champion`, ...table }] : [];
+  });
   return [flagged, ...further];
+}
+
+/** Each further challenger's swap sets within each segment value (the first's are in the swap sets section). */
+function furtherSwapSegmentBlocks(report: Report & { challengers: NonNullable<Report['challengers']> }): Block[] {
+  return report.challengers.flatMap((challenger, k) => {
+    const table = k === 0 ? null : swapSegmentsTable({ swap: challenger.swap, settings: report.settings });
+    return table ? [{ kind: 'table' as const, title: furtherSwapSegmentsTitle(challenger.name, challenger.swap), ...table }] : [];
+  });
 }
 
 export function severalChallengers(input: PackInput): Section | null {
@@ -94,6 +102,7 @@ export function severalChallengers(input: PackInput): Section | null {
             packTable('Who each model approves', side.patterns, report.approvalPatterns!.models.map((_, index) => index), side.patternsNote),
           ]
         : []),
+      ...furtherSwapSegmentBlocks(report),
     ],
   };
 }

@@ -1,7 +1,8 @@
 import type ExcelJS from 'exceljs';
 import { segmentsOf } from '@shared/challenger-sections';
-import { championName, hasSeveralChallengers, segmentFlagsText, verdictOutcomeLabels } from '@shared/challengers-words';
-import { type ChallengerResult, type ModelMetrics, type Report, type SegmentRow, statedBadRate } from '@shared/report';
+import { championName, hasSeveralChallengers, verdictOutcomeLabels } from '@shared/challengers-words';
+import { segmentFlagsText, segmentP, segmentPSidedness } from '@shared/segments-words';
+import { type ChallengerResult, type ModelMetrics, type Report, type SegmentRow, statedBadRate, type SwapSegmentRow, swapInRiskier } from '@shared/report';
 import { col, F, facts, type Field, writeFields } from './workbook-tables';
 
 /**
@@ -118,34 +119,94 @@ export function challengersSheet(workbook: ExcelJS.Workbook, report: Report): vo
 }
 
 /**
- * Several challengers: every challenger against the champion within each segment value, with
- * the two-sided DeLong p, the interval, the Holm-adjusted p across that challenger's rows and the
- * harm flags its segment rule was judged on (the report's `segments` for the first, each further
- * challenger's own rows after it). None with one challenger.
+ * The columns of every segments sheet, the first challenger's ("Segments") and every challenger's
+ * ("Segments by challenger") alike: per value the counts, both Ginis, ΔGini with its standard
+ * error and DeLong interval, the p (two-sided since engine 1.2; the header says which, as
+ * segmentPSidedness does for the printed tables), the Holm-adjusted p across that challenger's
+ * rows, the harm flags, "few bads" and the note. Fractions, as the report holds them.
+ */
+export function segmentFields<Row extends SegmentRow>(report: Pick<Report, 'segments' | 'challengers' | 'policy'>, k = 0): Field<Row>[] {
+  return [
+    col.text('Segment column', (row) => row.column, 18),
+    col.text('Value', (row) => row.value, 18),
+    col.count('Accounts', (row) => row.n),
+    col.count('Goods', (row) => row.goods),
+    col.count('Bads', (row) => row.bads),
+    col.metric('Champion Gini', (row) => row.championGini, 15),
+    col.metric('Challenger Gini', (row) => row.challengerGini, 15),
+    col.metric('ΔGini', (row) => row.deltaGini),
+    col.metric('se(ΔGini)', (row) => row.giniSe),
+    ...col.interval<Row>('ΔGini interval', F.metric, (row) => row.giniCi ?? null, 18),
+    col.p(`p, ${segmentPSidedness(report, k)}`, (row) => segmentP(row), 14),
+    col.p('Holm p', (row) => row.pHolm),
+    col.text('Flag', (row) => segmentFlagsText(row.flags ?? []), 30),
+    col.yesNo('Few bads', (row) => row.tooFewBads),
+    col.text('Note', (row) => row.note, 40),
+  ];
+}
+
+/**
+ * Several challengers: every challenger against the champion within each segment value, in the
+ * columns of the first challenger's Segments sheet (segmentFields), the challenger named first:
+ * the report's `segments` for the first, each further challenger's own rows after it. None with
+ * one challenger.
  */
 export function challengerSegmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
   if (!hasSeveralChallengers(report) || report.segments.length === 0) return;
   const sheet = workbook.addWorksheet('Segments by challenger');
   type Row = SegmentRow & { challenger: string };
-  const fields: Field<Row>[] = [
-    col.text('Challenger', (row) => row.challenger, 28),
+  writeFields<Row>(
+    sheet,
+    'Each challenger − the champion per segment value (fractions), DeLong, Holm across that challenger’s rows',
+    [col.text('Challenger', (row) => row.challenger, 28), ...segmentFields<Row>(report)],
+    report.challengers.flatMap((challenger, index) => segmentsOf(report, index).map((row) => ({ ...row, challenger: challenger.name }))),
+  );
+}
+
+/**
+ * The columns of every "swap sets by segment" table in the workbook, the first challenger's (on
+ * the Swap sets sheet, at the report's cut-offs) and every challenger's (at the report's approval
+ * rate) alike: per value its applicants, both models' approval rates and the bad rates of what
+ * they approve, and the swap-in and swap-out rows, applicants (weighted), bads and bad rate of
+ * those with an outcome, and the flag when the swap-in is riskier.
+ */
+export function swapSegmentFields<Row extends SwapSegmentRow>(): Field<Row>[] {
+  const side = (label: 'Swap-in' | 'Swap-out', of: (row: Row) => SwapSegmentRow['swapIn']): Field<Row>[] => [
+    col.count(label, (row) => of(row).count),
+    col.count(`${label} applicants`, (row) => of(row).accounts ?? of(row).count, 18),
+    col.count(`${label} bads`, (row) => of(row).bads, 14),
+    col.rate(`${label} bad rate`, (row) => of(row).badRate, 16),
+  ];
+  return [
     col.text('Segment column', (row) => row.column, 18),
     col.text('Value', (row) => row.value, 18),
-    col.count('Accounts', (row) => row.n),
+    col.count('Accounts', (row) => row.accounts),
+    col.count('Without an outcome', (row) => row.unknown ?? 0, 18),
     col.count('Bads', (row) => row.bads),
-    col.metric('Champion Gini', (row) => row.championGini, 15),
-    col.metric('Challenger Gini', (row) => row.challengerGini, 15),
-    col.metric('ΔGini', (row) => row.deltaGini),
-    ...col.interval('ΔGini interval', F.metric, (row: Row) => row.giniCi ?? null, 18),
-    col.p('p two-sided', (row) => row.pTwoSided ?? null),
-    col.p('Holm p', (row) => row.pHolm),
-    col.text('Flag', (row) => segmentFlagsText(row.flags), 30),
-    col.yesNo('Few bads', (row) => row.tooFewBads),
+    col.share('Champion approval rate', (row) => row.champion.approvalRate, 22),
+    col.share('Challenger approval rate', (row) => row.challenger.approvalRate, 22),
+    col.rate('Champion approved bad rate', (row) => row.champion.approvedBadRate, 24),
+    col.rate('Challenger approved bad rate', (row) => row.challenger.approvedBadRate, 24),
+    ...side('Swap-in', (row) => row.swapIn),
+    ...side('Swap-out', (row) => row.swapOut),
+    col.text('Flag', (row) => (swapInRiskier(row) ? 'swap-in riskier' : ''), 18),
   ];
-  writeFields(
+}
+
+/**
+ * Several challengers: who changes sides within each segment value for every challenger against
+ * the champion, both at their cut-offs for the report's approval rate (each challenger's `swap`),
+ * in the columns of the first challenger's table on the Swap sets sheet. None with one challenger
+ * or without segment columns.
+ */
+export function challengerSwapSegmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
+  if (!hasSeveralChallengers(report) || report.challengers.every((challenger) => challenger.swap.bySegment.length === 0)) return;
+  const sheet = workbook.addWorksheet('Swap by segment, challengers');
+  type Row = SwapSegmentRow & { challengerName: string };
+  writeFields<Row>(
     sheet,
-    'Each challenger − the champion per segment value (fractions), two-sided DeLong, Holm across that challenger’s rows',
-    fields,
-    report.challengers.flatMap((challenger, index) => segmentsOf(report, index).map((row) => ({ ...row, challenger: challenger.name }))),
+    `Swap sets by segment of every challenger against the champion, both at their cut-offs for a ${report.approvalPatterns?.approvalRate ?? report.settings.approvalRate} approval rate (rates as fractions)`,
+    [col.text('Challenger', (row) => row.challengerName, 28), ...swapSegmentFields<Row>()],
+    report.challengers.flatMap((challenger) => challenger.swap.bySegment.map((row) => ({ ...row, challengerName: challenger.name }))),
   );
 }

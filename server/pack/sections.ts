@@ -12,7 +12,8 @@ import {
 } from '@shared/format';
 import { voteChoiceLabels, type AuditEvent, type Governance, type Note } from '@shared/governance';
 import { type Chart, ksChart, rocChart, segmentIntervalsChart, strategyChart, swapGridChart, upliftChart } from '@shared/pack/charts';
-import { dataFacts, metricsTable, noSegmentsSentence, segmentsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
+import { noSegmentsSentence, segmentsTable } from '@shared/segments-words';
+import { dataFacts, metricsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
 import { committeeDecidesNote, criteriaTable, noDecisionSentence, notDecidedSentence, policyInOneSentence, shortenedHashesNote, verdictHeading, verdictRecordsNote } from '@shared/pack/record-words';
 import { type BandTable, type Report } from '@shared/report';
 import { strategyBlocks } from './strategy-blocks';
@@ -161,12 +162,12 @@ function bands(input: PackInput): Section {
 
 function swapSets(input: PackInput): Section {
   const { report } = input;
-  const segmentsTable = swapSegmentsTable(report);
+  const bySegment = swapSegmentsTable(report);
   const blocks: Block[] = [
     { kind: 'paragraph', text: swapBasisSentence(report.swap) },
     { kind: 'table', title: 'Swap sets at the report’s cut-offs', ...swapSetsTable(report) },
     { kind: 'chart', chart: swapGridChart(report) },
-    ...(segmentsTable ? [{ kind: 'table' as const, title: 'Swap sets by segment', ...segmentsTable }] : []),
+    ...(bySegment ? [{ kind: 'table' as const, title: 'Swap sets by segment', ...bySegment }] : []),
     { kind: 'subheading', text: 'Strategy curve' },
     { kind: 'paragraph', text: equalApprovalSentence(report.strategyCurve.atApprovalRate) },
     { kind: 'chart', chart: strategyChart(report) },

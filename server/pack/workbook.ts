@@ -1,10 +1,10 @@
 import ExcelJS from 'exceljs';
-import { type BandTable, type Report, swapInRiskier } from '@shared/report';
+import { type BandTable, type Report } from '@shared/report';
 import { fileWithSheet } from '@shared/input-file';
 import { formatFixed } from '@shared/format';
 import { calibrationSheet, stabilitySheet } from './calibration-sheets';
 import { bandsOf } from '@shared/challenger-sections';
-import { challengerSegmentsSheet, challengersSheet } from './challengers-sheets';
+import { challengerSegmentsSheet, challengersSheet, challengerSwapSegmentsSheet, segmentFields, swapSegmentFields } from './challengers-sheets';
 import { col, type Column, F, facts, type Field, intervalRows, writeFields, writeTable } from './workbook-tables';
 
 /**
@@ -90,11 +90,6 @@ function bandSheet(workbook: ExcelJS.Workbook, name: string, table: BandTable): 
   );
 }
 
-/** The first two columns of a table by segment value: the segment column and its value. */
-function segmentValue<Row extends { column: string; value: string }>(): Field<Row>[] {
-  return [col.text('Segment column', (row) => row.column, 18), col.text('Value', (row) => row.value, 18)];
-}
-
 function swapSheet(workbook: ExcelJS.Workbook, report: Report): void {
   const sheet = workbook.addWorksheet('Swap sets');
   const { swap } = report;
@@ -127,46 +122,15 @@ function swapSheet(workbook: ExcelJS.Workbook, report: Report): void {
     ],
     cells,
   );
-  writeFields<Report['swap']['bySegment'][number]>(
-    sheet,
-    'Swap sets by segment',
-    [
-      ...segmentValue(),
-      col.count('Accounts', (row) => row.accounts),
-      col.count('Bads', (row) => row.bads),
-      col.share('Champion approval rate', (row) => row.champion.approvalRate, 22),
-      col.share('Challenger approval rate', (row) => row.challenger.approvalRate, 22),
-      col.rate('Champion approved bad rate', (row) => row.champion.approvedBadRate, 24),
-      col.rate('Challenger approved bad rate', (row) => row.challenger.approvedBadRate, 24),
-      col.count('Swap-in', (row) => row.swapIn.count),
-      col.rate('Swap-in bad rate', (row) => row.swapIn.badRate, 16),
-      col.count('Swap-out', (row) => row.swapOut.count),
-      col.rate('Swap-out bad rate', (row) => row.swapOut.badRate, 16),
-      col.text('Flag', (row) => (swapInRiskier(row) ? 'swap-in riskier' : ''), 18),
-    ],
-    swap.bySegment,
-  );
+  writeFields<Report['swap']['bySegment'][number]>(sheet, 'Swap sets by segment', swapSegmentFields(), swap.bySegment);
 }
 
 function segmentsSheet(workbook: ExcelJS.Workbook, report: Report): void {
   const sheet = workbook.addWorksheet('Segments');
   writeFields<Report['segments'][number]>(
     sheet,
-    'ΔGini per segment value (fractions), DeLong p and Holm-adjusted p',
-    [
-      ...segmentValue(),
-      col.count('Accounts', (row) => row.n),
-      col.count('Goods', (row) => row.goods),
-      col.count('Bads', (row) => row.bads),
-      col.metric('Champion Gini', (row) => row.championGini, 15),
-      col.metric('Challenger Gini', (row) => row.challengerGini, 15),
-      col.metric('ΔGini', (row) => row.deltaGini),
-      col.metric('se(ΔGini)', (row) => row.giniSe),
-      col.p('p', (row) => row.p),
-      col.p('Holm p', (row) => row.pHolm),
-      col.yesNo('Few bads', (row) => row.tooFewBads),
-      col.text('Note', (row) => row.note, 40),
-    ],
+    'ΔGini per segment value (fractions), DeLong interval and p, Holm-adjusted p across the rows, harm flags',
+    segmentFields(report),
     report.segments,
   );
 }
@@ -262,6 +226,7 @@ const sheets: ((workbook: ExcelJS.Workbook, report: Report, comparison: { id: nu
   (workbook, report) => bandSheet(workbook, 'Challenger bands', report.bands.challenger),
   moreChallengerBands,
   swapSheet,
+  challengerSwapSegmentsSheet,
   segmentsSheet,
   challengerSegmentsSheet,
   strategySheet,

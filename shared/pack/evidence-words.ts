@@ -177,6 +177,24 @@ export function swapSetsTable(report: Pick<Report, 'swap' | 'settings' | 'mappin
   };
 }
 
+/**
+ * The title of challenger k's swap sets by segment after the first (the first's are the report's
+ * own, at its cut-offs): each further challenger's are at the report's approval rate.
+ */
+export function furtherSwapSegmentsTitle(name: string, swap: Pick<Report['swap'], 'requestedApprovalRate' | 'champion'>): string {
+  return `Swap sets by segment: ${name} against the champion at a ${formatPercent(swap.requestedApprovalRate ?? swap.champion.approvalRate, 1)} approval rate`;
+}
+
+/**
+ * Under a further challenger's swap sets by segment on the swap-sets page: which models and cut-offs.
+ * `fromCutoffs`: the page is at given cut-offs, and the rate is the champion's approval rate there.
+ */
+export function furtherSwapSegmentsSentence(name: string, approvalRate: number, fromCutoffs: boolean): string {
+  return `${name} against the champion within each value of each segment column, both at their cut-offs for a ${formatPercent(approvalRate, 1)} approval rate${
+    fromCutoffs ? ' (the champion’s approval rate at the cut-off above; the challenger’s cut-off is on its own score)' : ''
+  }: where it approves more or fewer accounts than the champion, and how risky they are.`;
+}
+
 /** The flag of a segment value whose swap-in is riskier than its swap-out. */
 export const swapInRiskierFlag = 'Swap-in riskier than swap-out';
 
@@ -200,40 +218,6 @@ export function swapSegmentsTable(report: Pick<Report, 'swap' | 'settings'>): Wo
       cellAccounts(row.swapOut),
       rate(row.swapOut),
       swapInRiskier(row) ? swapInRiskierFlag : '',
-    ]),
-  };
-}
-
-/** Said where the report has no segment rows. */
-export const noSegmentsSentence = 'No segment columns were mapped.';
-
-/**
- * How the segment rows' p is sided: two-sided since engine 1.2 (harm and benefit alike can be
- * significant; the row then carries `pTwoSided`), the policy's sidedness in older reports.
- */
-export function segmentPSidedness(report: Pick<Report, 'segments' | 'policy'>): 'one-sided' | 'two-sided' {
-  if (report.segments.some((row) => row.pTwoSided !== null && row.pTwoSided !== undefined)) return 'two-sided';
-  return report.policy.sided === 'one-sided' ? 'one-sided' : 'two-sided';
-}
-
-/** ΔGini per segment value with DeLong's p and Holm's adjusted p; null when no segment column was mapped. */
-export function segmentsTable(report: Pick<Report, 'segments' | 'policy'>): WordedTable | null {
-  if (report.segments.length === 0) return null;
-  const sided = segmentPSidedness(report);
-  return {
-    note: `ΔGini per segment value with its DeLong p (${sided}) and the Holm-adjusted p across all rows. “Few bads” marks values with too few bads to read.`,
-    head: ['Segment', 'Accounts', 'Bads', 'Champion Gini', 'Challenger Gini', 'ΔGini', 'p', 'Holm p', 'Note'],
-    numeric: [1, 2, 3, 4, 5, 6, 7],
-    rows: report.segments.map((row) => [
-      `${row.column} = ${row.value}`,
-      formatCount(row.n),
-      formatCount(row.bads),
-      formatGini(row.championGini),
-      formatGini(row.challengerGini),
-      formatGiniDelta(row.deltaGini),
-      formatPValue(row.p),
-      formatPValue(row.pHolm),
-      [row.tooFewBads ? 'few bads' : null, row.note].filter(Boolean).join('; '),
     ]),
   };
 }

@@ -11,6 +11,7 @@ import { lastOutboxId, waitForRuns } from './helpers/governance';
 import { uploadFile } from './helpers/holdouts';
 import { regionsHoldoutCsv } from './helpers/regions-holdout';
 import { download, pdfPages, readWorkbook, sheetRows } from './helpers/pack';
+import { segmentsTable } from '@shared/segments-words';
 
 /**
  * A further challenger that is worse than the champion in one segment value: its segment rows,
@@ -131,11 +132,34 @@ describe('a further challenger worse in one segment value', () => {
     expect(text).not.toContain('Segments: CF-3 bureau against the champion');
     const workbook = await readWorkbook((await download(committee, `/api/comparisons/${id}/export/workbook.xlsx`)).body);
     const rows = sheetRows(workbook.getWorksheet('Segments by challenger')!);
+    const flag = rows.find((row) => row[0] === 'Challenger')!.indexOf('Flag');
     const flaggedRow = rows.find((row) => row[0] === 'CF-4 open banking' && row[2] === 'B')!;
-    expect(String(flaggedRow.at(-2))).toMatch(/^Significantly worse/);
-    expect(rows.filter((row) => row[0] === 'CF-3 bureau' && /worse/.test(String(row.at(-2))))).toEqual([]);
+    expect(String(flaggedRow[flag])).toMatch(/^Significantly worse/);
+    expect(rows.filter((row) => row[0] === 'CF-3 bureau' && /worse/.test(String(row[flag])))).toEqual([]);
     const bands = sheetRows(workbook.getWorksheet('Challenger 2 bands')!);
     expect(bands.some((row) => row[0] === 1 && row[5] === report.challengers![1].bands!.rows[0].bads)).toBe(true);
+  });
+
+  it('gives the first challenger’s segments every column a further challenger’s have, in every document', async () => {
+    // The words (pack PDF, printable report, CLI): one table for every challenger.
+    const first = segmentsTable(report, 0)!;
+    const further = segmentsTable(report, 1)!;
+    expect(first.head.filter((column) => !further.head.includes(column))).toEqual([]);
+    expect(further.head.filter((column) => !first.head.includes(column))).toEqual([]);
+    for (const column of ['95% interval', 'p, two-sided', 'Holm p', 'Flag or note']) expect(first.head).toContain(column);
+    // The first challenger's rows carry their interval and two-sided p, not dashes.
+    expect(first.rows.every((row) => row[6] !== '—' && row[7] !== '—')).toBe(true);
+    // The PDF pack: the first challenger's Segments section prints the same heading row.
+    const pdf = await download(committee, `/api/comparisons/${id}/export/pack.pdf`);
+    const text = (await pdfPages(pdf.body)).join(' ').replace(/\s+/g, ' ');
+    expect(text).toContain(first.note!.replace(/\s+/g, ' ').slice(0, 60));
+    // The workbook: the Segments sheet (first challenger) has every column of the sheet for every challenger.
+    const workbook = await readWorkbook((await download(committee, `/api/comparisons/${id}/export/workbook.xlsx`)).body);
+    const headerOf = (name: string, first: string) => sheetRows(workbook.getWorksheet(name)!).find((row) => row[0] === first)!.map(String);
+    const primarySheet = headerOf('Segments', 'Segment column');
+    const everySheet = headerOf('Segments by challenger', 'Challenger').slice(1);
+    expect(everySheet.filter((column) => !primarySheet.includes(column))).toEqual([]);
+    expect(primarySheet).toEqual(expect.arrayContaining(['ΔGini interval, low', 'ΔGini interval, high', 'p, two-sided', 'Holm p', 'Flag']));
   });
 
   it('previews keeping the champion in region B for the further challenger (its own cut-off and pure adoption)', async () => {

@@ -170,8 +170,11 @@ describe('the committee workbook', () => {
     expect(bands).toEqual(report.bands.champion.rows.map((row) => [row.band, row.scoreMin, row.scoreMax, row.count, row.goods, row.bads, row.badRate, row.cumBadShare, row.cumGoodShare, row.ks, row.odds]));
     const swap = sheetRows(workbook.getWorksheet('Swap sets')!);
     expect(swap.find((row) => String(row[0]).startsWith('Swap-in'))!.slice(1, 5)).toEqual([report.swap.swapIn.count, report.swap.swapIn.share, report.swap.swapIn.bads, report.swap.swapIn.badRate]);
+    const bySegmentHead = swap.find((row) => row[0] === 'Segment column')!.map(String);
     const bySegment = swap.filter((row) => row.length >= 12 && typeof row[2] === 'number');
-    expect(bySegment.map((row) => [row[0], row[1], row[2], row[8], row[10]])).toEqual(report.swap.bySegment.map((row) => [row.column, row.value, row.accounts, row.swapIn.count, row.swapOut.count]));
+    expect(bySegment.map((row) => ['Segment column', 'Value', 'Accounts', 'Swap-in', 'Swap-out'].map((name) => row[bySegmentHead.indexOf(name)]))).toEqual(
+      report.swap.bySegment.map((row) => [row.column, row.value, row.accounts, row.swapIn.count, row.swapOut.count]),
+    );
     const segments = sheetRows(workbook.getWorksheet('Segments')!).filter((row) => typeof row[2] === 'number');
     expect(segments.map((row) => row.slice(0, 8))).toEqual(report.segments.map((row) => [row.column, row.value, row.n, row.goods, row.bads, row.championGini, row.challengerGini, row.deltaGini]));
     const strategy = sheetRows(workbook.getWorksheet('Strategy curve')!).filter((row) => typeof row[0] === 'number');

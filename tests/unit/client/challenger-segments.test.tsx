@@ -4,7 +4,8 @@ import userEvent from '@testing-library/user-event';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
-import { challengerSegmentsTable, flaggedSegmentsNote, flaggedSegmentsTable, segmentFlagsText } from '@shared/challengers-words';
+import { flaggedSegmentsNote, flaggedSegmentsTable } from '@shared/challengers-words';
+import { segmentFlagsText, segmentsTable } from '@shared/segments-words';
 import { bandsOf, flaggedSegmentsOf, segmentsOf } from '@shared/challenger-sections';
 import { type MixedStrategyResult } from '@shared/mixed-strategy';
 import { type ChallengerResult, type Report, reportSchema, type SegmentRow } from '@shared/report';
@@ -77,7 +78,7 @@ describe('each challenger’s own sections', () => {
       ['Refit 2025 (challenger 3)', 'not checked: run the analysis again', '—', '—', '—', '—'],
     ]);
     expect(flaggedSegmentsNote({ head: [], rows: [] })).toBe('No segment value is significantly or materially worse for any challenger.');
-    expect(challengerSegmentsTable(report, 1).rows).toEqual([
+    expect(segmentsTable(report, 1)!.rows).toEqual([
       ['region = A', '1,000', '150', '40.0', '45.0', '+5.0', '−1.0 to +11.0', '0.400', '0.800', ''],
       ['region = B', '1,000', '150', '40.0', '20.0', '−20.0', '−26.0 to −14.0', '1.0 × 10⁻⁶', '3.0 × 10⁻⁶', 'Significantly worse; materially worse'],
     ]);

@@ -1,11 +1,14 @@
 /** @vitest-environment jsdom */
 import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
+import { QueryClientProvider } from '@tanstack/react-query';
 import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { describe, expect, it, vi } from 'vitest';
 import { type ChallengersSwapResult } from '@shared/comparisons';
-import { type ChallengerResult, type Report, reportSchema } from '@shared/report';
+import { type ChallengerResult, type Report, reportSchema, type SwapSegmentRow } from '@shared/report';
+import { SwapSegmentsSection } from '@/features/swap-sets/components/swap-segments-section';
+import { furtherSwapQuery, furtherSwapRate, reportSwapResult } from '@/features/swap-sets/lib/swap-page';
 import { chosenModelWords, jointTestSentence, modelsSummaryTable, pairwiseTable, reportChallengersSwap, swapSideBySideTable } from '@shared/challengers-words';
 import { SeveralChallengersSections } from '@/features/comparisons/components/challengers-overview';
 import { ChallengersSwapSection } from '@/features/swap-sets/components/challengers-swap-section';
@@ -130,6 +133,58 @@ describe('the side-by-side swap sets', () => {
     expect(api.sent.filter((request) => request.path.endsWith('/challengers/swap'))).toEqual([
       { method: 'POST', path: '/api/comparisons/12/challengers/swap', csrf: CSRF_TOKEN, body: { approvalRate: 0.6 } },
     ]);
+  });
+});
+
+describe('the swap sets by segment of each challenger', () => {
+  // The fixture's holdout has no segment column: one row per value is made up here (the page, not the engine, is under test).
+  const segmentRow = (value: string, swapIn: number): SwapSegmentRow => {
+    const cell = { count: swapIn, bads: 10, badRate: 10 / swapIn, badRateCi: null, amount: null };
+    const approval = { approved: 700, approvalRate: 0.7, approvedBadRate: 0.05 };
+    return { column: 'region', value, accounts: 1000, bads: 80, champion: approval, challenger: approval, swapIn: cell, swapOut: cell };
+  };
+  const withRows = {
+    ...report,
+    swap: { ...report.swap, bySegment: [segmentRow('first', 111)] },
+    challengers: report.challengers.map((challenger, k) => ({ ...challenger, swap: { ...challenger.swap, bySegment: [segmentRow(`stored ${k}`, 120 + k)] } })),
+  };
+  const shown = reportSwapResult(withRows);
+
+  it('asks the server for a further challenger only at a rate the report does not hold', () => {
+    expect(withRows.challengers[1]!.swap.requestedApprovalRate).toBe(0.7);
+    expect(furtherSwapQuery(withRows, 0, 0.6)).toBeNull();
+    expect(furtherSwapQuery(withRows, 1, 0.7)).toBeNull();
+    expect(furtherSwapQuery(withRows, 1, 0.6)).toEqual({ approvalRate: 0.6, challenger: 1 });
+    expect(furtherSwapRate({ approvalRate: 0.6 }, shown)).toBe(0.6);
+    // At given cut-offs: the champion's approval rate there.
+    expect(furtherSwapRate({ cutoffs: { champion: 1, challenger: 2 } }, shown)).toBe(shown.swap.champion.approvalRate);
+  });
+
+  it('offers each challenger, reads the report at its rate and asks the server { challenger: k } at another', async () => {
+    const answer = { ...shown, swap: { ...shown.swap, bySegment: [segmentRow('from the server', 345)] } };
+    api.answer('POST /api/comparisons/12/swap', () => ({ status: 200, body: answer }));
+    const view = renderWithQueries(<SwapSegmentsSection comparisonId={12} runId={40} report={withRows} settled={{ approvalRate: 0.7 }} shown={shown} confidence="95%" />);
+    const section = () => screen.getByTestId('swap-segments');
+    expect(within(section()).getByText('first')).toBeTruthy();
+    const person = user();
+    await person.selectOptions(screen.getByLabelText('Challenger against the champion'), 'CF-4 open banking (challenger 2)');
+    expect(within(section()).getByText('stored 1')).toBeTruthy();
+    expect(document.body.textContent).toContain('CF-4 open banking against the champion within each value of each segment column, both at their cut-offs for a 70.0% approval rate');
+    expect(api.sent).toEqual([]);
+    // The page's choice moves to a 60% approval rate: the chosen challenger stays, asked of the server.
+    view.rerender(
+      <QueryClientProvider client={view.queryClient}>
+        <SwapSegmentsSection comparisonId={12} runId={40} report={withRows} settled={{ approvalRate: 0.6 }} shown={shown} confidence="95%" />
+      </QueryClientProvider>,
+    );
+    await waitFor(() => expect(within(section()).getByText('from the server')).toBeTruthy());
+    expect(api.sent).toEqual([{ method: 'POST', path: '/api/comparisons/12/swap', csrf: CSRF_TOKEN, body: { approvalRate: 0.6, challenger: 1 } }]);
+  });
+
+  it('shows no choice with one challenger', () => {
+    renderWithQueries(<SwapSegmentsSection comparisonId={12} runId={40} report={{ ...withRows, challengers: withRows.challengers.slice(0, 1) }} settled={{ approvalRate: 0.7 }} shown={shown} confidence="95%" />);
+    expect(screen.queryByLabelText('Challenger against the champion')).toBeNull();
+    expect(within(screen.getByTestId('swap-segments')).getByText('first')).toBeTruthy();
   });
 });
 

@@ -13,7 +13,8 @@ import {
   stabilitySignSentence,
   stabilityTable,
 } from '@shared/pack/calibration-words';
-import { segmentsTable, swapSegmentsTable, swapSetsTable } from '@shared/pack/evidence-words';
+import { swapSegmentsTable, swapSetsTable } from '@shared/pack/evidence-words';
+import { segmentsTable } from '@shared/segments-words';
 import { criteriaTable, noDecisionSentence, policyInOneSentence, verdictHeading } from '@shared/pack/record-words';
 import type { Report, SwapCell, SwapSets } from '@shared/report';
 
@@ -81,18 +82,27 @@ describe('the evidence in words (shared/pack/evidence-words.ts)', () => {
     expect(swapSegmentsTable({ swap: { ...swap, bySegment: [] }, settings } as unknown as Report)).toBeNull();
   });
 
-  it('writes each segment’s ΔGini with DeLong’s and Holm’s p, naming the side and the thin values', () => {
+  it('writes each segment’s ΔGini with its interval, DeLong’s and Holm’s p and the flags, naming the side and the thin values', () => {
+    // An engine 1.1 row: no two-sided p, no interval, no flags; the p in the policy's sidedness.
     const segments = [
       { column: 'product', value: 'card', n: 12_345, bads: 40, championGini: 0.41, challengerGini: 0.455, deltaGini: 0.045, p: 0.0123, pHolm: 0.00042, tooFewBads: true, note: null },
     ];
-    const table = segmentsTable({ segments, policy: { sided: 'one-sided' } } as unknown as Report)!;
-    expect(table.note).toMatch(/^ΔGini per segment value with its DeLong p \(one-sided\)/);
-    expect(table.rows[0]).toEqual(['product = card', '12,345', '40', '41.0', '45.5', '+4.5', '0.0123', '4.2 × 10⁻⁴', 'few bads']);
+    const table = segmentsTable({ segments, policy: { sided: 'one-sided' }, settings: { confidence: 0.95 } } as unknown as Report)!;
+    expect(table.note).toMatch(/^ΔGini per segment value with its DeLong interval and p \(one-sided\)/);
+    expect(table.head).toEqual(['Segment', 'Accounts', 'Bads', 'Champion Gini', 'Challenger Gini', 'ΔGini', '95% interval', 'p, one-sided', 'Holm p', 'Flag or note']);
+    expect(table.rows[0]).toEqual(['product = card', '12,345', '40', '41.0', '45.5', '+4.5', '—', '0.0123', '4.2 × 10⁻⁴', 'few bads']);
     expect(segmentsTable({ segments: [], policy: { sided: 'two-sided' } } as unknown as Report)).toBeNull();
     // Since engine 1.2 the segment p is two-sided whatever the policy (the row then carries pTwoSided):
-    // a one-sided policy must not relabel it.
-    const current = segmentsTable({ segments: [{ ...segments[0], pTwoSided: 0.0123 }], policy: { sided: 'one-sided' } } as unknown as Report)!;
-    expect(current.note).toMatch(/^ΔGini per segment value with its DeLong p \(two-sided\)/);
+    // a one-sided policy must not relabel it; the interval and the flags are printed.
+    const current = segmentsTable({
+      segments: [{ ...segments[0], pTwoSided: 0.0123, giniCi: [-0.01, 0.1], tooFewBads: false, flags: ['materially-worse'] }],
+      policy: { sided: 'one-sided' },
+      settings: { confidence: 0.9 },
+    } as unknown as Report)!;
+    expect(current.note).toMatch(/^ΔGini per segment value with its DeLong interval and p \(two-sided\)/);
+    expect(current.head[6]).toBe('90% interval');
+    expect(current.head[7]).toBe('p, two-sided');
+    expect(current.rows[0]).toEqual(['product = card', '12,345', '40', '41.0', '45.5', '+4.5', '−1.0 to +10.0', '0.0123', '4.2 × 10⁻⁴', 'Materially worse']);
   });
 });
 

@@ -26,7 +26,7 @@ import { ScenariosTable } from '@/features/swap-sets/components/scenarios-table'
 import { StrategyCurveChart } from '@/features/swap-sets/components/strategy-curve-chart';
 import { SwapControls } from '@/features/swap-sets/components/swap-controls';
 import { SwapMatrixTable } from '@/features/swap-sets/components/swap-matrix-table';
-import { SwapSegmentsTable } from '@/features/swap-sets/components/swap-segments-table';
+import { SwapSegmentsSection } from '@/features/swap-sets/components/swap-segments-section';
 import { SwapTable } from '@/features/swap-sets/components/swap-table';
 import { SwapTest } from '@/features/swap-sets/components/swap-test';
 import { reportSwapQuery, swapQueryFromParams } from '@/features/swap-sets/lib/swap-controls';
@@ -129,12 +129,7 @@ export function Component() {
               </div>
             </Section>
             {result.swap.bySegment.length > 0 ? (
-              <Section
-                title="Swap sets by segment"
-                description="The same cut-offs within each value of each segment column, champion → challenger: where the challenger approves more or fewer accounts, and how risky they are."
-              >
-                <SwapSegmentsTable rows={result.swap.bySegment} confidence={confidence} />
-              </Section>
+              <SwapSegmentsSection comparisonId={comparison.id} runId={comparison.currentRunId} report={report} settled={settled} shown={result} confidence={confidence} />
             ) : null}
             <div className="grid grid-cols-1 gap-6 2xl:grid-cols-2">
               <StrategyCurveChart curve={report.strategyCurve} swap={result.swap} position={result.strategyPosition} />

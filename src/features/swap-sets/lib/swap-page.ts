@@ -22,6 +22,23 @@ export function reportSwapResult(report: Pick<Report, 'swap' | 'swapMatrix' | 's
   };
 }
 
+/**
+ * A further challenger's swap sets by segment (k ≥ 1) follow the page's choice at an approval rate:
+ * the rate chosen, or at given cut-offs the champion's approval rate there (the challenger's own
+ * cut-off is on its own score). The report's own when it is the rate the report holds them at.
+ */
+export function furtherSwapRate(settled: SwapQuery, shown: Pick<SwapResult, 'swap'>): number {
+  return settled.cutoffs ? shown.swap.champion.approvalRate : (settled.approvalRate ?? shown.swap.champion.approvalRate);
+}
+
+/** The request for challenger k's swap sets at `approvalRate`; null for the first (the page's own) and where the report has them. */
+export function furtherSwapQuery(report: Pick<Report, 'challengers'>, k: number, approvalRate: number): SwapQuery | null {
+  if (k === 0) return null;
+  const stored = report.challengers?.[k]?.swap;
+  if (stored && stored.basis === 'approval-rate' && stored.requestedApprovalRate === approvalRate) return null;
+  return { approvalRate, challenger: k };
+}
+
 /** The settled choice is not the report's own, so the server computes it. */
 export function needsServer(settled: SwapQuery, fromReport: SwapQuery): boolean {
   return !sameSwapQuery(settled, fromReport);

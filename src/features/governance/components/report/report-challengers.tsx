@@ -4,7 +4,6 @@ import {
   approvalPatternsTable,
   challengerVerdictsTable,
   choiceCaution,
-  challengerSegmentsTable,
   choiceSentence,
   flaggedSegmentsNote,
   flaggedSegmentsTable,
@@ -20,6 +19,8 @@ import { type ChallengerResult, type Report } from '@shared/report';
 import { type WordTable, withFigures } from '@shared/word-table';
 import { formatPercent } from '@/lib/format';
 import { ReportBlock, ReportPart, ReportTable } from '@/features/governance/components/report/report-table';
+import { ReportSegments, ReportSwapSegments } from '@/features/governance/components/report/report-evidence';
+import { furtherSwapSegmentsTitle } from '@shared/pack/evidence-words';
 
 /** A word table as a printable report table: the first column names the row, the rest are figures unless listed as words. */
 function PrintedTable({ table, caption, words = [] }: { table: WordTable; caption: string; words?: number[] }) {
@@ -68,6 +69,9 @@ export function ReportChallengers({ report }: { report: Report & { challengers: 
           </ReportBlock>
         </>
       ) : null}
+      {report.challengers.map((challenger, k) =>
+        k === 0 ? null : <ReportSwapSegments key={challenger.column} report={report} swap={challenger.swap} title={furtherSwapSegmentsTitle(challenger.name, challenger.swap)} />,
+      )}
     </ReportPart>
   );
 }
@@ -80,13 +84,7 @@ function FlaggedSegmentsBlock({ report }: { report: Report & { challengers: Chal
       <ReportBlock title="Segments where a challenger is worse" note={flaggedSegmentsNote(table)}>
         {table.rows.length > 0 ? <PrintedTable table={table} caption="Flagged segment values of every challenger" words={[1, 2]} /> : null}
       </ReportBlock>
-      {report.challengers.map((challenger, k) =>
-        k === 0 || !challenger.segments || challenger.segments.length === 0 ? null : (
-          <ReportBlock key={challenger.column} title={`Segments: ${challenger.name} against the champion`} note="Two-sided DeLong per value, Holm-adjusted across this challenger’s rows.">
-            <PrintedTable table={challengerSegmentsTable(report, k)} caption={`Segments of ${challenger.name}`} words={[9]} />
-          </ReportBlock>
-        ),
-      )}
+      {report.challengers.map((challenger, k) => (k === 0 ? null : <ReportSegments key={challenger.column} report={report} k={k} title={`Segments: ${challenger.name} against the champion`} />))}
     </>
   );
 }

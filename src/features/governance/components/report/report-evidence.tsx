@@ -2,7 +2,8 @@ import { equalApprovalSentence } from '@shared/equal-approval-words';
 import { type ComparisonDetail } from '@shared/comparisons';
 import { type Report } from '@shared/report';
 import { formatDateTime } from '@/lib/format';
-import { dataFacts, metricsTable, noSegmentsSentence, segmentsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
+import { noSegmentsSentence, segmentsTable } from '@shared/segments-words';
+import { dataFacts, metricsTable, settingsFacts, swapBasisSentence, swapSegmentsTable, swapSetsTable, testsTable } from '@shared/pack/evidence-words';
 import { FactList, ReportBlock, ReportTable } from '@/features/governance/components/report/report-table';
 
 /**
@@ -59,15 +60,15 @@ export function ReportSwapTable({ report, title }: { report: Report; title: stri
 }
 
 /** The report's swap sets within each segment value (engine 1.1 and later). */
-export function ReportSwapSegments({ report }: { report: Report }) {
-  const words = swapSegmentsTable(report);
+export function ReportSwapSegments({ report, swap = report.swap, title = 'Swap sets by segment' }: { report: Report; swap?: Report['swap']; title?: string }) {
+  const words = swapSegmentsTable({ swap, settings: report.settings });
   if (!words) return null;
   const { note, rows, ...table } = words;
   // Non-breaking hyphens in the flag: it may wrap between words, never inside "swap-in".
   const flag = table.head.length - 1;
   return (
-    <ReportBlock title="Swap sets by segment" note={note}>
-      <ReportTable caption="Swap sets by segment" nowrap={[0]} rows={rows.map((row) => row.map((cell, index) => (index === flag ? cell.replaceAll('-', '\u2011') : cell)))} {...table} />
+    <ReportBlock title={title} note={note}>
+      <ReportTable caption={title} nowrap={[0]} rows={rows.map((row) => row.map((cell, index) => (index === flag ? cell.replaceAll('-', '\u2011') : cell)))} {...table} />
     </ReportBlock>
   );
 }
@@ -76,13 +77,14 @@ export function ReportStrategy({ report }: { report: Report }) {
   return <p className="text-sm text-ink">{equalApprovalSentence(report.strategyCurve.atApprovalRate)}</p>;
 }
 
-export function ReportSegments({ report }: { report: Report }) {
-  const words = segmentsTable(report);
-  if (!words) return <p className="text-sm text-ink-soft">{noSegmentsSentence}</p>;
+/** Challenger k's segments table (k = 0, the first challenger, under its own title "Segments"): the same columns for every challenger. */
+export function ReportSegments({ report, k = 0, title = 'Segments' }: { report: Report; k?: number; title?: string }) {
+  const words = segmentsTable(report, k);
+  if (!words) return k === 0 ? <p className="text-sm text-ink-soft">{noSegmentsSentence}</p> : null;
   const { note, ...table } = words;
   return (
-    <ReportBlock title="Segments" note={note}>
-      <ReportTable caption="Segments" {...table} />
+    <ReportBlock title={title} note={note}>
+      <ReportTable caption={title} nowrap={[0]} {...table} />
     </ReportBlock>
   );
 }
