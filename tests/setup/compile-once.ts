@@ -9,7 +9,9 @@ import { bundleServer, serverEntryPoints } from '../../scripts/server-bundle.mjs
  * into a temporary folder under node_modules/.cache (inside the project, so the bundles find
  * package.json, sample-data/ and node_modules as dist/ does). Tests then start worker threads and
  * spawn the CLI and the server from that build (tests/setup/compiled.ts) instead of compiling
- * TypeScript in every thread and child process; the build is removed after the run. Its worker
+ * TypeScript in every thread and child process; the build is removed after the run. Each worker
+ * thread is bundled with its packages (scripts/server-bundle.mjs `selfContainedThreads`), so the
+ * hundreds of threads the suite starts do not each resolve pg, zod and papaparse file by file. Its worker
  * threads keep the priority of the test process (jobs/worker-support.ts `lowerPriority`): the
  * suite's own threads are what it waits for, and beside other CPU-bound work a niced thread
  * starves.
@@ -34,7 +36,7 @@ export default async function compileOnce(project: TestProject): Promise<() => v
   process.chdir(root);
   try {
     const entryPoints = [...serverEntryPoints().filter((entry) => !entry.startsWith('bench/')), ...testWorkers(join(root, 'tests'))];
-    await bundleServer({ entryPoints, outdir: buildDir, buildDir, sourcemap: false, keepThreadPriority: true });
+    await bundleServer({ entryPoints, outdir: buildDir, buildDir, sourcemap: false, keepThreadPriority: true, selfContainedThreads: true });
   } finally {
     process.chdir(previous);
   }
