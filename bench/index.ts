@@ -37,7 +37,9 @@ import { largePageEnv } from '../scripts/large-pages.mjs';
  *
  * Flags: `--goals` runs only what the goals need, once each (a few minutes); `--no-10m` leaves
  * out the 10M-row analyses; `--markdown` prints the tables as Markdown, ready for the README;
- * `--full` adds the whole analysis of a 5,000,000-row holdout.
+ * `--full` adds the whole analysis of a 5,000,000-row holdout; `--only weights:points,challengers:continuous`
+ * runs only the stages named (kind:scores, as in the lists in main()) and the goals they measure,
+ * `--runs N` sets how many times each of them repeats.
  */
 
 const ROWS = 1_000_000;
@@ -480,11 +482,16 @@ async function main(): Promise<void> {
   const full = args.includes('--full');
   const goalsOnly = args.includes('--goals');
   const markdown = args.includes('--markdown');
-  const tenMillion = !args.includes('--no-10m');
+  const onlyAt = args.indexOf('--only');
+  const only = onlyAt === -1 ? null : args[onlyAt + 1].split(',');
+  const runsAt = args.indexOf('--runs');
+  const runsFlag = runsAt === -1 ? undefined : Number(args[runsAt + 1]);
+  const tenMillion = !args.includes('--no-10m') && only === null;
   const startLoad = loadavg()[0];
   const started = new Date().toISOString().slice(0, 16).replace('T', ' ');
   console.log(`Scorecourt engine benchmark: ${ROWS.toLocaleString('en-US')} rows; ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}); Node ${process.version}; ${started} UTC, load average ${startLoad.toFixed(1)} at the start`);
-  for (const scores of ['points', 'continuous'] as const) await ensureFile(scores, ROWS);
+  const needed = only ? [...new Set(only.map((stage) => stage.split(':')[1] as Scores))] : (['points', 'continuous'] as const);
+  for (const scores of needed) await ensureFile(scores, ROWS);
   if (full) await ensureFile('points', FULL_ROWS);
   if (tenMillion) for (const scores of ['pd6', 'points'] as const) await ensureFile(scores, TEN_MILLION);
   const results: StageResult[] = [];
@@ -494,21 +501,24 @@ async function main(): Promise<void> {
     for (const r of result) console.error(`  ${r.stage}: ${(median(r.runsMs) / 1000).toFixed(3)} s`);
     return result;
   };
-  const goalRuns = goalsOnly ? 1 : undefined;
-  const stages = goalsOnly
+  const goalRuns = goalsOnly ? 1 : runsFlag;
+  const stages = only ?? (goalsOnly
     ? ['bootstrap:continuous', 'weights:points', 'challengers:continuous']
-    : ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'challengers:points', 'challengers:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points', 'weights:points'];
+    : ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'challengers:points', 'challengers:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points', 'weights:points']);
   for (const stage of stages) run(stage, goalRuns);
-  const numpy = numpyBootstrap('continuous', 2000);
+  const numpy = only ? null : numpyBootstrap('continuous', 2000);
   if (numpy) results.push(numpy);
-  const viaNpm = compareThroughNpm('points', goalsOnly ? 1 : 3);
-  results.push(viaNpm);
   let rPoints: StageResult | null = null;
-  for (const scores of ['points', 'continuous'] as const) {
-    if (!goalsOnly) results.push(compareCommand(scores));
-    const r = goalsOnly && scores === 'continuous' ? null : proc(scores, goalsOnly ? 1 : 3);
-    if (r) results.push(r);
-    if (scores === 'points') rPoints = r;
+  let viaNpm: StageResult | null = null;
+  if (!only) {
+    viaNpm = compareThroughNpm('points', goalsOnly ? 1 : 3);
+    results.push(viaNpm);
+    for (const scores of ['points', 'continuous'] as const) {
+      if (!goalsOnly) results.push(compareCommand(scores));
+      const r = goalsOnly && scores === 'continuous' ? null : proc(scores, goalsOnly ? 1 : 3);
+      if (r) results.push(r);
+      if (scores === 'points') rPoints = r;
+    }
   }
   const whole = tenMillion ? [...run('whole:pd6'), ...run('whole:points')] : [];
   if (full) run('full:points');
@@ -518,7 +528,9 @@ async function main(): Promise<void> {
   const seconds = (result: StageResult) => median(result.runsMs) / 1000;
   const ours = results.find((result) => /^2000 bootstrap replicates \(continuous\)/.test(result.stage));
   const goals: Goal[] = [];
-  if (ours && numpy && numpy.runsMs.length > 0) {
+  if (only) {
+    // Only the named stages ran: their goals below, not those of the comparisons left out.
+  } else if (ours && numpy && numpy.runsMs.length > 0) {
     const ratio = seconds(ours) / seconds(numpy);
     goals.push({
       goal: '2,000 paired replicates at 1M continuous scores: at most 0.2 of the numpy histogram bootstrap',
@@ -528,7 +540,9 @@ async function main(): Promise<void> {
       met: ratio <= 0.2,
     });
   } else goals.push({ goal: 'bootstrap against numpy', measured: '/usr/bin/python3 with numpy not found', met: null });
-  if (rPoints && rPoints.runsMs.length > 0) {
+  if (only) {
+    // As above.
+  } else if (viaNpm && rPoints && rPoints.runsMs.length > 0) {
     const ratio = seconds(viaNpm) / seconds(rPoints);
     goals.push({
       goal: 'whole compare command through npm, no bootstrap, 1M points: at most half the R pROC script',
@@ -541,6 +555,7 @@ async function main(): Promise<void> {
     [/10,000,000 rows \(points\)/, 30, Infinity, '10M rows of points, the same: under 30 s'],
   ] as const) {
     const result = whole.find((candidate) => pattern.test(candidate.stage));
+    if (only) continue;
     if (!result) {
       goals.push({ goal: label, measured: 'not run (--no-10m)', met: null });
       continue;
