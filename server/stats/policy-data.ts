@@ -291,9 +291,9 @@ function prepareModel(
 /**
  * prepareModel's sorted values, bad counts and block ends from a model's ScoreBlocks (see
  * PrepareOptions.blocks): the same arrays the row-by-row pass fills, in sequential passes; with
- * weights or unknown rows, the cumulative sums in the same order, with one random read of the
- * row's weight (and known flag) instead of its score, outcome and weight. Returns the number of
- * blocks.
+ * weights or unknown rows, the cumulative sums in the same order, the weights read in sequence
+ * from the blocks when weighBlocks weighed them with these weights (else row by row, and the
+ * known flags row by row). Returns the number of blocks.
  */
 function fromBlocks(
   name: ModelName,
@@ -322,9 +322,11 @@ function fromBlocks(
     for (let k = 0; k < n; k++) badsBefore[k + 1] = badsBefore[k] + sortedBad[k];
   } else {
     const { accountsBefore, knownBefore, weight, known } = sums;
+    // The blocks' weights in sorted order when they are these weights (weighBlocks), else row by row.
+    const sortedWeight = weight !== null && blocks.weights?.row === weight ? blocks.weights.sorted : null;
     for (let k = 0; k < n; k++) {
       const row = order[k];
-      const w = weight === null ? 1 : weight[row];
+      const w = sortedWeight !== null ? sortedWeight[k] : weight === null ? 1 : weight[row];
       badsBefore[k + 1] = badsBefore[k] + (sortedBad[k] ? w : 0);
       if (accountsBefore !== null) accountsBefore[k + 1] = accountsBefore[k] + w;
       if (knownBefore !== null) knownBefore[k + 1] = knownBefore[k] + (known![row] ? w : 0);

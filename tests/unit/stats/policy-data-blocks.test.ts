@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { safety, scoreBlocks } from '@server/stats/order';
+import { safety, scoreBlocks, weighBlocks } from '@server/stats/order';
 import { type PreparedModel, preparePolicyData } from '@server/stats/policy-data';
 import { makeHoldout } from './policy-fixtures';
 
@@ -90,17 +90,22 @@ describe('policy data from the score blocks', () => {
           bad,
           higherIs: { champion: higherIs, challenger: 'safer' },
         });
-        holdout.weight = Float64Array.from(bad, (b) => weigh(random, b));
+        const weight = Float64Array.from(bad, (b) => weigh(random, b));
+        holdout.weight = weight;
         if (unknown) holdout.known = Uint8Array.from(bad, (b) => (b || random() < 0.8 ? 1 : 0));
         const champion = scoreBlocks(safety(holdout.champion, holdout.higherIs.champion), holdout.bad);
         const challenger = scoreBlocks(safety(holdout.challenger, holdout.higherIs.challenger), holdout.bad);
         const orders = { champion: champion.order, challenger: challenger.order };
-        const fast = preparePolicyData(holdout, { bands: 10, orders, blocks: { champion, challenger } });
         const plain = preparePolicyData(holdout, { bands: 10, orders });
-        expect(fast.champion.accountsBefore, label).not.toBeNull();
-        expect(fast.champion.knownBefore === null, label).toBe(!unknown);
-        sameModel(fast.champion, plain.champion);
-        sameModel(fast.challenger, plain.challenger);
+        // The blocks as scoreBlocks gives them (weights read row by row) and weighed as report.ts
+        // weighs them (weights read from the blocks in sorted order).
+        for (const blocks of [{ champion, challenger }, { champion: weighBlocks(champion, weight), challenger: weighBlocks(challenger, weight) }]) {
+          const fast = preparePolicyData(holdout, { bands: 10, orders, blocks });
+          expect(fast.champion.accountsBefore, label).not.toBeNull();
+          expect(fast.champion.knownBefore === null, label).toBe(!unknown);
+          sameModel(fast.champion, plain.champion);
+          sameModel(fast.challenger, plain.challenger);
+        }
       }
     }
   });
