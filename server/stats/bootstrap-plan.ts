@@ -23,8 +23,8 @@ import type { ScoreBlocks } from './order';
  * times (e.g. a fractional weight per row on continuous scores).
  *
  * Cost: O(n + blocks · distinct weights) time; per row one random read of the champion block, one
- * random write, and with weights two random reads of the weight code; memory 12 bytes per row
- * (16 with weights) besides the plan.
+ * random write, and with weights one random read of the weight code; memory five 4-byte arrays
+ * per row besides the plan (seven with weights).
  */
 export function planBootstrap(
   champion: ScoreBlocks,
@@ -112,13 +112,15 @@ function weightCodes(weight: Float64Array, limit: number): { code: Uint32Array; 
 
 /**
  * With weights: each challenger block's rows split stably into 2·codes buckets, (outcome, weight
- * code) ascending; a row's key is (2·block + outcome)·codes + weight code. A block of one row
- * needs no split.
+ * code) ascending; a row's key is (2·block + outcome)·codes + weight code. Each row's weight code
+ * is read once (a random read), its bucket kept for the placing pass. A block of one row needs no
+ * split.
  */
 function weightedKeys(challenger: ScoreBlocks, code: Uint32Array, codes: number): KeyedRows {
   const n = challenger.order.length;
   const rows = new Uint32Array(n);
   const key = new Uint32Array(n);
+  const local = new Uint32Array(n);
   const { order, sortedBad, start } = challenger;
   const bucket = new Uint32Array(2 * codes + 1);
   for (let k = 0; k < challenger.count; k++) {
@@ -132,14 +134,17 @@ function weightedKeys(challenger: ScoreBlocks, code: Uint32Array, codes: number)
       continue;
     }
     bucket.fill(0);
-    for (let at = from; at < to; at++) bucket[sortedBad[at] * codes + code[order[at]] + 1]++;
+    for (let at = from; at < to; at++) {
+      const which = sortedBad[at] * codes + code[order[at]];
+      local[at] = which;
+      bucket[which + 1]++;
+    }
     for (let b = 1; b <= 2 * codes; b++) bucket[b] += bucket[b - 1];
     for (let at = from; at < to; at++) {
-      const row = order[at];
-      const local = sortedBad[at] * codes + code[row];
-      const place = from + bucket[local]++;
-      rows[place] = row;
-      key[place] = base + local;
+      const which = local[at];
+      const place = from + bucket[which]++;
+      rows[place] = order[at];
+      key[place] = base + which;
     }
   }
   return { rows, key };
