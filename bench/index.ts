@@ -37,7 +37,9 @@ import { largePageEnv } from '../scripts/large-pages.mjs';
  *
  * Flags: `--goals` runs only what the goals need, once each (a few minutes); `--no-10m` leaves
  * out the 10M-row analyses; `--markdown` prints the tables as Markdown, ready for the README;
- * `--full` adds the whole analysis of a 5,000,000-row holdout.
+ * `--full` adds the whole analysis of a 5,000,000-row holdout; `--only weights:points,challengers:continuous`
+ * runs only the stages named (kind:scores, as in the lists in main()) and the goals they measure,
+ * `--runs N` sets how many times each of them repeats.
  */
 
 const ROWS = 1_000_000;
@@ -195,11 +197,15 @@ async function runStage(name: string, runs?: number): Promise<void> {
     ];
     const rounds = runs ?? 3;
     const times: number[][] = variants.map(() => []);
+    const cpuTimes: number[][] = variants.map(() => []);
     for (let round = 0; round < rounds; round++) {
       for (let v = 0; v < variants.length; v++) {
+        const cpu = process.cpuUsage();
         const start = performance.now();
         await buildReport({ holdout: variants[v][1], input, mapping: { ...mapping, weight: v === 0 ? null : 'w' }, settings, threads: 0 });
         times[v].push(performance.now() - start);
+        const used = process.cpuUsage(cpu);
+        cpuTimes[v].push((used.user + used.system) / 1000);
       }
     }
     const base = median(times[0]);
@@ -208,8 +214,9 @@ async function runStage(name: string, runs?: number): Promise<void> {
       results.push({
         stage: `whole report, 200 replicates, one thread, ${label} (${scores})`,
         runsMs: times[v],
+        cpuMs: cpuTimes[v],
         peakRssMb: maxRssMb(),
-        note: v === 0 ? 'the base of the ratios below' : `${ratio.toFixed(2)}× unweighted (goal: under 1.20×)`,
+        note: v === 0 ? 'the base of the ratios below' : `${ratio.toFixed(2)}× unweighted (goal: under 1.20×); CPU ${(median(cpuTimes[v]) / median(cpuTimes[0])).toFixed(2)}×`,
       });
     });
   } else if (kind === 'whole') {
@@ -480,11 +487,16 @@ async function main(): Promise<void> {
   const full = args.includes('--full');
   const goalsOnly = args.includes('--goals');
   const markdown = args.includes('--markdown');
-  const tenMillion = !args.includes('--no-10m');
+  const onlyAt = args.indexOf('--only');
+  const only = onlyAt === -1 ? null : args[onlyAt + 1].split(',');
+  const runsAt = args.indexOf('--runs');
+  const runsFlag = runsAt === -1 ? undefined : Number(args[runsAt + 1]);
+  const tenMillion = !args.includes('--no-10m') && only === null;
   const startLoad = loadavg()[0];
   const started = new Date().toISOString().slice(0, 16).replace('T', ' ');
   console.log(`Scorecourt engine benchmark: ${ROWS.toLocaleString('en-US')} rows; ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}); Node ${process.version}; ${started} UTC, load average ${startLoad.toFixed(1)} at the start`);
-  for (const scores of ['points', 'continuous'] as const) await ensureFile(scores, ROWS);
+  const needed = only ? [...new Set(only.map((stage) => stage.split(':')[1] as Scores))] : (['points', 'continuous'] as const);
+  for (const scores of needed) await ensureFile(scores, ROWS);
   if (full) await ensureFile('points', FULL_ROWS);
   if (tenMillion) for (const scores of ['pd6', 'points'] as const) await ensureFile(scores, TEN_MILLION);
   const results: StageResult[] = [];
@@ -494,21 +506,24 @@ async function main(): Promise<void> {
     for (const r of result) console.error(`  ${r.stage}: ${(median(r.runsMs) / 1000).toFixed(3)} s`);
     return result;
   };
-  const goalRuns = goalsOnly ? 1 : undefined;
-  const stages = goalsOnly
+  const goalRuns = goalsOnly ? 1 : runsFlag;
+  const stages = only ?? (goalsOnly
     ? ['bootstrap:continuous', 'weights:points', 'challengers:continuous']
-    : ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'challengers:points', 'challengers:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points', 'weights:points'];
+    : ['read:points', 'read:continuous', 'core:points', 'core:continuous', 'challengers:points', 'challengers:continuous', 'bootstrap:points', 'bootstrap:continuous', 'policy:points', 'weights:points']);
   for (const stage of stages) run(stage, goalRuns);
-  const numpy = numpyBootstrap('continuous', 2000);
+  const numpy = only ? null : numpyBootstrap('continuous', 2000);
   if (numpy) results.push(numpy);
-  const viaNpm = compareThroughNpm('points', goalsOnly ? 1 : 3);
-  results.push(viaNpm);
   let rPoints: StageResult | null = null;
-  for (const scores of ['points', 'continuous'] as const) {
-    if (!goalsOnly) results.push(compareCommand(scores));
-    const r = goalsOnly && scores === 'continuous' ? null : proc(scores, goalsOnly ? 1 : 3);
-    if (r) results.push(r);
-    if (scores === 'points') rPoints = r;
+  let viaNpm: StageResult | null = null;
+  if (!only) {
+    viaNpm = compareThroughNpm('points', goalsOnly ? 1 : 3);
+    results.push(viaNpm);
+    for (const scores of ['points', 'continuous'] as const) {
+      if (!goalsOnly) results.push(compareCommand(scores));
+      const r = goalsOnly && scores === 'continuous' ? null : proc(scores, goalsOnly ? 1 : 3);
+      if (r) results.push(r);
+      if (scores === 'points') rPoints = r;
+    }
   }
   const whole = tenMillion ? [...run('whole:pd6'), ...run('whole:points')] : [];
   if (full) run('full:points');
@@ -518,7 +533,9 @@ async function main(): Promise<void> {
   const seconds = (result: StageResult) => median(result.runsMs) / 1000;
   const ours = results.find((result) => /^2000 bootstrap replicates \(continuous\)/.test(result.stage));
   const goals: Goal[] = [];
-  if (ours && numpy && numpy.runsMs.length > 0) {
+  if (only) {
+    // Only the named stages ran: their goals below, not those of the comparisons left out.
+  } else if (ours && numpy && numpy.runsMs.length > 0) {
     const ratio = seconds(ours) / seconds(numpy);
     goals.push({
       goal: '2,000 paired replicates at 1M continuous scores: at most 0.2 of the numpy histogram bootstrap',
@@ -528,7 +545,9 @@ async function main(): Promise<void> {
       met: ratio <= 0.2,
     });
   } else goals.push({ goal: 'bootstrap against numpy', measured: '/usr/bin/python3 with numpy not found', met: null });
-  if (rPoints && rPoints.runsMs.length > 0) {
+  if (only) {
+    // As above.
+  } else if (viaNpm && rPoints && rPoints.runsMs.length > 0) {
     const ratio = seconds(viaNpm) / seconds(rPoints);
     goals.push({
       goal: 'whole compare command through npm, no bootstrap, 1M points: at most half the R pROC script',
@@ -541,6 +560,7 @@ async function main(): Promise<void> {
     [/10,000,000 rows \(points\)/, 30, Infinity, '10M rows of points, the same: under 30 s'],
   ] as const) {
     const result = whole.find((candidate) => pattern.test(candidate.stage));
+    if (only) continue;
     if (!result) {
       goals.push({ goal: label, measured: 'not run (--no-10m)', met: null });
       continue;
@@ -556,7 +576,8 @@ async function main(): Promise<void> {
   if (base) {
     for (const result of weighted) {
       const ratio = seconds(result) / seconds(base);
-      goals.push({ goal: `the cost of sampling weights at 1M points (${result.stage.replace(/.*one thread, /, '')}): under 1.20× unweighted`, measured: `${ratio.toFixed(2)}×`, met: ratio < 1.2 });
+      const cpu = result.cpuMs && base.cpuMs ? `; CPU ${(median(result.cpuMs) / median(base.cpuMs)).toFixed(2)}×` : '';
+      goals.push({ goal: `the cost of sampling weights at 1M points (${result.stage.replace(/.*one thread, /, '')}): under 1.20× unweighted`, measured: `${ratio.toFixed(2)}×${cpu}`, met: ratio < 1.2 });
     }
   }
 

@@ -1,6 +1,6 @@
 import seedrandom from 'seedrandom';
 import { type StagedScatter, spreadStaged } from './bootstrap-scatter';
-import { scoreCells, type ScoreScratch, scoreScratch } from './bootstrap-score';
+import { scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
 import type { ScoreBlocks } from './order';
 
 /**
@@ -30,7 +30,7 @@ import type { ScoreBlocks } from './order';
  * and n_bad bads, rows chosen uniformly), so rows with different weights never share a cell: the
  * cells are (champion score, challenger score, outcome, weight) combinations, and each replicate's
  * AUC and KS are computed from the cell counts times the cell's weight, over the replicate's own
- * total weights (scoreCellsWeighted). Without weights nothing of this runs.
+ * total weights (scoreCellsWeighted in bootstrap-score.ts). Without weights nothing of this runs.
  *
  * Random numbers: xoshiro128** (Blackman & Vigna, "Scrambled linear pseudorandom number
  * generators", ACM TOMS 47(4), 2021; the reference is from memory), inlined; its state for replicate r is four 32-bit words from seedrandom's ARC4
@@ -372,14 +372,13 @@ const blockEnds = (flags: Uint8Array, cells: number) => {
 };
 
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
-  const weighted = plan.weightChampion !== null;
   return {
     counts: new Uint16Array(plan.cells),
     countsChallenger: new Uint16Array(plan.cells),
-    scoreChampion: scoreScratch(weighted ? 0 : blockEnds(plan.flagsChampion, plan.cells)),
-    scoreChallenger: scoreScratch(weighted ? 0 : blockEnds(plan.flagsChallenger, plan.cells)),
+    scoreChampion: scoreScratch(blockEnds(plan.flagsChampion, plan.cells)),
+    scoreChallenger: scoreScratch(blockEnds(plan.flagsChallenger, plan.cells)),
     countsMore: plan.more.map(() => new Uint16Array(plan.cells)),
-    scoreMore: plan.more.map((layout) => scoreScratch(weighted ? 0 : blockEnds(layout.flags, plan.cells))),
+    scoreMore: plan.more.map((layout) => scoreScratch(blockEnds(layout.flags, plan.cells))),
     staged: plan.scatter ? new Uint16Array(plan.cells) : null,
   };
 }
@@ -420,11 +419,11 @@ export function runReplicates(
     adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
     if (inspect) inspect(r, counts);
     // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
-    if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores);
+    if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores, scratch.scoreChampion);
     else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores, scratch.scoreChampion);
     out.aucChampion[r - offset] = scores[0];
     out.ksChampion[r - offset] = scores[1];
-    if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores);
+    if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores, scratch.scoreChallenger);
     else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores, scratch.scoreChallenger);
     out.aucChallenger[r - offset] = scores[0];
     out.ksChallenger[r - offset] = scores[1];
@@ -433,7 +432,7 @@ export function runReplicates(
       const layout = plan.more[m];
       const target = scratch.countsMore[m];
       scatter(counts, layout.position, target, cells);
-      if (layout.weight) scoreCellsWeighted(target, layout.flags, layout.weight, cells, scores);
+      if (layout.weight) scoreCellsWeighted(target, layout.flags, layout.weight, cells, scores, scratch.scoreMore[m]);
       else scoreCells(target, layout.flags, cells, nGood, nBad, scores, scratch.scoreMore[m]);
       out.aucMore![m][r - offset] = scores[0];
       out.ksMore![m][r - offset] = scores[1];
@@ -596,43 +595,4 @@ function adjustStratum(
     countsChallenger[positionChallenger[cell]]++;
     total++;
   }
-}
-
-/**
- * scoreCells with weights: each cell counts count × its rows' weight; the replicate's total good
- * and bad weights (which vary from replicate to replicate) are summed first.
- */
-function scoreCellsWeighted(counts: Uint16Array, flags: Uint8Array, weight: Float64Array, cells: number, scores: Float64Array): void {
-  let totalGood = 0;
-  let totalBad = 0;
-  for (let c = 0; c < cells; c++) {
-    const w = counts[c] * weight[c];
-    if (flags[c] & 1) totalBad += w;
-    else totalGood += w;
-  }
-  let goods = 0;
-  let bads = 0;
-  let cumGood = 0;
-  let cumBad = 0;
-  let wins = 0;
-  let gap = 0;
-  for (let c = 0; c < cells; c++) {
-    const w = counts[c] * weight[c];
-    const f = flags[c];
-    if (f & 1) bads += w;
-    else goods += w;
-    if (f & 2) {
-      wins += goods * (cumBad + bads * 0.5);
-      cumBad += bads;
-      cumGood += goods;
-      const d = cumBad * totalGood - cumGood * totalBad;
-      const absolute = d < 0 ? -d : d;
-      if (absolute > gap) gap = absolute;
-      goods = 0;
-      bads = 0;
-    }
-  }
-  const pairs = totalGood * totalBad;
-  scores[0] = wins / pairs;
-  scores[1] = gap / pairs;
 }

@@ -199,6 +199,8 @@ export interface ScoreBlocks {
 export interface BlockWeights {
   /** Weight of each row, indexed like the rows in `order`. */
   row: Float64Array;
+  /** The weights in sorted order, row[order[k]]: read in sequence by the later passes in that order. */
+  sorted: Float64Array;
   /** Summed weight of the goods and of the bads of each block. */
   goods: Float64Array;
   bads: Float64Array;
@@ -215,6 +217,7 @@ export function weighBlocks(blocks: ScoreBlocks, weight: Float64Array): ScoreBlo
   const { order, sortedBad, count, start } = blocks;
   const goods = new Float64Array(count);
   const bads = new Float64Array(count);
+  const sorted = new Float64Array(order.length);
   let good = 0;
   let bad = 0;
   for (let k = 0; k < count; k++) {
@@ -222,6 +225,7 @@ export function weighBlocks(blocks: ScoreBlocks, weight: Float64Array): ScoreBlo
     let b = 0;
     for (let at = start[k]; at < start[k + 1]; at++) {
       const w = weight[order[at]];
+      sorted[at] = w;
       if (sortedBad[at]) b += w;
       else g += w;
     }
@@ -230,7 +234,7 @@ export function weighBlocks(blocks: ScoreBlocks, weight: Float64Array): ScoreBlo
     good += g;
     bad += b;
   }
-  return { ...blocks, weights: { row: weight, goods, bads, good, bad } };
+  return { ...blocks, weights: { row: weight, sorted, goods, bads, good, bad } };
 }
 
 /**

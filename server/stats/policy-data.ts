@@ -96,10 +96,11 @@ export interface PrepareOptions {
   orders?: Partial<Record<ModelName, Uint32Array>>;
   /**
    * Both models' blocks of equal scores as scoreBlocks (order.ts) gave them for these very rows
-   * and outcomes, unweighted: their order, sorted values and outcomes are used instead of being
+   * and outcomes (weighed or not): their order, sorted values and outcomes are used instead of being
    * gathered again row by row (the dearest part of this preparation at millions of rows). Checked
    * at every 1,024th position and at the ends; a block of zeros still reads its values row by
-   * row, so that the sign of a zero is the score's own. Used without weights and unknown rows only.
+   * row, so that the sign of a zero is the score's own. With weights or unknown rows the weights
+   * are still read row by row (in sorted order, summed as the row-by-row pass sums them).
    */
   blocks?: Partial<Record<ModelName, ScoreBlocks>>;
   /** The further challengers' orders, in holdout.moreChallengers' order (checked as `orders`). */
@@ -220,7 +221,7 @@ function prepareModel(
   }
   const safe = safety(raw, higherIs);
   const plain = weight === null && known === null;
-  const givenBlocks = given !== undefined && !(given instanceof Uint32Array) && plain ? given : null;
+  const givenBlocks = given !== undefined && !(given instanceof Uint32Array) ? given : null;
   const order = given === undefined ? argsortAscending(safe) : given instanceof Uint32Array ? given : given.order;
   if (order.length !== n) throw new Error(`${name} order must have one entry per account`);
 
@@ -230,7 +231,7 @@ function prepareModel(
   const knownBefore = known === null ? null : new Float64Array(n + 1);
   const ends = new Uint32Array(n);
   let blocks = 0;
-  if (givenBlocks !== null) blocks = fromBlocks(name, givenBlocks, safe, bad, sorted, badsBefore as Uint32Array, ends);
+  if (givenBlocks !== null) blocks = fromBlocks(name, givenBlocks, safe, bad, sorted, ends, plain ? { badsBefore: badsBefore as Uint32Array } : { badsBefore, accountsBefore, knownBefore, weight, known });
   for (let k = 0; givenBlocks === null && k < n; k++) {
     const row = order[k];
     sorted[k] = safe[row];
@@ -289,10 +290,22 @@ function prepareModel(
 
 /**
  * prepareModel's sorted values, bad counts and block ends from a model's ScoreBlocks (see
- * PrepareOptions.blocks): the same arrays the row-by-row pass fills, in sequential passes.
- * Returns the number of blocks.
+ * PrepareOptions.blocks): the same arrays the row-by-row pass fills, in sequential passes; with
+ * weights or unknown rows, the cumulative sums in the same order, the weights read in sequence
+ * from the blocks when weighBlocks weighed them with these weights (else row by row, and the
+ * known flags row by row). Returns the number of blocks.
  */
-function fromBlocks(name: ModelName, blocks: ScoreBlocks, safe: Float64Array, bad: Uint8Array, sorted: Float64Array, badsBefore: Uint32Array, ends: Uint32Array): number {
+function fromBlocks(
+  name: ModelName,
+  blocks: ScoreBlocks,
+  safe: Float64Array,
+  bad: Uint8Array,
+  sorted: Float64Array,
+  ends: Uint32Array,
+  sums:
+    | { badsBefore: Uint32Array }
+    | { badsBefore: Uint32Array | Float64Array; accountsBefore: Float64Array | null; knownBefore: Float64Array | null; weight: Float64Array | null; known: Uint8Array | null },
+): number {
   const { order, start, value, sortedBad, count } = blocks;
   const n = order.length;
   if (start[count] !== n || sortedBad.length !== n) throw new Error(`${name} blocks do not cover every account`);
@@ -302,8 +315,22 @@ function fromBlocks(name: ModelName, blocks: ScoreBlocks, safe: Float64Array, ba
     if (!(to > from) || (b > 0 && !(value[b] > value[b - 1]))) throw new Error(`${name} blocks are not ascending by safety at block ${b}`);
     if (value[b] === 0) for (let k = from; k < to; k++) sorted[k] = safe[order[k]];
     else sorted.fill(value[b], from, to);
-    for (let k = from; k < to; k++) badsBefore[k + 1] = badsBefore[k] + sortedBad[k];
     ends[b] = to;
+  }
+  const { badsBefore } = sums;
+  if (!('weight' in sums)) {
+    for (let k = 0; k < n; k++) badsBefore[k + 1] = badsBefore[k] + sortedBad[k];
+  } else {
+    const { accountsBefore, knownBefore, weight, known } = sums;
+    // The blocks' weights in sorted order when they are these weights (weighBlocks), else row by row.
+    const sortedWeight = weight !== null && blocks.weights?.row === weight ? blocks.weights.sorted : null;
+    for (let k = 0; k < n; k++) {
+      const row = order[k];
+      const w = sortedWeight !== null ? sortedWeight[k] : weight === null ? 1 : weight[row];
+      badsBefore[k + 1] = badsBefore[k] + (sortedBad[k] ? w : 0);
+      if (accountsBefore !== null) accountsBefore[k + 1] = accountsBefore[k] + w;
+      if (knownBefore !== null) knownBefore[k + 1] = knownBefore[k] + (known![row] ? w : 0);
+    }
   }
   const check = (k: number) => {
     const row = order[k];

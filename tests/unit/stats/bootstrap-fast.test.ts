@@ -5,8 +5,8 @@ import { bootstrap } from '@server/stats/bootstrap';
 import { planBootstrapReference, poissonOneThreshold, poissonTables, replicateScratch, runReplicates } from '@server/stats/bootstrap-kernel';
 import { planBootstrap } from '@server/stats/bootstrap-plan';
 import { stageScatter } from '@server/stats/bootstrap-scatter';
-import { scoreCells, scoreCellsReference, scoreScratch } from '@server/stats/bootstrap-score';
-import { scoreBlocks } from '@server/stats/order';
+import { scoreCells, scoreCellsReference, scoreCellsWeighted, scoreCellsWeightedReference, scoreScratch } from '@server/stats/bootstrap-score';
+import { type ScoreBlocks, scoreBlocks, weighBlocks } from '@server/stats/order';
 
 /**
  * The bootstrap's fast paths against their plain counterparts (issue 20): the replicate values
@@ -29,6 +29,47 @@ function fixture(n: number, seed: string, points: boolean) {
   return { bad, a: scoreBlocks(a, bad), b: scoreBlocks(b, bad) };
 }
 
+/**
+ * Sampling weights for the plan and scoring tests: by outcome (goods 4, bads 1), 1–4 at random,
+ * fractional (a few values, so rows of equal weight tie within the combinations; and 200 values),
+ * one fractional weight per row (so many distinct weights that planBootstrap leaves the plan to
+ * the reference), and one weight for every row.
+ */
+function weightings(bad: Uint8Array, seed: string): [string, Float64Array][] {
+  const random = seedrandom(seed);
+  const n = bad.length;
+  const fractions = [0.25, 1.5, 2.75, 3.1, 0.3];
+  return [
+    ['weights by outcome', Float64Array.from(bad, (b) => (b ? 1 : 4))],
+    ['weights 1–4 at random', Float64Array.from({ length: n }, () => 1 + Math.floor(random() * 4))],
+    ['fractional weights', Float64Array.from({ length: n }, () => fractions[Math.floor(random() * fractions.length)])],
+    ['200 fractional weights', Float64Array.from({ length: n }, () => 0.5 + Math.floor(random() * 200) / 64)],
+    ['a fractional weight per row', Float64Array.from({ length: n }, () => 0.5 + random() * 3)],
+    ['one weight', new Float64Array(n).fill(2.5)],
+  ];
+}
+
+/** The fast plan against the plain one, array for array (the blocks weighed as report.ts weighs them). */
+function expectSamePlan(label: string, a: ScoreBlocks, b: ScoreBlocks, bad: Uint8Array, weight: Float64Array | null, more: ScoreBlocks[] = []): void {
+  const weigh = (blocks: ScoreBlocks) => (weight === null ? blocks : weighBlocks(blocks, weight));
+  const fast = planBootstrap(weigh(a), weigh(b), bad, weight, more.map(weigh));
+  const plain = planBootstrapReference(weigh(a), weigh(b), bad, weight, more.map(weigh));
+  expect(fast.cells, label).toBe(plain.cells);
+  expect([fast.nGood, fast.nBad], label).toEqual([plain.nGood, plain.nBad]);
+  for (const key of ['size', 'flagsChampion', 'positionChallenger', 'flagsChallenger', 'goodCells', 'badCells'] as const) {
+    expect([...fast[key]], `${label}: ${key}`).toEqual([...plain[key]]);
+  }
+  for (const key of ['weightChampion', 'weightChallenger'] as const) {
+    expect(fast[key] === null ? null : [...fast[key]], `${label}: ${key}`).toEqual(plain[key] === null ? null : [...plain[key]]);
+  }
+  expect(fast.more.length, label).toBe(plain.more.length);
+  fast.more.forEach((layout, m) => {
+    expect([...layout.position], `${label}: more[${m}].position`).toEqual([...plain.more[m].position]);
+    expect([...layout.flags], `${label}: more[${m}].flags`).toEqual([...plain.more[m].flags]);
+    expect(layout.weight === null ? null : [...layout.weight], `${label}: more[${m}].weight`).toEqual(plain.more[m].weight === null ? null : [...plain.more[m].weight]);
+  });
+}
+
 describe('bootstrap fast paths', () => {
   // SHA-256 of the replicate values (ΔGini, ΔKS, champion KS, challenger KS as float64 bytes),
   // printed by the engine before the fast paths (commit 5543297, engine 1.3.0) on the same
@@ -39,6 +80,24 @@ describe('bootstrap fast paths', () => {
   ])('give the replicate values of the engine before them, bit for bit (points: %s)', async (points, expected) => {
     const { bad, a, b } = fixture(20_000, 'golden', points);
     const result = await bootstrap(a, b, bad, { replicates: 50, seed: 9, confidence: 0.95, threads: 0 });
+    const hash = createHash('sha256');
+    const { deltaGini, deltaKs, championKs, challengerKs } = result.replicates!;
+    for (const values of [deltaGini, deltaKs, championKs, challengerKs]) hash.update(new Uint8Array(values.buffer));
+    expect(hash.digest('hex')).toBe(expected);
+  });
+
+  // The same with sampling weights (issue 12): printed by the engine before the weighted fast
+  // paths (commit 725ab54) on the same fixtures with weightings()' weights 1–4 at random and
+  // fractional weights, seed 9, 50 replicates.
+  it.each([
+    [false, 1, '38a477a87f5b59b87ef769e239082a4195795d3ff102fe899dc0dfb56d136467'],
+    [false, 2, 'b0ad13e851ae60a38f1a78243ed9cbefe64f50a3850a3fc5ed7625364488e988'],
+    [true, 1, '3ca256fc67b83bcab5003bd54fad6c23aea638d76d1328edddb7af2052251910'],
+    [true, 2, 'caafd8b2c36d92ee125a6fa0bc9906e0701dcf274bd8608a2a492f07d153b281'],
+  ])('give the weighted replicate values of the engine before them, bit for bit (points: %s, weighting %i)', async (points, weighting, expected) => {
+    const { bad, a, b } = fixture(20_000, 'golden', points);
+    const [, weight] = weightings(bad, 'golden-weights')[weighting];
+    const result = await bootstrap(weighBlocks(a, weight), weighBlocks(b, weight), bad, { replicates: 50, seed: 9, confidence: 0.95, threads: 0 });
     const hash = createHash('sha256');
     const { deltaGini, deltaKs, championKs, challengerKs } = result.replicates!;
     for (const values of [deltaGini, deltaKs, championKs, challengerKs]) hash.update(new Uint8Array(values.buffer));
@@ -69,6 +128,30 @@ describe('bootstrap fast paths', () => {
     }
     // The points fixture does split combinations (cells of MAX_CELL accounts exist).
     expect(planBootstrap(cases[1][1].a, cases[1][1].b, cases[1][1].bad).size.includes(255)).toBe(true);
+  });
+
+  it('build the plan the plain implementation builds with sampling weights, array for array', () => {
+    const cases: [string, ReturnType<typeof fixture>][] = [
+      ['continuous, champion ties', fixture(8000, 'weighted-continuous', false)],
+      ['points', fixture(20_000, 'weighted-points', true)],
+      ['small', fixture(9, 'weighted-small', false)],
+    ];
+    const random = seedrandom('weighted-plan');
+    const bad = Uint8Array.from({ length: 3000 }, () => (random() < 0.3 ? 1 : 0));
+    const same = scoreBlocks(new Float64Array(3000).fill(2), bad);
+    const spread = scoreBlocks(Float64Array.from({ length: 3000 }, () => Math.round(random() * 40)), bad);
+    cases.push(['one champion block', { bad, a: same, b: spread }], ['one challenger block', { bad, a: spread, b: same }], ['one block each', { bad, a: same, b: same }]);
+    for (const [label, { bad: outcome, a, b }] of cases) {
+      for (const [kind, weight] of weightings(outcome, `${label}-weights`)) {
+        expectSamePlan(`${label}, ${kind}`, a, b, outcome, weight);
+      }
+    }
+    // The points fixture with weights 1–4 at random does split combinations by weight and by size.
+    const { bad: outcome, a, b } = cases[1][1];
+    const [, random4] = weightings(outcome, 'points-weights')[1];
+    const plan = planBootstrap(weighBlocks(a, random4), weighBlocks(b, random4), outcome, random4);
+    expect(plan.cells).toBeGreaterThan(planBootstrap(a, b, outcome).cells);
+    expect(plan.size.includes(255)).toBe(true);
   });
 
   it('stage the challenger-order writes of a large plan without changing a count', () => {
@@ -128,6 +211,46 @@ describe('bootstrap fast paths', () => {
         compared++;
       });
       expect(compared).toBe(40);
+    }
+  });
+
+  it('score the cells with sampling weights as the plain implementation does, to the bit, in both orders', () => {
+    for (const points of [false, true]) {
+      const { bad, a, b } = fixture(5000, `score-weighted-${points}`, points);
+      for (const [kind, weight] of weightings(bad, `score-weights-${points}`)) {
+        const plan = planBootstrap(weighBlocks(a, weight), weighBlocks(b, weight), bad, weight);
+        const scratch = replicateScratch(plan);
+        const out = { aucChampion: new Float64Array(30), aucChallenger: new Float64Array(30), ksChampion: new Float64Array(30), ksChallenger: new Float64Array(30) };
+        const fast = new Float64Array(2);
+        const plain = new Float64Array(2);
+        const work = replicateScratch(plan);
+        const countsChallenger = new Uint16Array(plan.cells);
+        let compared = 0;
+        runReplicates(plan, 4, 0, 30, out, 0, scratch, (_, counts) => {
+          scoreCellsWeightedReference(counts, plan.flagsChampion, plan.weightChampion!, plan.cells, plain);
+          scoreCellsWeighted(counts, plan.flagsChampion, plan.weightChampion!, plan.cells, fast, work.scoreChampion);
+          expect([...fast], `${kind} (points: ${points}), champion`).toEqual([...plain]);
+          for (let c = 0; c < plan.cells; c++) countsChallenger[plan.positionChallenger[c]] = counts[c];
+          scoreCellsWeightedReference(countsChallenger, plan.flagsChallenger, plan.weightChallenger!, plan.cells, plain);
+          scoreCellsWeighted(countsChallenger, plan.flagsChallenger, plan.weightChallenger!, plan.cells, fast, work.scoreChallenger);
+          expect([...fast], `${kind} (points: ${points}), challenger`).toEqual([...plain]);
+          compared++;
+        });
+        expect(compared).toBe(30);
+      }
+    }
+    // Hand-made: one block, a block of one cell, empty cells, fractional weights.
+    const cases: [number[], number[], number[]][] = [
+      [[3, 0, 2, 5], [0, 1, 0, 3], [0.5, 1, 2.25, 3]],
+      [[1, 1, 1, 1], [2, 3, 2, 3], [1.1, 0.7, 3.3, 0.1]],
+      [[0, 4, 0, 2, 7], [2, 3, 0, 1, 2 | 1], [4, 4, 1, 1, 0.3]],
+    ];
+    for (const [counts, flags, weight] of cases) {
+      const plain = new Float64Array(2);
+      const fast = new Float64Array(2);
+      scoreCellsWeightedReference(Uint16Array.from(counts), Uint8Array.from(flags), Float64Array.from(weight), counts.length, plain);
+      scoreCellsWeighted(Uint16Array.from(counts), Uint8Array.from(flags), Float64Array.from(weight), counts.length, fast, scoreScratch(counts.length));
+      expect([...fast]).toEqual([...plain]);
     }
   });
 
