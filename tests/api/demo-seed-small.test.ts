@@ -13,11 +13,9 @@ import { AuditEvent, MailMessage } from '@server/db/entities/index';
 import { demoFiles, demoMappings, momentOf, sampleDataDir } from '@server/demo/scenario';
 import { brokeredCards } from '@server/demo/wording';
 import { getGovernance } from '@server/governance/service';
-import { createLogger } from '@server/log';
 import { listNotes } from '@server/notes/service';
 import { seedDemo, type SeedResult } from '@server/seed';
 import { buildTestApp, type TestApp } from './helpers/app';
-import { renderPackOffThread } from '@server/pack/render-thread';
 
 /**
  * The first start's demo at a small size: the same seed (server/seed.ts with demo/scenario.ts),
@@ -56,7 +54,7 @@ beforeAll(async () => {
     development: thinned(demoFiles.development, dataDir),
     sample: thinned(demoFiles.sample, dataDir),
   };
-  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache, layOutPack: renderPackOffThread };
+  context = t.context;
   seeded = await seedDemo(t.dataSource, { bcryptCost: t.config.bcryptCost, scenario: context, today, replicates, dataDir });
 });
 afterAll(async () => t?.close());

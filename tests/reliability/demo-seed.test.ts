@@ -1,4 +1,3 @@
-import { join } from 'node:path';
 import { formatCount, formatPercent } from '@shared/format';
 import { statedBadRate } from '@shared/stated-bad-rate';
 import type { Report } from '@shared/report';
@@ -12,12 +11,10 @@ import { AuditEvent, MailMessage, User } from '@server/db/entities/index';
 import { momentOf } from '@server/demo/scenario';
 import { brokeredCards } from '@server/demo/wording';
 import { getGovernance } from '@server/governance/service';
-import { createLogger } from '@server/log';
 import { listNotes } from '@server/notes/service';
 import { seedDemo, type SeedResult } from '@server/seed';
 import { buildTestApp, type TestApp } from '../api/helpers/app';
 import { signedInAs } from '../api/helpers/client';
-import { renderPackOffThread } from '@server/pack/render-thread';
 
 /**
  * The first start's demo (server/seed.ts with demo/scenario.ts), as index.ts runs it: the real
@@ -34,7 +31,7 @@ const today = new Date();
 
 beforeAll(async () => {
   t = await buildTestApp({ seed: false });
-  context = { config: t.config, dataSource: t.dataSource, mailer: t.mailer, log: createLogger('silent'), jobs: t.jobs, uploadDir: join(t.directory, 'uploads'), preparedCache: t.preparedCache, layOutPack: renderPackOffThread };
+  context = t.context;
   seeded = await seedDemo(t.dataSource, { bcryptCost: t.config.bcryptCost, scenario: context, today });
 }, 240_000);
 afterAll(async () => t?.close());

@@ -16,6 +16,8 @@ import { Mailer, type MailerOptions } from '@server/mail/mailer';
 import { startSmtpSink, type SmtpSink } from '@server/mail/sink';
 import { seedDemo } from '@server/seed';
 import { createTestDatabase, onPostgres } from '../../setup/test-database';
+import type { AppContext } from '@server/context';
+import { renderPackOffThread } from '@server/pack/render-thread';
 
 /**
  * A real app on a real temporary SQLite file (or, with TEST_DATABASE_URL, a PostgreSQL database of
@@ -33,6 +35,8 @@ export interface TestApp {
   sink: SmtpSink;
   config: Config;
   directory: string;
+  /** What the app's routes are built with (for a service called without a request, e.g. the demo scenario). */
+  context: AppContext;
   /** Waits for the outbox to deliver, then for the sink to have stored message `id` (or the newest). */
   deliveredMail(where?: { to?: string; afterId?: number }): Promise<MailMessage>;
   close(): Promise<void>;
@@ -79,7 +83,8 @@ export async function buildTestApp(
   });
   await jobs.start();
   const uploadDir = join(directory, 'uploads');
-  const app = createApp({ config, dataSource, mailer, sessionSecret: 'test-secret-that-is-long-enough-for-sessions', log, jobs, uploadDir, preparedCache, layOutPack: options.layOutPack });
+  const context: AppContext = { config, dataSource, mailer, log, jobs, uploadDir, preparedCache, layOutPack: options.layOutPack ?? renderPackOffThread };
+  const app = createApp({ ...context, sessionSecret: 'test-secret-that-is-long-enough-for-sessions' });
 
   async function deliveredMail(where: { to?: string; afterId?: number } = {}): Promise<MailMessage> {
     const deadline = Date.now() + 10_000;
@@ -104,6 +109,7 @@ export async function buildTestApp(
     sink,
     config,
     directory,
+    context,
     deliveredMail,
     async close() {
       closeApp(app);
