@@ -39,7 +39,8 @@ import { largePageEnv } from '../scripts/large-pages.mjs';
  * out the 10M-row analyses; `--markdown` prints the tables as Markdown, ready for the README;
  * `--full` adds the whole analysis of a 5,000,000-row holdout; `--only weights:points,challengers:continuous`
  * runs only the stages named (kind:scores, as in the lists in main()) and the goals they measure,
- * `--runs N` sets how many times each of them repeats.
+ * `--runs N` sets how many times each of them repeats. A whole analysis can be named with its rows
+ * and replicates: `--only whole:pd6:10000000:0` is the 10M PD analysis without the bootstrap.
  */
 
 const ROWS = 1_000_000;
@@ -124,7 +125,7 @@ function core(holdout: Holdout) {
 /** Runs one stage in this process and prints its result as JSON (the child side). `runs`
  * overrides the stage's number of repeats (the goals-only run uses 1). */
 async function runStage(name: string, runs?: number): Promise<void> {
-  const [kind, scores, rowsText] = name.split(':') as [string, Scores, string | undefined];
+  const [kind, scores, rowsText, replicatesText] = name.split(':') as [string, Scores, string | undefined, string | undefined];
   const results: StageResult[] = [];
   if (kind === 'read') {
     const times = await timeRuns(runs ?? 3, () => load(scores));
@@ -222,7 +223,7 @@ async function runStage(name: string, runs?: number): Promise<void> {
   } else if (kind === 'whole') {
     // Issue 20: the whole analysis of a 10M-row file, 2,000 replicates, reading included, with
     // the time and the peak resident memory of each stage (a sampling thread watches the RSS).
-    results.push(await wholeAnalysis(scores, rowsText === undefined ? TEN_MILLION : Number(rowsText)));
+    results.push(await wholeAnalysis(scores, rowsText ? Number(rowsText) : TEN_MILLION, replicatesText === undefined ? 2000 : Number(replicatesText)));
   } else if (kind === 'full') {
     const cpu = process.cpuUsage();
     const start = performance.now();
@@ -284,7 +285,7 @@ function memoryWatch(): { take(): number; stop(): Promise<number> } {
   };
 }
 
-async function wholeAnalysis(scores: Scores, rows: number): Promise<StageResult> {
+async function wholeAnalysis(scores: Scores, rows: number, replicates: number): Promise<StageResult> {
   const watch = memoryWatch();
   const cpu = process.cpuUsage();
   const start = performance.now();
@@ -307,7 +308,7 @@ async function wholeAnalysis(scores: Scores, rows: number): Promise<StageResult>
   await buildReport({
     ...loaded,
     mapping: mappingFor(scores),
-    settings: { bootstrap: 2000 },
+    settings: { bootstrap: replicates },
     read: loaded.read,
     onStage: (stage) => {
       close();
@@ -321,7 +322,7 @@ async function wholeAnalysis(scores: Scores, rows: number): Promise<StageResult>
   const used = process.cpuUsage(cpu);
   await watch.stop();
   return {
-    stage: `whole analysis, ${rows.toLocaleString('en-US')} rows (${scoresLabel[scores]}), 2000 replicates, read included`,
+    stage: `whole analysis, ${rows.toLocaleString('en-US')} rows (${scoresLabel[scores]}), ${replicates} replicates, read included`,
     runsMs: [total],
     cpuMs: [(used.user + used.system) / 1000],
     peakRssMb: maxRssMb(),
@@ -497,6 +498,11 @@ async function main(): Promise<void> {
   console.log(`Scorecourt engine benchmark: ${ROWS.toLocaleString('en-US')} rows; ${cpus().length} cores (${cpus()[0]?.model ?? 'unknown'}); Node ${process.version}; ${started} UTC, load average ${startLoad.toFixed(1)} at the start`);
   const needed = only ? [...new Set(only.map((stage) => stage.split(':')[1] as Scores))] : (['points', 'continuous'] as const);
   for (const scores of needed) await ensureFile(scores, ROWS);
+  // A whole analysis named with --only (whole:pd6, whole:points:5000000) needs its own file.
+  for (const stage of only ?? []) {
+    const [kind, scores, rowsText] = stage.split(':') as [string, Scores, string | undefined];
+    if (kind === 'whole') await ensureFile(scores, rowsText ? Number(rowsText) : TEN_MILLION);
+  }
   if (full) await ensureFile('points', FULL_ROWS);
   if (tenMillion) for (const scores of ['pd6', 'points'] as const) await ensureFile(scores, TEN_MILLION);
   const results: StageResult[] = [];
