@@ -93,7 +93,8 @@ const serverFeatureZones = serverConsumers.flatMap((consumer) =>
 const tsProjects = ['./shared/tsconfig.json', './server/tsconfig.json', './src/tsconfig.json', './tests/tsconfig.json', './tsconfig.node.json'];
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'coverage/**', 'data/**', 'tests/artifacts/**'] },
+  // wasm/: AssemblyScript (compiled to WebAssembly by scripts/build-wasm.mjs), not TypeScript.
+  { ignores: ['dist/**', 'node_modules/**', 'coverage/**', 'data/**', 'tests/artifacts/**', 'wasm/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {

@@ -5,6 +5,7 @@
 import { build } from 'esbuild';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
+import { buildWasm } from './build-wasm.mjs';
 
 /** Every *.ts directly under `dir` whose name ends in -worker.ts is its own entry point. */
 export function workerEntries(dir) {
@@ -49,6 +50,8 @@ const selfContained = new Set(['server/cli/compare.ts']);
 const threadExternals = ['better-sqlite3', 'pg-native', 'pdfkit', 'fontkit'];
 
 export async function bundleServer({ entryPoints, outdir, buildDir, sourcemap = true, keepThreadPriority = false, selfContainedThreads = false }) {
+  // The bootstrap's WebAssembly kernel, loaded at run time from wasm/build/ (scripts/build-wasm.mjs).
+  await buildWasm({ quiet: true });
   const common = {
     outbase: '.',
     outdir,

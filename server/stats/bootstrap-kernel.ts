@@ -1,7 +1,11 @@
 import seedrandom from 'seedrandom';
+import { drawPoissonCounts, drawPoissonCountsOnly, INV_TWO_POW_32, poissonTables, TWO_POW_32 } from './bootstrap-poisson';
 import { type StagedScatter, spreadStaged } from './bootstrap-scatter';
-import { scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
+import { addBlockTotals, type ChallengerBlocks } from './bootstrap-blocks';
+import { scoreBlockCounts, scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
 import type { ScoreBlocks } from './order';
+
+export { POISSON_TABLE_MAX, type PoissonTables, poissonOneThreshold, poissonTables } from './bootstrap-poisson';
 
 /**
  * The bootstrap's inner loop, shared by the calling thread and the worker threads
@@ -24,7 +28,10 @@ import type { ScoreBlocks } from './order';
  * uniformly chosen subset, or added independent draws, of an i.i.d. sample is an i.i.d. sample,
  * so the result is Multinomial(N; m_c/N) whatever T was. Poisson(m) for m ≤ 64 is drawn by
  * inversion of a tabulated cdf (with a 32-entry guide table; probabilities resolved to 2^-32,
- * tails beyond 1e-17 cut); larger m as a sum of Poisson(64) and a remainder.
+ * tails beyond 1e-17 cut); larger m as a sum of Poisson(64) and a remainder (bootstrap-poisson.ts).
+ *
+ * This kernel runs one replicate at a time and is the plain reference for the WebAssembly one,
+ * which runs four at a time where it applies (bootstrap-lanes.ts) and gives the same values.
  *
  * Sampling weights: a row is resampled with its weight (the stratified draws are still n_good goods
  * and n_bad bads, rows chosen uniformly), so rows with different weights never share a cell: the
@@ -38,12 +45,8 @@ import type { ScoreBlocks } from './order';
  * how replicates are spread over threads.
  */
 
-export const POISSON_TABLE_MAX = 64;
 /** Largest cell; bigger combinations are split (see BootstrapPlan.size). */
 export const MAX_CELL = 255;
-const GUIDE = 32;
-const TWO_POW_32 = 4294967296;
-const INV_TWO_POW_32 = 1 / TWO_POW_32;
 const TWO_POW_53 = 9007199254740992;
 
 /** Cell data, on SharedArrayBuffers so worker threads read them without copies. */
@@ -79,6 +82,8 @@ export interface BootstrapPlan {
   more: ModelLayout[];
   /** Large plans: the challenger-order writes staged through windows (bootstrap-scatter.ts). */
   scatter?: StagedScatter | null;
+  /** Plans with many cells per challenger block: the challenger by block totals (bootstrap-blocks.ts). */
+  challengerBlocks?: ChallengerBlocks | null;
 }
 
 /** One further model's view of the cells. */
@@ -250,55 +255,6 @@ export function planBootstrapReference(
   };
 }
 
-/** Inversion tables for Poisson(λ), λ = 1 … POISSON_TABLE_MAX: cdf values and guide entries. */
-export interface PoissonTables {
-  cdf: Float64Array;
-  offset: Uint32Array;
-  guide: Uint32Array;
-}
-
-let tables: PoissonTables | null = null;
-
-export function poissonTables(): PoissonTables {
-  if (tables !== null) return tables;
-  const lists: number[][] = [];
-  for (let lambda = 1; lambda <= POISSON_TABLE_MAX; lambda++) {
-    // p_k by the recurrence p_k = p_{k−1}·λ/k; stop when the upper tail is below 1e-17.
-    const cdf: number[] = [];
-    let p = Math.exp(-lambda);
-    let sum = 0;
-    for (let k = 0; ; k++) {
-      if (k > 0) p = (p * lambda) / k;
-      sum += p;
-      cdf.push(sum);
-      if (k > lambda && 1 - sum < 1e-17) break;
-      if (k > lambda && p < 1e-300) break;
-    }
-    cdf[cdf.length - 1] = 1;
-    lists.push(cdf);
-  }
-  const total = lists.reduce((sum, list) => sum + list.length, 0);
-  const cdf = new Float64Array(total);
-  const offset = new Uint32Array(POISSON_TABLE_MAX + 2);
-  const guide = new Uint32Array((POISSON_TABLE_MAX + 1) * GUIDE);
-  let at = 0;
-  for (let lambda = 1; lambda <= POISSON_TABLE_MAX; lambda++) {
-    const list = lists[lambda - 1];
-    offset[lambda] = at;
-    cdf.set(list, at);
-    // guide[j]: the smallest k with cdf[k] > j / GUIDE, where the search for u ∈ [j/G, (j+1)/G) starts.
-    let k = 0;
-    for (let j = 0; j < GUIDE; j++) {
-      while (list[k] <= j / GUIDE) k++;
-      guide[lambda * GUIDE + j] = k;
-    }
-    at += list.length;
-  }
-  offset[POISSON_TABLE_MAX + 1] = at;
-  tables = { cdf, offset, guide };
-  return tables;
-}
-
 /** The four 32-bit state words of replicate r's generator. */
 export function replicateState(seed: number, replicate: number): Int32Array {
   const arc4 = seedrandom(`${seed}:${replicate}`);
@@ -351,11 +307,13 @@ export interface ReplicateOutput {
   ksMore?: Float64Array[];
 }
 
-/** Scratch space for runReplicates: each cell's count, in champion and in challenger order, and
- * the scoring passes' block totals for each model. */
+/** Scratch space for runReplicates: each cell's count, in champion and in challenger order (or
+ * the challenger's block totals), and the scoring passes' block totals for each model. */
 export interface ReplicateScratch {
   counts: Uint16Array;
   countsChallenger: Uint16Array;
+  /** The challenger's (block, outcome) totals of a plan with challengerBlocks, else empty. */
+  blockCounts: Uint32Array;
   scoreChampion: ScoreScratch;
   scoreChallenger: ScoreScratch;
   /** Further challengers: counts in each one's order, and its scoring scratch. */
@@ -372,11 +330,13 @@ const blockEnds = (flags: Uint8Array, cells: number) => {
 };
 
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
+  const byBlocks = plan.challengerBlocks ?? null;
   return {
     counts: new Uint16Array(plan.cells),
-    countsChallenger: new Uint16Array(plan.cells),
+    countsChallenger: new Uint16Array(byBlocks ? 0 : plan.cells),
+    blockCounts: new Uint32Array(byBlocks ? 2 * byBlocks.blocks : 0),
     scoreChampion: scoreScratch(blockEnds(plan.flagsChampion, plan.cells)),
-    scoreChallenger: scoreScratch(blockEnds(plan.flagsChallenger, plan.cells)),
+    scoreChallenger: scoreScratch(byBlocks ? 0 : blockEnds(plan.flagsChallenger, plan.cells)),
     countsMore: plan.more.map(() => new Uint16Array(plan.cells)),
     scoreMore: plan.more.map((layout) => scoreScratch(blockEnds(layout.flags, plan.cells))),
     staged: plan.scatter ? new Uint16Array(plan.cells) : null,
@@ -385,8 +345,10 @@ export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
 
 /**
  * Runs replicates [from, to) and writes their results at [from − offset, to − offset) of `out`.
- * The counts are written in both orders as they are drawn (a scatter), so both passes read
- * memory in sequence. Each step is its own small function: V8 keeps their loop variables in
+ * The counts are written in both orders as they are drawn (a scatter, staged for large plans), so
+ * both scoring passes read memory in sequence; or, for a plan with challengerBlocks, in champion
+ * order only, the challenger's block totals added up after the stratum adjustment
+ * (bootstrap-blocks.ts). Each step is its own small function: V8 keeps their loop variables in
  * registers, which it does not manage in one long function.
  */
 export function runReplicates(
@@ -401,29 +363,37 @@ export function runReplicates(
   inspect?: (replicate: number, counts: Uint16Array) => void,
 ): void {
   const { cells, nGood, nBad, size, flagsChampion, positionChallenger, flagsChallenger, goodCells, badCells } = plan;
-  const { counts, countsChallenger } = scratch;
+  const { counts, countsChallenger, blockCounts } = scratch;
+  const byBlocks = plan.challengerBlocks ?? null;
+  // The challenger's cell counts, which the stratum adjustment changes too; none with block totals.
+  const challenger = byBlocks ? null : countsChallenger;
   const tables = poissonTables();
   const totals = new Float64Array(3);
   const scores = new Float64Array(2);
   for (let r = from; r < to; r++) {
     const state = replicateState(seed, r);
     // 1. Poisson(m_c) counts; totals = [all draws, bad draws, max count / size].
-    //    In challenger order directly, or through the staging array of a large plan.
-    if (plan.scatter && scratch.staged) {
+    //    In challenger order directly, or through the staging array of a large plan, or not at all.
+    if (byBlocks) drawPoissonCountsOnly(cells, size, flagsChampion, counts, state, tables, totals);
+    else if (plan.scatter && scratch.staged) {
       drawPoissonCounts(cells, size, flagsChampion, plan.scatter.slot, counts, scratch.staged, state, tables, totals);
       spreadStaged(plan.scatter.position, scratch.staged, countsChallenger, cells);
     } else drawPoissonCounts(cells, size, flagsChampion, positionChallenger, counts, countsChallenger, state, tables, totals);
     // 2. Bring each stratum's total to its size.
     const bound = totals[2] * (1 + 1e-12);
-    adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
-    adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
+    adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, challenger, state);
+    adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, challenger, state);
     if (inspect) inspect(r, counts);
-    // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
+    // 3. and 4. Both models, each over the cells in its own order (or the challenger's block
+    //    totals), blocks taken whole.
     if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores, scratch.scoreChampion);
     else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores, scratch.scoreChampion);
     out.aucChampion[r - offset] = scores[0];
     out.ksChampion[r - offset] = scores[1];
-    if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores, scratch.scoreChallenger);
+    if (byBlocks) {
+      addBlockTotals(counts, byBlocks.key, blockCounts, cells);
+      scoreBlockCounts(blockCounts, byBlocks.blocks, nGood, nBad, scores);
+    } else if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores, scratch.scoreChallenger);
     else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores, scratch.scoreChallenger);
     out.aucChallenger[r - offset] = scores[0];
     out.ksChallenger[r - offset] = scores[1];
@@ -445,128 +415,13 @@ function scatter(counts: Uint16Array, position: Uint32Array, target: Uint16Array
   for (let c = 0; c < cells; c++) target[position[c]] = counts[c];
 }
 
-/** ⌈p·2^32⌉ with its top bit flipped, as a signed 32-bit integer (see drawPoissonCounts). */
-export function poissonOneThreshold(p: number): number {
-  return (Math.ceil(p * TWO_POW_32) ^ 0x80000000) | 0;
-}
-
-/**
- * Independent Poisson(size) counts for every cell, written in champion order and, through
- * positionChallenger, in challenger order (or, given a staged scatter's slots and staging array,
- * into those). xoshiro128** is inlined on local variables (the
- * generator's state is read from and written back to `state`).
- */
-function drawPoissonCounts(
-  cells: number,
-  size: Uint8Array,
-  flags: Uint8Array,
-  positionChallenger: Uint32Array,
-  counts: Uint16Array,
-  countsChallenger: Uint16Array,
-  state: Int32Array,
-  tables: PoissonTables,
-  totals: Float64Array,
-): void {
-  const { cdf, offset: tableAt, guide } = tables;
-  const L = POISSON_TABLE_MAX;
-  const tableL = tableAt[L];
-  const guideL = L * GUIDE;
-  // Poisson(1), the usual cell size with continuous scores, compares the generator's 32-bit
-  // output x with integer thresholds: u = x·2^-32 ≥ p exactly when x ≥ ⌈p·2^32⌉ (p·2^32 is exact),
-  // so the counts are those of the floating-point comparisons, bit for bit. Compared as signed
-  // integers after flipping the top bit (JavaScript's fast integers are signed 32-bit).
-  const t0 = poissonOneThreshold(cdf[0]);
-  const t1 = poissonOneThreshold(cdf[1]);
-  const t2 = poissonOneThreshold(cdf[2]);
-  const t3 = poissonOneThreshold(cdf[3]);
-  const t4 = poissonOneThreshold(cdf[4]);
-  const t5 = poissonOneThreshold(cdf[5]);
-  let s0 = state[0];
-  let s1 = state[1];
-  let s2 = state[2];
-  let s3 = state[3];
-  let total = 0;
-  let totalBad = 0;
-  let ratioMax = 0;
-  for (let c = 0; c < cells; c++) {
-    const cellSize = size[c];
-    let k = 0;
-    if (cellSize === 1) {
-      const x = Math.imul(s1, 5);
-      const r = Math.imul((x << 7) | (x >>> 25), 9);
-      const t = s1 << 9;
-      s2 ^= s0;
-      s3 ^= s1;
-      s1 ^= s2;
-      s0 ^= s3;
-      s2 ^= t;
-      s3 = (s3 << 11) | (s3 >>> 21);
-      const v = (r ^ 0x80000000) | 0;
-      k = +(v >= t0) + +(v >= t1) + +(v >= t2) + +(v >= t3) + +(v >= t4) + +(v >= t5);
-      if (k === 6) {
-        const u = (r >>> 0) * INV_TWO_POW_32;
-        while (u >= cdf[k]) k++;
-      }
-      if (k > ratioMax) ratioMax = k;
-    } else {
-      let m = cellSize;
-      while (m > L) {
-        const x = Math.imul(s1, 5);
-        const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
-        const t = s1 << 9;
-        s2 ^= s0;
-        s3 ^= s1;
-        s1 ^= s2;
-        s0 ^= s3;
-        s2 ^= t;
-        s3 = (s3 << 11) | (s3 >>> 21);
-        let j = guide[guideL + ((u * GUIDE) | 0)];
-        while (u >= cdf[tableL + j]) j++;
-        k += j;
-        m -= L;
-      }
-      const x = Math.imul(s1, 5);
-      const u = (Math.imul((x << 7) | (x >>> 25), 9) >>> 0) * INV_TWO_POW_32;
-      const t = s1 << 9;
-      s2 ^= s0;
-      s3 ^= s1;
-      s1 ^= s2;
-      s0 ^= s3;
-      s2 ^= t;
-      s3 = (s3 << 11) | (s3 >>> 21);
-      let j: number;
-      if (m === 1) {
-        j = 0;
-        while (u >= cdf[j]) j++;
-      } else {
-        const base = tableAt[m];
-        j = guide[m * GUIDE + ((u * GUIDE) | 0)];
-        while (u >= cdf[base + j]) j++;
-      }
-      k += j;
-      const ratio = k / cellSize;
-      if (ratio > ratioMax) ratioMax = ratio;
-    }
-    counts[c] = k;
-    countsChallenger[positionChallenger[c]] = k;
-    total += k;
-    totalBad += k * (flags[c] & 1);
-  }
-  state[0] = s0;
-  state[1] = s1;
-  state[2] = s2;
-  state[3] = s3;
-  totals[0] = total;
-  totals[1] = totalBad;
-  totals[2] = ratioMax;
-}
-
 /**
  * Brings one stratum's total from `total` to `target`: removes uniformly chosen draws (a cell
  * proposed by a uniform account, accepted with probability (count/size)/bound), or adds draws
- * of uniform accounts. `bound` ≥ every count/size.
+ * of uniform accounts. `bound` ≥ every count/size. Each change goes to the cell's count and, in
+ * the cell-by-cell layout, to its count in challenger order (countsChallenger null otherwise).
  */
-function adjustStratum(
+export function adjustStratum(
   urn: Uint32Array,
   target: number,
   total: number,
@@ -574,25 +429,30 @@ function adjustStratum(
   size: Uint8Array,
   positionChallenger: Uint32Array,
   counts: Uint16Array,
-  countsChallenger: Uint16Array,
+  countsChallenger: Uint16Array | null,
   state: Int32Array,
+  /** Counts of several replicates side by side (bootstrap-lanes.ts): cell c's at c·stride + lane. */
+  stride = 1,
+  lane = 0,
 ): void {
   const limit = TWO_POW_53 - (TWO_POW_53 % target);
   while (total > target) {
     const cell = urn[uniformIndex(state, target, limit)];
-    if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[cell] / size[cell]) {
-      counts[cell]--;
-      countsChallenger[positionChallenger[cell]]--;
+    const at = cell * stride + lane;
+    if (nextUint32(state) * INV_TWO_POW_32 * bound < counts[at] / size[cell]) {
+      counts[at]--;
+      if (countsChallenger !== null) countsChallenger[positionChallenger[cell]]--;
       total--;
     }
   }
   while (total < target) {
     const cell = urn[uniformIndex(state, target, limit)];
+    const at = cell * stride + lane;
     // Counts are 16-bit: a cell would need over 65,000 of the added draws (far beyond anything
     // with a probability above 1e-300); refuse rather than wrap around.
-    if (counts[cell] === 0xffff) throw new RangeError('bootstrap: a cell count passed 65535');
-    counts[cell]++;
-    countsChallenger[positionChallenger[cell]]++;
+    if (counts[at] === 0xffff) throw new RangeError('bootstrap: a cell count passed 65535');
+    counts[at]++;
+    if (countsChallenger !== null) countsChallenger[positionChallenger[cell]]++;
     total++;
   }
 }

@@ -1,13 +1,14 @@
 import { parentPort, workerData } from 'node:worker_threads';
-import { type BootstrapPlan, replicateScratch, type ReplicateOutput, runReplicates } from './bootstrap-kernel';
+import type { BootstrapPlan, ReplicateOutput } from './bootstrap-kernel';
+import { type CompiledLanes, rangeScratch, runReplicateRange } from './bootstrap-lanes';
 
 /**
  * Worker thread of the bootstrap (started by bootstrap.ts through workerEntry()): receives the
  * cell plan once (shared memory, no copy), then blocks of replicates { from, to }; answers each
  * with its results.
  */
-const { plan, seed } = workerData as { plan: BootstrapPlan; seed: number };
-const scratch = replicateScratch(plan);
+const { plan, seed, lanes } = workerData as { plan: BootstrapPlan; seed: number; lanes: CompiledLanes | null };
+const scratch = rangeScratch(plan, lanes);
 
 parentPort!.on('message', ({ from, to }: { from: number; to: number }) => {
   const length = to - from;
@@ -19,7 +20,7 @@ parentPort!.on('message', ({ from, to }: { from: number; to: number }) => {
     aucMore: plan.more.map(() => new Float64Array(length)),
     ksMore: plan.more.map(() => new Float64Array(length)),
   };
-  runReplicates(plan, seed, from, to, result, from, scratch);
+  runReplicateRange(plan, seed, from, to, result, from, scratch);
   const buffers = [result.aucChampion, result.aucChallenger, result.ksChampion, result.ksChallenger, ...result.aucMore!, ...result.ksMore!].map(
     (array) => array.buffer as ArrayBuffer,
   );

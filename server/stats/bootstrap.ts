@@ -2,7 +2,9 @@ import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
 import type { Bootstrap, Histogram, Interval } from '@shared/report';
 import { startWorker } from '@server/runtime';
-import { type BootstrapPlan, replicateScratch, type ReplicateOutput, runReplicates } from './bootstrap-kernel';
+import type { BootstrapPlan, ReplicateOutput } from './bootstrap-kernel';
+import { lanesModule, rangeScratch, runReplicateRange } from './bootstrap-lanes';
+import { blockTotalsPay, withChallengerBlocks } from './bootstrap-blocks';
 import { planBootstrap } from './bootstrap-plan';
 import { SCATTER_CELLS, stageScatter } from './bootstrap-scatter';
 import type { ScoreBlocks } from './order';
@@ -22,8 +24,10 @@ import { StatisticError } from './statistic-error';
  *
  * Speed: the accounts are grouped once into (champion score, challenger score, outcome) cells
  * and each replicate draws the multinomial cell counts exactly, never re-sorting
- * (bootstrap-kernel.ts); AUC and KS of each model are then one pass over the cells in that
- * model's order, blocks of equal scores taken whole. Cost per replicate O(cells + √n); the
+ * (bootstrap-kernel.ts); AUC and KS of each model then come from its totals at its blocks of equal
+ * scores, taken in the same pass as the draw for the champion, and for the challenger either from
+ * its cell counts in its order or, where its blocks hold many cells, from block totals added up
+ * during the draw (bootstrap-blocks.ts). Cost per replicate O(cells + √n); the
  * replicates run on worker threads (bootstrap-worker.ts), in fixed blocks, each replicate with
  * its own seeded stream: the same seed gives identical output for any number of threads.
  *
@@ -44,6 +48,8 @@ export interface BootstrapOptions {
   signal?: AbortSignal;
   /** Cells from which the challenger-order writes are staged (default SCATTER_CELLS; tests set it low). */
   stageFrom?: number;
+  /** false: every replicate on the TypeScript kernel, none on the WebAssembly lanes (tests compare them). */
+  lanes?: boolean;
 }
 
 export interface BootstrapResult {
@@ -70,8 +76,8 @@ export interface MoreChallengerBootstrap {
   replicates: { deltaGini: Float64Array; deltaKs: Float64Array; challengerKs: Float64Array } | null;
 }
 
-/** Replicates per task handed to a thread. Fixed, so the split never depends on thread count. */
-export const BLOCK = 25;
+/** Replicates per task handed to a thread (a multiple of four, bootstrap-four.ts). Fixed, so the split never depends on thread count. */
+export const BLOCK = 24;
 const HISTOGRAM_BINS = 40;
 /**
  * Blocks handed to each thread ahead of its results: a thread keeps working while the calling
@@ -139,7 +145,7 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
     aborted.catch(() => {});
     const run = Promise.all(
       Array.from({ length: Math.min(threads, blocks) }, async () => {
-        const worker = startWorker('server/stats/bootstrap-worker', { workerData: { plan, seed: options.seed } });
+        const worker = startWorker('server/stats/bootstrap-worker', { workerData: { plan, seed: options.seed, lanes: options.lanes === false ? null : lanesModule() } });
         workers.push(worker);
         let pending = 0;
         await new Promise<void>((resolve, reject) => {
@@ -182,12 +188,12 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
 }
 
 async function runHere(plan: BootstrapPlan, options: BootstrapOptions, out: ReplicateOutput): Promise<void> {
-  const scratch = replicateScratch(plan);
+  const scratch = rangeScratch(plan, options.lanes === false ? null : lanesModule());
   const total = options.replicates;
   for (let from = 0; from < total; from += BLOCK) {
     const to = Math.min(total, from + BLOCK);
     options.signal?.throwIfAborted();
-    runReplicates(plan, options.seed, from, to, out, 0, scratch);
+    runReplicateRange(plan, options.seed, from, to, out, 0, scratch);
     options.onProgress?.(to, total);
     // Let the event loop breathe (progress messages, cancellation) between blocks.
     await new Promise<void>((resolve) => setImmediate(resolve));
@@ -212,8 +218,11 @@ export async function bootstrap(
   if (champion.nGood === 0 || champion.nBad === 0) throw new StatisticError('the bootstrap requires at least one good and one bad');
 
   const planned = planBootstrap(champion, challenger, bad, champion.weights?.row ?? null, moreModels);
-  // Large plans stage their challenger-order writes (bootstrap-scatter.ts); the same replicates.
-  const plan = planned.cells >= (options.stageFrom ?? SCATTER_CELLS) ? stageScatter(planned) : planned;
+  // Plans with many cells per challenger block score the challenger from block totals
+  // (bootstrap-blocks.ts); other large plans stage their challenger-order writes
+  // (bootstrap-scatter.ts). The same replicates either way.
+  const byBlocks = blockTotalsPay(planned);
+  const plan = byBlocks ? withChallengerBlocks(planned) : planned.cells >= (options.stageFrom ?? SCATTER_CELLS) ? stageScatter(planned) : planned;
   const out = allocate(replicates, moreModels.length);
   const cores = Math.max(1, availableParallelism());
   const threads = options.threads ?? (plan.cells * replicates >= THREAD_THRESHOLD ? cores : 0);
