@@ -224,9 +224,10 @@ export class FourLanes {
   }
 }
 
-/** Scratch for runReplicateRange: the TypeScript kernel's, and the lanes where they apply. */
+/** Scratch for runReplicateRange: the lanes where they apply, and the TypeScript kernel's (made
+ * when first needed: with the lanes, only for replicates left over from a group of four). */
 export interface RangeScratch {
-  single: ReplicateScratch;
+  single: ReplicateScratch | null;
   lanes: FourLanes | null;
 }
 
@@ -235,7 +236,8 @@ export interface RangeScratch {
  * replicate in TypeScript (the tests compare the two).
  */
 export function rangeScratch(plan: BootstrapPlan, module: CompiledLanes | null = lanesModule()): RangeScratch {
-  return { single: replicateScratch(plan), lanes: module !== null && runsInLanes(plan) ? new FourLanes(module, plan) : null };
+  const lanes = module !== null && runsInLanes(plan) ? new FourLanes(module, plan) : null;
+  return { single: lanes === null ? replicateScratch(plan) : null, lanes };
 }
 
 /**
@@ -255,5 +257,8 @@ export function runReplicateRange(
 ): void {
   let r = from;
   if (scratch.lanes !== null) for (; r + LANES <= to; r += LANES) scratch.lanes.run(seed, r, out, offset, inspect);
-  if (r < to) runReplicates(plan, seed, r, to, out, offset, scratch.single, inspect);
+  if (r < to) {
+    scratch.single ??= replicateScratch(plan);
+    runReplicates(plan, seed, r, to, out, offset, scratch.single, inspect);
+  }
 }
