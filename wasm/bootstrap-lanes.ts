@@ -259,3 +259,85 @@ export function blockSumsFour(blocks: i32, totals: usize, goods: i32, bads: i32,
     store<f64>(out + l * 24 + 16, <f64>low);
   }
 }
+
+// With sampling weights: pass 1 of scoreCellsWeighted (bootstrap-score.ts) in each lane, the same
+// double-precision operations in the same order (so the same bits): each cell's weight times its
+// count, to the replicate's total good and bad weight and to its block's good and bad weight,
+// written in slot j (32 bytes: lanes 0 … 3 as f64) until the block's last cell moves j on, the
+// block's sums starting again from 0 after it. Totals at `totals`: good (4 × f64), bad (4 × f64).
+// Returns the number of blocks.
+export function weightedTotalsFour(cells: i32, flags: usize, counts: usize, weight: usize, good: usize, bad: usize, totals: usize): i32 {
+  let totalGood01 = f64x2.splat(0.0);
+  let totalGood23 = f64x2.splat(0.0);
+  let totalBad01 = f64x2.splat(0.0);
+  let totalBad23 = f64x2.splat(0.0);
+  let goods01 = f64x2.splat(0.0);
+  let goods23 = f64x2.splat(0.0);
+  let bads01 = f64x2.splat(0.0);
+  let bads23 = f64x2.splat(0.0);
+  let at: usize = 0;
+  for (let c: usize = 0; c < <usize>cells; c++) {
+    const f = <u32>load<u8>(flags + c);
+    const w = f64x2.splat(load<f64>(weight + (c << 3)));
+    const k = i32x4.extend_low_i16x8_u(v128.load64_zero(counts + (c << 3)));
+    const k01 = f64x2.convert_low_i32x4_u(k);
+    const k23 = f64x2.convert_low_i32x4_u(i32x4.shuffle(k, k, 2, 3, 0, 1));
+    const w01 = f64x2.mul(k01, w);
+    const w23 = f64x2.mul(k23, w);
+    const isBad = f64x2.splat(<f64>(f & 1));
+    const bad01 = f64x2.mul(w01, isBad);
+    const bad23 = f64x2.mul(w23, isBad);
+    const good01 = f64x2.sub(w01, bad01);
+    const good23 = f64x2.sub(w23, bad23);
+    totalBad01 = f64x2.add(totalBad01, bad01);
+    totalBad23 = f64x2.add(totalBad23, bad23);
+    totalGood01 = f64x2.add(totalGood01, good01);
+    totalGood23 = f64x2.add(totalGood23, good23);
+    bads01 = f64x2.add(bads01, bad01);
+    bads23 = f64x2.add(bads23, bad23);
+    goods01 = f64x2.add(goods01, good01);
+    goods23 = f64x2.add(goods23, good23);
+    v128.store(good + at, goods01);
+    v128.store(good + at, goods23, 16);
+    v128.store(bad + at, bads01);
+    v128.store(bad + at, bads23, 16);
+    const end = f >> 1;
+    at += <usize>(end << 5);
+    const keep = f64x2.splat(<f64>(1 - end));
+    goods01 = f64x2.mul(goods01, keep);
+    goods23 = f64x2.mul(goods23, keep);
+    bads01 = f64x2.mul(bads01, keep);
+    bads23 = f64x2.mul(bads23, keep);
+  }
+  v128.store(totals, totalGood01);
+  v128.store(totals, totalGood23, 16);
+  v128.store(totals, totalBad01, 32);
+  v128.store(totals, totalBad23, 48);
+  return <i32>(at >> 5);
+}
+
+// Pass 2 of scoreCellsWeighted in each lane, from weightedTotalsFour's block weights and totals
+// (at `totals`): writes per lane the wins and the largest gap (8 f64 at `out`: lane l's at 16·l).
+export function weightedSumsFour(blocks: i32, good: usize, bad: usize, totals: usize, out: usize): void {
+  for (let l: usize = 0; l < 4; l++) {
+    const totalGood = load<f64>(totals + (l << 3));
+    const totalBad = load<f64>(totals + 32 + (l << 3));
+    let cumGood = 0.0;
+    let cumBad = 0.0;
+    let wins = 0.0;
+    let gap = 0.0;
+    for (let j: usize = 0; j < <usize>blocks; j++) {
+      const at = (j << 5) + (l << 3);
+      const g = load<f64>(good + at);
+      const b = load<f64>(bad + at);
+      wins += g * (cumBad + b * 0.5);
+      cumBad += b;
+      cumGood += g;
+      const d = cumBad * totalGood - cumGood * totalBad;
+      const absolute = d < 0.0 ? -d : d;
+      if (absolute > gap) gap = absolute;
+    }
+    store<f64>(out + (l << 4), wins);
+    store<f64>(out + (l << 4) + 8, gap);
+  }
+}

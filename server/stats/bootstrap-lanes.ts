@@ -24,11 +24,13 @@ import { poissonTables } from './bootstrap-poisson';
  * totals are integers and the sums the same exact sums (bootstrap-score.ts). So the replicate
  * values are the same to the bit, and the tests compare both kernels replicate by replicate.
  *
- * Used for plans without sampling weights and without further challengers; the others, any
- * replicates left over from a block (fewer than four), and every replicate where the compiled
- * kernel is missing run one at a time in TypeScript (bootstrap-kernel.ts). Memory per thread: 10
- * bytes per cell for the counts and plan (18 more with the cell-by-cell challenger layout), and
- * 32 bytes per block.
+ * With sampling weights each model's block weights are the double-precision sums of
+ * scoreCellsWeighted, made with the same operations in the same order in each lane, so the same
+ * bits. Used for plans of two models; with further challengers, for replicates left over from a
+ * block (fewer than four), and wherever the compiled kernel is missing, replicates run one at a
+ * time in TypeScript (bootstrap-kernel.ts). Memory per thread: 14 bytes per cell for the counts
+ * and plan (22 more with the cell-by-cell challenger layout, 16 more with weights), and 32 bytes
+ * per block (64 with weights).
  */
 
 export const LANES = 4;
@@ -45,6 +47,8 @@ interface LaneKernel {
   blockTotalsFour(cells: number, key: number, counts: number, totals: number): void;
   sumsFour(blocks: number, good: number, bad: number, nGood: number, nBad: number, out: number): void;
   blockSumsFour(blocks: number, totals: number, nGood: number, nBad: number, out: number): void;
+  weightedTotalsFour(cells: number, flags: number, counts: number, weight: number, good: number, bad: number, totals: number): number;
+  weightedSumsFour(blocks: number, good: number, bad: number, totals: number, out: number): void;
 }
 
 /** A compiled kernel (a WebAssembly.Module; worker threads receive it through workerData). */
@@ -81,9 +85,9 @@ export function lanesModule(): CompiledLanes | null {
   return compiled;
 }
 
-/** Whether the plan can run four replicates at a time: no sampling weights, no further challengers. */
+/** Whether the plan can run four replicates at a time: two models (no further challengers). */
 export function runsInLanes(plan: BootstrapPlan): boolean {
-  return plan.weightChampion === null && plan.more.length === 0;
+  return plan.more.length === 0;
 }
 
 function blockEnds(flags: Uint8Array, cells: number): number {
@@ -95,7 +99,7 @@ function blockEnds(flags: Uint8Array, cells: number): number {
 /** One thread's instance of the kernel, with the plan copied into its memory. */
 export class FourLanes {
   private readonly kernel: LaneKernel;
-  private readonly at: Record<'work' | 'state' | 'totals' | 'cdf' | 'offset' | 'guide' | 'size' | 'flagsA' | 'flagsB' | 'index' | 'counts' | 'target' | 'good' | 'bad', number>;
+  private readonly at: Record<'work' | 'state' | 'totals' | 'cdf' | 'offset' | 'guide' | 'size' | 'flagsA' | 'flagsB' | 'index' | 'weightA' | 'weightB' | 'counts' | 'target' | 'good' | 'bad', number>;
   private readonly thresholds: number[];
   private readonly counts: Uint16Array;
   private readonly stateWords: Int32Array;
@@ -104,6 +108,9 @@ export class FourLanes {
   private readonly blockTotals: Uint32Array | null;
   /** The kernel's sums: per lane 2·wins, the largest and the smallest KS gap (sumsFour). */
   private readonly sums: Float64Array;
+  /** With weights: per lane the total good and bad weights (weightedTotalsFour), then wins and gap. */
+  private readonly weightedTotals: Float64Array;
+  private readonly weightedSums: Float64Array;
 
   constructor(
     module: CompiledLanes,
@@ -113,6 +120,7 @@ export class FourLanes {
     const byBlocks = plan.challengerBlocks ?? null;
     const tables = poissonTables();
     const blocks = Math.max(blockEnds(plan.flagsChampion, cells), byBlocks ? 0 : blockEnds(plan.flagsChallenger, cells)) + 1;
+    const weighted = plan.weightChampion !== null && plan.weightChallenger !== null;
     let end = 0;
     const take = (bytes: number) => {
       const from = end;
@@ -120,7 +128,8 @@ export class FourLanes {
       return from;
     };
     this.at = {
-      work: take(256),
+      // drawFour's scratch (96 bytes); the sums (96 from 128); weighted totals (64 from 256) and sums (64 from 320).
+      work: take(384),
       state: take(64),
       totals: take(80),
       cdf: take(8 * tables.cdf.length),
@@ -131,11 +140,14 @@ export class FourLanes {
       flagsB: take(byBlocks ? 0 : cells),
       // The challenger's block-total keys, or its positions (cell-by-cell layout).
       index: take(4 * cells),
+      weightA: take(weighted ? 8 * cells : 0),
+      weightB: take(weighted ? 8 * cells : 0),
       counts: take(8 * cells),
       // The block totals (2 per block), or the counts in challenger order.
       target: take(byBlocks ? 32 * byBlocks.blocks : 8 * cells),
-      good: take(16 * blocks),
-      bad: take(16 * blocks),
+      // Four running totals per block (i32), or with weights four block weights (f64).
+      good: take((weighted ? 32 : 16) * blocks),
+      bad: take((weighted ? 32 : 16) * blocks),
     };
     const memory = new wasm.Memory({ initial: Math.ceil(end / 65536) });
     const instance = new wasm.Instance(module, {
@@ -155,6 +167,10 @@ export class FourLanes {
     new Uint8Array(buffer, this.at.flagsA, cells).set(plan.flagsChampion);
     if (!byBlocks) new Uint8Array(buffer, this.at.flagsB, cells).set(plan.flagsChallenger);
     new Uint32Array(buffer, this.at.index, cells).set(byBlocks ? byBlocks.key : plan.positionChallenger);
+    if (weighted) {
+      new Float64Array(buffer, this.at.weightA, cells).set(plan.weightChampion!);
+      new Float64Array(buffer, this.at.weightB, cells).set(plan.weightChallenger!);
+    }
     // ⌈cdf_k·2^32⌉ for Poisson(1), k = 0 … 5: the draw's integer thresholds (poissonOneThreshold
     // in bootstrap-poisson.ts, without its sign flip: WebAssembly compares unsigned).
     this.thresholds = Array.from({ length: 6 }, (_, k) => Math.ceil(tables.cdf[k] * 4294967296));
@@ -164,6 +180,28 @@ export class FourLanes {
     this.ratio = new Float64Array(buffer, this.at.totals + 48, LANES);
     this.blockTotals = byBlocks ? new Uint32Array(buffer, this.at.target, LANES * 2 * byBlocks.blocks) : null;
     this.sums = new Float64Array(buffer, this.at.work + 128, 3 * LANES);
+    this.weightedTotals = new Float64Array(buffer, this.at.work + 256, 2 * LANES);
+    this.weightedSums = new Float64Array(buffer, this.at.work + 320, 2 * LANES);
+  }
+
+  /** Scores of lane `lane` with sampling weights: [AUC, KS], as scoreCellsWeighted computes them. */
+  private weightedScoresOf(lane: number, scores: Float64Array): void {
+    const pairs = this.weightedTotals[lane] * this.weightedTotals[LANES + lane];
+    scores[0] = this.weightedSums[2 * lane] / pairs;
+    scores[1] = this.weightedSums[2 * lane + 1] / pairs;
+  }
+
+  /** One model's weighted scores for the four lanes, from its counts in its order. */
+  private scoreWeighted(flags: number, counts: number, weight: number, out: Float64Array[], r: number, offset: number): void {
+    const { kernel, at } = this;
+    const blocks = kernel.weightedTotalsFour(this.plan.cells, flags, counts, weight, at.good, at.bad, at.work + 256);
+    kernel.weightedSumsFour(blocks, at.good, at.bad, at.work + 256, at.work + 320);
+    const scores = new Float64Array(2);
+    for (let lane = 0; lane < LANES; lane++) {
+      this.weightedScoresOf(lane, scores);
+      out[0][r + lane - offset] = scores[0];
+      out[1][r + lane - offset] = scores[1];
+    }
   }
 
   /** Scores of lane `lane` from the kernel's sums: [AUC, KS], as blockSums computes them. */
@@ -193,6 +231,13 @@ export class FourLanes {
       adjustStratum(goodCells, nGood, goods, bound, size, positionChallenger, counts, null, state, LANES, lane);
       adjustStratum(badCells, nBad, bads, bound, size, positionChallenger, counts, null, state, LANES, lane);
       if (inspect) inspect(r + lane, Uint16Array.from({ length: cells }, (_, c) => counts[LANES * c + lane]));
+    }
+    // 3. and 4. With sampling weights: each model's weighted sums from its counts in its order.
+    if (plan.weightChampion !== null) {
+      this.scoreWeighted(at.flagsA, at.counts, at.weightA, [out.aucChampion, out.ksChampion], r, offset);
+      kernel.scatterFour(cells, at.index, at.counts, at.target);
+      this.scoreWeighted(at.flagsB, at.target, at.weightB, [out.aucChallenger, out.ksChallenger], r, offset);
+      return;
     }
     // 3. The champion: four running totals per block, then each replicate's sums.
     const scores = new Float64Array(2);

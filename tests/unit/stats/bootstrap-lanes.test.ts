@@ -5,7 +5,7 @@ import { blockTotalsPay, withChallengerBlocks } from '@server/stats/bootstrap-bl
 import type { BootstrapPlan } from '@server/stats/bootstrap-kernel';
 import { lanesModule, rangeScratch, runReplicateRange } from '@server/stats/bootstrap-lanes';
 import { planBootstrap } from '@server/stats/bootstrap-plan';
-import { scoreBlocks } from '@server/stats/order';
+import { scoreBlocks, weighBlocks } from '@server/stats/order';
 
 /**
  * The WebAssembly kernel (four replicates at a time, wasm/bootstrap-lanes.ts) against the
@@ -77,6 +77,23 @@ describe('the bootstrap on WebAssembly lanes', () => {
     // Both layouts of the challenger, on the lanes, agree too.
     const other = pays ? plan : withChallengerBlocks(plan);
     expect(runBoth(other, 17, 4, 26).lanes.out).toEqual(lanes.out);
+  });
+
+  it.each([
+    ['weights by outcome', (bad: Uint8Array) => Float64Array.from(bad, (b) => (b ? 1 : 4))],
+    ['weights 1–4 at random', (bad: Uint8Array, random: () => number) => Float64Array.from(bad, () => 1 + Math.floor(random() * 4))],
+    ['fractional weights', (bad: Uint8Array, random: () => number) => Float64Array.from(bad, () => [0.25, 1.5, 2.75, 3.1, 0.3][Math.floor(random() * 5)])],
+    ['a fractional weight per row', (bad: Uint8Array, random: () => number) => Float64Array.from(bad, () => 0.5 + random() * 3)],
+  ] as const)('gives the weighted AUC and KS of the TypeScript kernel, replicate by replicate, to the bit (%s)', (_, weighting) => {
+    for (const kind of ['continuous', 'points'] as const) {
+      const { bad, a, b } = holdout(6000, `lanes-weights-${kind}`, kind);
+      const weight = weighting(bad, seedrandom(`weights-${kind}`));
+      const plan = planBootstrap(weighBlocks(a, weight), weighBlocks(b, weight), bad, weight);
+      expect(blockTotalsPay(plan)).toBe(false);
+      const { lanes, plain } = runBoth(plan, 5, 0, 14);
+      expect(lanes.counts).toEqual(plain.counts);
+      expect(lanes.out).toEqual(plain.out);
+    }
   });
 
   it('gives the same replicates on threads and in this thread, with and without the lanes', async () => {
