@@ -11,63 +11,22 @@ const GUIDE: i32 = 32;
 const TABLE_MAX: i32 = 64;
 const INV_TWO_POW_32: f64 = 1.0 / 4294967296.0;
 
-// xoshiro128** (Blackman & Vigna 2021) on one lane's state, four u32 words at `at`.
-function nextScalar(at: usize): u32 {
-  const s0 = load<u32>(at);
-  const s1 = load<u32>(at, 4);
-  const s2 = load<u32>(at, 8);
-  const s3 = load<u32>(at, 12);
-  const result = rotl<u32>(s1 * 5, 7) * 9;
-  const t = s1 << 9;
-  let n2 = s2 ^ s0;
-  let n3 = s3 ^ s1;
-  const n1 = s1 ^ n2;
-  const n0 = s0 ^ n3;
-  n2 ^= t;
-  n3 = rotl<u32>(n3, 11);
-  store<u32>(at, n0);
-  store<u32>(at, n1, 4);
-  store<u32>(at, n2, 8);
-  store<u32>(at, n3, 12);
-  return result;
-}
-
-// Poisson(m) for one lane by inversion of the tables (cdf: f64; offset: u32 per λ; guide: u32,
-// GUIDE per λ), m > 64 as Poisson(64) chunks: poissonLarge of bootstrap-poisson.ts, step for step.
-function poissonScalar(size: i32, at: usize, cdf: usize, offset: usize, guide: usize): i32 {
-  const tableL = load<u32>(offset + (<usize>TABLE_MAX << 2));
-  let m = size;
-  let k: i32 = 0;
-  while (m > TABLE_MAX) {
-    const u = <f64>nextScalar(at) * INV_TWO_POW_32;
-    let j = load<u32>(guide + (<usize>(TABLE_MAX * GUIDE + <i32>(u * <f64>GUIDE)) << 2));
-    while (u >= load<f64>(cdf + (<usize>(tableL + j) << 3))) j++;
-    k += <i32>j;
-    m -= TABLE_MAX;
-  }
-  const u = <f64>nextScalar(at) * INV_TWO_POW_32;
+// Poisson(λ) by inversion of u, λ ≤ 64: from the start of the λ = 1 table, or from the guide
+// entry of λ's table (the steps of poissonLarge in bootstrap-poisson.ts).
+function invert(u: f64, lambda: i32, cdf: usize, offset: usize, guide: usize): i32 {
   let j: u32 = 0;
-  if (m == 1) {
+  if (lambda == 1) {
     while (u >= load<f64>(cdf + (<usize>j << 3))) j++;
   } else {
-    const base = load<u32>(offset + (<usize>m << 2));
-    j = load<u32>(guide + (<usize>(m * GUIDE + <i32>(u * <f64>GUIDE)) << 2));
+    const base = load<u32>(offset + (<usize>lambda << 2));
+    j = load<u32>(guide + (<usize>(lambda * GUIDE + <i32>(u * <f64>GUIDE)) << 2));
     while (u >= load<f64>(cdf + (<usize>(base + j) << 3))) j++;
   }
-  return k + <i32>j;
-}
-
-// The four lanes' state vectors (s0, s1, s2, s3 at `state`, 16 bytes each) to per-lane scalar
-// states at `lanes` (16 bytes per lane), and back.
-function spill(state: usize, lanes: usize): void {
-  for (let w: usize = 0; w < 4; w++) for (let l: usize = 0; l < 4; l++) store<u32>(lanes + (l << 4) + (w << 2), load<u32>(state + (w << 4) + (l << 2)));
-}
-function unspill(state: usize, lanes: usize): void {
-  for (let w: usize = 0; w < 4; w++) for (let l: usize = 0; l < 4; l++) store<u32>(state + (w << 4) + (l << 2), load<u32>(lanes + (l << 4) + (w << 2)));
+  return <i32>j;
 }
 
 // Poisson(size) counts for every cell, four replicates: drawPoissonCountsOnly of
-// bootstrap-poisson.ts in each lane. `state`: the four state vectors (in and out); `work`: 256
+// bootstrap-poisson.ts in each lane. `state`: the four state vectors (in and out); `work`: 32
 // bytes of scratch; totals written at `totals`: good draws (4 × i32), bad draws (4 × i32), largest
 // count of a one-account cell (4 × i32), largest count/size of a larger cell (4 × f64).
 // t0…t5: ⌈cdf_k·2^32⌉ of Poisson(1), k = 0…5, as unsigned integers.
@@ -92,9 +51,8 @@ export function drawFour(
   let good = i32x4.splat(0);
   let bad = i32x4.splat(0);
   let maxOne = i32x4.splat(0);
-  const lanes = work; // 64 bytes: per-lane scalar states
-  const kAt = work + 64; // 16 bytes: the four counts
-  const rAt = work + 80; // 16 bytes: the four generator outputs
+  const kAt = work; // 16 bytes: the four counts
+  const rAt = work + 16; // 16 bytes: the four generator outputs
   const ratio = totals + 48; // 4 × f64
   for (let l: usize = 0; l < 4; l++) store<f64>(ratio + (l << 3), 0.0);
   for (let c: usize = 0; c < <usize>cells; c++) {
@@ -131,24 +89,34 @@ export function drawFour(
       }
       maxOne = i32x4.max_s(maxOne, k);
     } else {
-      // A cell of several accounts: each lane's Poisson(size) from the tables, one lane at a time.
-      v128.store(state, s0);
-      v128.store(state, s1, 16);
-      v128.store(state, s2, 32);
-      v128.store(state, s3, 48);
-      spill(state, lanes);
+      // A cell of several accounts: Poisson(size) as Poisson(64) chunks and a remainder, each
+      // step one generator output per lane (the vector step), inverted lane by lane.
+      v128.store(kAt, i32x4.splat(0));
+      let m = cellSize;
+      while (true) {
+        const x = i32x4.mul(s1, five);
+        const r = i32x4.mul(v128.or(i32x4.shl(x, 7), i32x4.shr_u(x, 25)), nine);
+        const t = i32x4.shl(s1, 9);
+        s2 = v128.xor(s2, s0);
+        s3 = v128.xor(s3, s1);
+        s1 = v128.xor(s1, s2);
+        s0 = v128.xor(s0, s3);
+        s2 = v128.xor(s2, t);
+        s3 = v128.or(i32x4.shl(s3, 11), i32x4.shr_u(s3, 21));
+        v128.store(rAt, r);
+        const lambda = m > TABLE_MAX ? TABLE_MAX : m;
+        for (let l: usize = 0; l < 4; l++) {
+          const u = <f64>load<u32>(rAt + (l << 2)) * INV_TWO_POW_32;
+          store<i32>(kAt + (l << 2), load<i32>(kAt + (l << 2)) + invert(u, lambda, cdf, offset, guide));
+        }
+        if (m <= TABLE_MAX) break;
+        m -= TABLE_MAX;
+      }
+      k = v128.load(kAt);
       for (let l: usize = 0; l < 4; l++) {
-        const kl = poissonScalar(cellSize, lanes + (l << 4), cdf, offset, guide);
-        store<i32>(kAt + (l << 2), kl);
-        const q = <f64>kl / <f64>cellSize;
+        const q = <f64>load<i32>(kAt + (l << 2)) / <f64>cellSize;
         if (q > load<f64>(ratio + (l << 3))) store<f64>(ratio + (l << 3), q);
       }
-      unspill(state, lanes);
-      s0 = v128.load(state);
-      s1 = v128.load(state, 16);
-      s2 = v128.load(state, 32);
-      s3 = v128.load(state, 48);
-      k = v128.load(kAt);
     }
     v128.store64_lane(counts + (c << 3), i16x8.narrow_i32x4_u(k, k), 0);
     const isBad = i32x4.splat(<i32>(load<u8>(flags + c) & 1));

@@ -128,7 +128,7 @@ export class FourLanes {
       return from;
     };
     this.at = {
-      // drawFour's scratch (96 bytes); the sums (96 from 128); weighted totals (64 from 256) and sums (64 from 320).
+      // drawFour's scratch (32 bytes); the sums (96 from 128); weighted totals (64 from 256) and sums (64 from 320).
       work: take(384),
       state: take(64),
       totals: take(80),
