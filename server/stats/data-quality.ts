@@ -1,6 +1,7 @@
 import type { DataQuality } from '@shared/report';
 import { duplicateIds as countDuplicateIds } from './duplicate-ids';
 import type { Holdout } from './holdout';
+import { rowBlocks, type ScoreBlocks } from './order';
 import { knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 import { formatAuc, formatCount } from '@shared/format';
 
@@ -26,7 +27,11 @@ export interface ReadSummary {
 const FEW_CLASS = 100;
 const FEW_DISTINCT = 20;
 
-export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadSummary): DataQuality {
+/**
+ * `blocks`: both models' ScoreBlocks (order.ts) that `data` was prepared from (PrepareOptions.blocks),
+ * when there are: the midranks then come from each row's block number (rowBlocks) in row order.
+ */
+export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadSummary, blocks?: Record<'champion' | 'challenger', ScoreBlocks>): DataQuality {
   const { n, bads, goods } = data;
   const warnings: string[] = [];
   if (bads === 0 || goods === 0) warnings.push(`Only one outcome is present (${bads} bads, ${goods} goods): nothing can be compared.`);
@@ -85,7 +90,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
       ? { pearson: null, spearman: null }
       : {
           pearson: pearson(holdout.champion, holdout.challenger),
-          spearman: pearson(rawMidranks(data.champion), rawMidranks(data.challenger)),
+          spearman: pearson(rawMidranks(data.champion, blocks?.champion), rawMidranks(data.challenger, blocks?.challenger)),
         },
     duplicateIds,
     warnings,
@@ -123,8 +128,31 @@ function aucOf(model: PreparedModel, bads: number, goods: number): number {
   return numerator / bads / goods;
 }
 
-/** Midranks (1-based) of the scores as given, per account. */
-function rawMidranks(model: PreparedModel): Float64Array {
+/**
+ * Midranks (1-based) of the scores as given, per account. With the blocks the model was prepared
+ * from, each row looks its block's midrank up in row order; else (rawMidranksReference) each
+ * block's midrank is written to its rows in sorted order. The same numbers either way.
+ */
+export function rawMidranks(model: PreparedModel, blocks?: ScoreBlocks): Float64Array {
+  const count = model.blockEnds.length;
+  if (blocks === undefined || blocks.count !== count || blocks.order !== model.order) return rawMidranksReference(model);
+  const n = model.raw.length;
+  const flip = model.higherIs === 'riskier';
+  const rankOfBlock = new Float64Array(count);
+  let start = 0;
+  for (let b = 0; b < count; b++) {
+    const end = model.blockEnds[b];
+    const midrank = (start + 1 + end) / 2;
+    rankOfBlock[b] = flip ? n + 1 - midrank : midrank;
+    start = end;
+  }
+  const rowBlock = rowBlocks(blocks);
+  const ranks = new Float64Array(n);
+  for (let i = 0; i < n; i++) ranks[i] = rankOfBlock[rowBlock[i]];
+  return ranks;
+}
+
+export function rawMidranksReference(model: PreparedModel): Float64Array {
   const n = model.raw.length;
   const ranks = new Float64Array(n);
   const flip = model.higherIs === 'riskier';

@@ -45,7 +45,7 @@ export function delongCovariance(models: readonly ScoreBlocks[], bad: Uint8Array
   if (nGood < 2 || nBad < 2) throw new StatisticError('the DeLong covariance needs at least 2 goods and 2 bads');
 
   const theta = models.map((model) => auc(model));
-  const placed = models.map((model, r) => given?.[r] ?? placements(model, n));
+  const placed = models.map((model, r) => given?.[r] ?? placements(model, n, bad));
   const weights = models[0].weights?.row ?? null;
   // One pass over the accounts: for each pair r ≤ s the products of the centred placements and,
   // for r < s, the squared centred differences, each sum in account order (the order of delong.ts,

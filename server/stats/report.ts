@@ -193,6 +193,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
       orders: knownHoldout === holdout ? knownOrders : undefined,
       blocks: knownHoldout === holdout ? { champion: championBlocks, challenger: challengerBlocks } : undefined,
       moreOrders: knownHoldout === holdout ? moreBlocks.map((blocks) => blocks.order) : undefined,
+      safety: knownHoldout === holdout ? { champion: championSafety, challenger: challengerSafety } : undefined,
       inference,
     });
     // Curves and economics need an outcome: the rows with one (the same data when all are known).
@@ -222,7 +223,12 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     profit = settings.economics === null ? null : economics(knownData, settings.economics);
     await breathe();
     request.onStage?.('data quality');
-    quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
+    quality = dataQuality(
+      holdout,
+      data,
+      request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} },
+      knownHoldout === holdout ? { champion: championBlocks, challenger: challengerBlocks } : undefined,
+    );
     stage(PROGRESS.policy, 'Segments');
     await breathe();
 
