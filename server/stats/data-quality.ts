@@ -90,7 +90,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
       ? { pearson: null, spearman: null }
       : {
           pearson: pearson(holdout.champion, holdout.challenger),
-          spearman: pearson(rawMidranks(data.champion, blocks?.champion), rawMidranks(data.challenger, blocks?.challenger)),
+          spearman: spearman(data.champion, data.challenger, blocks),
         },
     duplicateIds,
     warnings,
@@ -128,43 +128,78 @@ function aucOf(model: PreparedModel, bads: number, goods: number): number {
   return numerator / bads / goods;
 }
 
-/**
- * Midranks (1-based) of the scores as given, per account. With the blocks the model was prepared
- * from, each row looks its block's midrank up in row order; else (rawMidranksReference) each
- * block's midrank is written to its rows in sorted order. The same numbers either way.
- */
-export function rawMidranks(model: PreparedModel, blocks?: ScoreBlocks): Float64Array {
-  const count = model.blockEnds.length;
-  if (blocks === undefined || blocks.count !== count || blocks.order !== model.order) return rawMidranksReference(model);
+/** Midranks (1-based) of the scores as given, per account: the plain way, each block's rows written in sorted order. */
+export function rawMidranks(model: PreparedModel): Float64Array {
   const n = model.raw.length;
-  const flip = model.higherIs === 'riskier';
-  const rankOfBlock = new Float64Array(count);
+  const ranks = new Float64Array(n);
+  const rankOf = midrankOfBlocks(model);
   let start = 0;
-  for (let b = 0; b < count; b++) {
+  for (let b = 0; b < model.blockEnds.length; b++) {
     const end = model.blockEnds[b];
-    const midrank = (start + 1 + end) / 2;
-    rankOfBlock[b] = flip ? n + 1 - midrank : midrank;
+    for (let k = start; k < end; k++) ranks[model.order[k]] = rankOf[b];
     start = end;
   }
-  const rowBlock = rowBlocks(blocks);
-  const ranks = new Float64Array(n);
-  for (let i = 0; i < n; i++) ranks[i] = rankOfBlock[rowBlock[i]];
   return ranks;
 }
 
-export function rawMidranksReference(model: PreparedModel): Float64Array {
+/** The midrank (1-based) of each block of equal scores, in the scores' own orientation. */
+function midrankOfBlocks(model: PreparedModel): Float64Array {
   const n = model.raw.length;
-  const ranks = new Float64Array(n);
   const flip = model.higherIs === 'riskier';
+  const rankOf = new Float64Array(model.blockEnds.length);
   let start = 0;
   for (let b = 0; b < model.blockEnds.length; b++) {
     const end = model.blockEnds[b];
     const midrank = (start + 1 + end) / 2;
-    const rank = flip ? n + 1 - midrank : midrank;
-    for (let k = start; k < end; k++) ranks[model.order[k]] = rank;
+    rankOf[b] = flip ? n + 1 - midrank : midrank;
     start = end;
   }
-  return ranks;
+  return rankOf;
+}
+
+/**
+ * Spearman's correlation: Pearson's of the midranks. With the blocks each model was prepared from
+ * (the same order), each row's midrank is its block's, read through its block number (rowBlocks,
+ * order.ts) in row order, and pearsonOfBlocks sums exactly as pearson does on the midranks; else
+ * pearson(rawMidranks(…)), the plain way. The same bits either way.
+ */
+export function spearman(champion: PreparedModel, challenger: PreparedModel, blocks?: Record<'champion' | 'challenger', ScoreBlocks>): number | null {
+  const usable = (model: PreparedModel, given: ScoreBlocks | undefined): given is ScoreBlocks =>
+    given !== undefined && given.order === model.order && given.count === model.blockEnds.length;
+  if (blocks === undefined || !usable(champion, blocks.champion) || !usable(challenger, blocks.challenger)) {
+    return pearson(rawMidranks(champion), rawMidranks(challenger));
+  }
+  return pearsonOfBlocks(midrankOfBlocks(champion), rowBlocks(blocks.champion), midrankOfBlocks(challenger), rowBlocks(blocks.challenger));
+}
+
+/**
+ * pearson(x, y) for x[i] = xOf[xBlock[i]], y[i] = yOf[yBlock[i]], every block holding a row (so
+ * the largest |value| of the table is the rows'): the same operations in the same order.
+ */
+function pearsonOfBlocks(xOf: Float64Array, xBlock: Uint32Array, yOf: Float64Array, yBlock: Uint32Array): number | null {
+  const n = xBlock.length;
+  const ax = scaleOf(xOf);
+  const ay = scaleOf(yOf);
+  let sx = 0;
+  let sy = 0;
+  for (let i = 0; i < n; i++) {
+    sx += xOf[xBlock[i]] / ax;
+    sy += yOf[yBlock[i]] / ay;
+  }
+  const mx = sx / n;
+  const my = sy / n;
+  let sxy = 0;
+  let sxx = 0;
+  let syy = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = xOf[xBlock[i]] / ax - mx;
+    const dy = yOf[yBlock[i]] / ay - my;
+    sxy += dx * dy;
+    sxx += dx * dx;
+    syy += dy * dy;
+  }
+  if (!(sxx > 0 && syy > 0)) return null;
+  return Math.max(-1, Math.min(1, sxy / Math.sqrt(sxx * syy)));
 }
 
 /** The largest |value| (1 when all are 0): dividing by it keeps sums of values and squares finite. */

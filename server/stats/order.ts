@@ -307,6 +307,13 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
 /** Above this many blocks the keyed sort takes two radix passes instead of one counting pass. */
 const ONE_PASS_BLOCKS = 1 << 16;
 
+/** scoreBlocks the plain way, whatever the scores: the radix sort on their bits (the tests compare the keyed path with it). */
+export function scoreBlocksReference(values: Float64Array, bad: Uint8Array): ScoreBlocks {
+  if (bad.length !== values.length) throw new RangeError('scoreBlocks: scores and outcomes differ in length');
+  const result = radixSort(values, true, bad);
+  return blocksFromSorted(result.order, result.sorted!, result.carried!);
+}
+
 /**
  * Blocks of keyed scores (decimalKeys) straight from their histogram: the blocks are the keys that
  * occur, their goods and bads counted per key. Each row's key then becomes its block number
