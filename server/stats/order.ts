@@ -418,6 +418,16 @@ function toStarts(count: Uint32Array): void {
 }
 
 /**
+ * Blocks made elsewhere (a worker thread, rank.ts) with the row blocks made with them: rowBlocks
+ * then returns those. `rowBlock` must be the blocks' own (rowBlocks of the same blocks there).
+ */
+export function adoptRowBlocks(blocks: ScoreBlocks, rowBlock: Uint32Array): ScoreBlocks {
+  if (rowBlock.length !== blocks.order.length) throw new RangeError('adoptRowBlocks: one block number per row');
+  rowBlockCache.set(blocks, rowBlock);
+  return blocks;
+}
+
+/**
  * The block of every row: rowBlocks(blocks)[row] = k when the row lies in block k (its position
  * in `order` is in [start[k], start[k + 1])). Kept from the keyed sort, else made by one pass in
  * sorted order and kept for the next caller. Blocks weighed by weighBlocks share their source's.

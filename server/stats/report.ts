@@ -23,6 +23,7 @@ import { knownRows, population } from './known-rows';
 import { ks } from './ks';
 import { safety, scoreBlocks, weighBlocks } from './order';
 import { preparePolicyData } from './policy-data';
+import { rankBoth } from './rank';
 import { addChallengerSections } from './report-challengers';
 import { segments } from './segments';
 import { addSegmentPopulation } from './segment-population';
@@ -117,8 +118,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   request.onStage?.('ranking both models');
   const championSafety = safety(knownHoldout.champion, knownHoldout.higherIs.champion);
   const challengerSafety = safety(knownHoldout.challenger, knownHoldout.higherIs.challenger);
-  let championBlocks = scoreBlocks(championSafety, bad);
-  let challengerBlocks = scoreBlocks(challengerSafety, bad);
+  let [championBlocks, challengerBlocks] = await rankBoth(championSafety, challengerSafety, bad, request.threads);
   if (knownHoldout.weight) {
     championBlocks = weighBlocks(championBlocks, knownHoldout.weight);
     challengerBlocks = weighBlocks(challengerBlocks, knownHoldout.weight);

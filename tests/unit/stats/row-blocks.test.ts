@@ -8,6 +8,7 @@ import { duplicateIds, duplicateIdsReference, repeatedHashes } from '@server/sta
 import type { Holdout } from '@server/stats/holdout';
 import { argsortAscending, decimalKeys, rowBlocks, safety, scoreBlocks, scoreBlocksReference, weighBlocks } from '@server/stats/order';
 import { preparePolicyData } from '@server/stats/policy-data';
+import { rankOnTwoThreads } from '@server/stats/rank';
 import { segments, segmentsReference } from '@server/stats/segments';
 import { defaultAdoptionPolicy } from '@shared/policy';
 
@@ -105,6 +106,22 @@ describe('the keyed sort (scores on a decimal grid)', () => {
     expect(rowBlocks(weighed)).toBe(rowBlocks(keyed));
     const ordered = scoreBlocks(values, holdout.bad, keyed.order);
     expect([...rowBlocks(ordered)]).toEqual([...rowBlocks(keyed)]);
+  });
+});
+
+describe('ranking on two threads', () => {
+  it('gives the blocks and row blocks of ranking on this thread (keyed and radix sorts)', async () => {
+    for (const decimals of [6, 'points'] as const) {
+      const holdout = holdoutOf(`threads-${decimals}`, 20_000, decimals);
+      const champion = safety(holdout.champion, holdout.higherIs.champion);
+      // The challenger off any grid: the radix sort in the worker.
+      const challenger = Float64Array.from(holdout.challenger, (v, i) => v + i * 1e-12);
+      const [a, b] = await rankOnTwoThreads(champion, challenger, holdout.bad);
+      const here = [scoreBlocks(champion, holdout.bad), scoreBlocks(challenger, holdout.bad)];
+      expect(a).toEqual(here[0]);
+      expect(b).toEqual(here[1]);
+      expect(rowBlocks(b)).toEqual(rowBlocksByOrder(here[1]));
+    }
   });
 });
 
