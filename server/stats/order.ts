@@ -307,6 +307,12 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
 /** Above this many blocks the keyed sort takes two radix passes instead of one counting pass. */
 const ONE_PASS_BLOCKS = 1 << 16;
 
+/** True when scoreBlocks would sort these values in one counting pass (keys over at most 2^16 values, e.g. points). */
+export function sortsInOnePass(values: Float64Array): boolean {
+  const keys = decimalKeys(values);
+  return keys !== null && keys.size <= ONE_PASS_BLOCKS;
+}
+
 /** scoreBlocks the plain way, whatever the scores: the radix sort on their bits (the tests compare the keyed path with it). */
 export function scoreBlocksReference(values: Float64Array, bad: Uint8Array): ScoreBlocks {
   if (bad.length !== values.length) throw new RangeError('scoreBlocks: scores and outcomes differ in length');
@@ -324,14 +330,13 @@ export function scoreBlocksReference(values: Float64Array, bad: Uint8Array): Sco
 function keyedBlocks(values: Float64Array, bad: Uint8Array | null, keys: KeyRange): ScoreBlocks {
   const n = values.length;
   const { low, size, scale } = keys;
-  // Each row's key, and below its block.
+  // Each row's key (below, its block), counted with its outcome.
   const rowBlock = new Uint32Array(n);
-  if (scale === 1) for (let i = 0; i < n; i++) rowBlock[i] = values[i] - low;
-  else for (let i = 0; i < n; i++) rowBlock[i] = Math.round(values[i] * scale) - low;
   const count = new Uint32Array(size);
   const badCount = new Uint32Array(size);
   for (let i = 0; i < n; i++) {
-    const b = rowBlock[i];
+    const b = scale === 1 ? values[i] - low : Math.round(values[i] * scale) - low;
+    rowBlock[i] = b;
     count[b]++;
     if (bad !== null) badCount[b] += bad[i];
   }

@@ -117,8 +117,14 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   report(0, 'Ranking both models');
   request.onStage?.('ranking both models');
   const championSafety = safety(knownHoldout.champion, knownHoldout.higherIs.champion);
-  const challengerSafety = safety(knownHoldout.challenger, knownHoldout.higherIs.challenger);
-  let [championBlocks, challengerBlocks] = await rankBoth(championSafety, challengerSafety, bad, request.threads);
+  // The challenger's safety scores may be lent to a thread (rank.ts) when they are a new array.
+  const ranked = await rankBoth(championSafety, safety(knownHoldout.challenger, knownHoldout.higherIs.challenger), bad, {
+    threads: request.threads,
+    lend: knownHoldout.higherIs.challenger !== 'safer',
+  });
+  const challengerSafety = ranked.challengerValues;
+  let championBlocks = ranked.champion;
+  let challengerBlocks = ranked.challenger;
   if (knownHoldout.weight) {
     championBlocks = weighBlocks(championBlocks, knownHoldout.weight);
     challengerBlocks = weighBlocks(challengerBlocks, knownHoldout.weight);

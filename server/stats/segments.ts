@@ -21,8 +21,10 @@ import { segmentFlags, tooFewBads } from './segment-flags';
  * Sampling weights (holdout.weight): each segment's Ginis and DeLong are the weighted ones
  * (weighted-auc.ts, delong.ts); the engine passes the rows with a known outcome only.
  *
- * Cost: O(n) per segment column after the two whole-holdout sorts: each segment's blocks are the
- * whole holdout's blocks filtered, in one pass per model; then O(n) for DeLong.
+ * Cost: O(n) per segment column after the two whole-holdout sorts. Without weights (byBlockNumbers)
+ * two passes over each level's rows in row order, plus O(blocks) per level; with weights
+ * (byFilteredBlocks) each segment's blocks are the whole holdout's blocks filtered, in one pass
+ * per model in sorted order, then O(n) for DeLong.
  */
 export interface SegmentOptions {
   /** Both models' blocks over the whole holdout ("higher = safer"). */
@@ -207,18 +209,22 @@ function byBlockNumbers(holdout: Holdout, column: SegmentColumn, options: Segmen
   return Array.from({ length: levels }, (_, level): LevelResult => {
     const from = offsets[level];
     const to = offsets[level + 1];
-    const local: LevelBlocks[] = [];
-    for (let m = 0; m < 2; m++) {
-      const blockOf = rowBlock[m];
-      const g = goodsIn[m];
-      const b = badsIn[m];
+    {
+      const [blockA, blockB] = rowBlock;
+      const [goodA, goodB] = goodsIn;
+      const [badA, badB] = badsIn;
       for (let at = from; at < to; at++) {
         const row = rows[at];
-        if (bad[row]) b[blockOf[row]]++;
-        else g[blockOf[row]]++;
+        if (bad[row]) {
+          badA[blockA[row]]++;
+          badB[blockB[row]]++;
+        } else {
+          goodA[blockA[row]]++;
+          goodB[blockB[row]]++;
+        }
       }
-      local.push(levelBlocks(g, b, models[m].count));
     }
+    const local = models.map((model, m) => levelBlocks(goodsIn[m], badsIn[m], model.count));
     const [a, b] = local;
     if (a.nGood === 0 || a.nBad === 0) return { n: to - from, goods: a.nGood, bads: a.nBad, delong: null };
     const thetaA = auc(a);

@@ -116,11 +116,18 @@ describe('ranking on two threads', () => {
       const champion = safety(holdout.champion, holdout.higherIs.champion);
       // The challenger off any grid: the radix sort in the worker.
       const challenger = Float64Array.from(holdout.challenger, (v, i) => v + i * 1e-12);
-      const [a, b] = await rankOnTwoThreads(champion, challenger, holdout.bad);
       const here = [scoreBlocks(champion, holdout.bad), scoreBlocks(challenger, holdout.bad)];
-      expect(a).toEqual(here[0]);
-      expect(b).toEqual(here[1]);
-      expect(rowBlocks(b)).toEqual(rowBlocksByOrder(here[1]));
+      const copy = Float64Array.from(challenger);
+      const ranked = await rankOnTwoThreads(champion, challenger, holdout.bad, false);
+      expect(ranked.champion).toEqual(here[0]);
+      expect(ranked.challenger).toEqual(here[1]);
+      expect(rowBlocks(ranked.challenger)).toEqual(rowBlocksByOrder(here[1]));
+      expect(ranked.challengerValues).toBe(challenger);
+      // Lent: the scores come back on their buffer, the same values.
+      const lent = await rankOnTwoThreads(champion, challenger, holdout.bad, true);
+      expect(challenger.length).toBe(0);
+      expect(lent.challengerValues).toEqual(copy);
+      expect(lent.challenger).toEqual(here[1]);
     }
   });
 });
