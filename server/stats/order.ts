@@ -49,8 +49,8 @@ interface Sorted {
 /**
  * Indices that sort `values` ascending; ties keep index order (a stable sort).
  * −0 and +0 are equal; NaN sorts after +Infinity (the engine never passes NaN: the reader
- * rejects or drops missing scores). Integer scores over a modest range (points) take a counting
- * sort, everything else the radix sort.
+ * rejects or drops missing scores). Scores on a decimal grid over a modest range (points, PDs
+ * with six decimals; decimalKeys) take the keyed sort, everything else the radix sort.
  */
 export function argsortAscending(values: Float64Array): Uint32Array {
   const keys = decimalKeys(values);
