@@ -1,4 +1,4 @@
-import type { ScoreBlocks } from './order';
+import type { BlockCounts } from './order';
 import { StatisticError } from './statistic-error';
 import { weightedAuc } from './weighted-auc';
 
@@ -18,7 +18,7 @@ import { weightedAuc } from './weighted-auc';
  * (weighted-auc.ts). With every weight 1 the sums are the same float64 integers, so the value is
  * the unweighted one to the last bit.
  */
-export function auc(blocks: ScoreBlocks): number {
+export function auc(blocks: BlockCounts): number {
   const { count, goods, bads, nGood, nBad } = blocks;
   if (nGood === 0 || nBad === 0) throw new StatisticError('auc requires at least one good and one bad');
   if (blocks.weights) return weightedAuc(blocks.weights, count);

@@ -1,6 +1,7 @@
 import type { DataQuality } from '@shared/report';
 import { duplicateIds as countDuplicateIds } from './duplicate-ids';
 import type { Holdout } from './holdout';
+import { rowBlocks, type ScoreBlocks } from './order';
 import { knownAt, type PreparedHoldout, type PreparedModel } from './policy-data';
 import { formatAuc, formatCount } from '@shared/format';
 
@@ -26,7 +27,11 @@ export interface ReadSummary {
 const FEW_CLASS = 100;
 const FEW_DISTINCT = 20;
 
-export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadSummary): DataQuality {
+/**
+ * `blocks`: both models' ScoreBlocks (order.ts) that `data` was prepared from (PrepareOptions.blocks),
+ * when there are: the midranks then come from each row's block number (rowBlocks) in row order.
+ */
+export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadSummary, blocks?: Record<'champion' | 'challenger', ScoreBlocks>): DataQuality {
   const { n, bads, goods } = data;
   const warnings: string[] = [];
   if (bads === 0 || goods === 0) warnings.push(`Only one outcome is present (${bads} bads, ${goods} goods): nothing can be compared.`);
@@ -85,7 +90,7 @@ export function dataQuality(holdout: Holdout, data: PreparedHoldout, read: ReadS
       ? { pearson: null, spearman: null }
       : {
           pearson: pearson(holdout.champion, holdout.challenger),
-          spearman: pearson(rawMidranks(data.champion), rawMidranks(data.challenger)),
+          spearman: spearman(data.champion, data.challenger, blocks),
         },
     duplicateIds,
     warnings,
@@ -123,20 +128,78 @@ function aucOf(model: PreparedModel, bads: number, goods: number): number {
   return numerator / bads / goods;
 }
 
-/** Midranks (1-based) of the scores as given, per account. */
-function rawMidranks(model: PreparedModel): Float64Array {
+/** Midranks (1-based) of the scores as given, per account: the plain way, each block's rows written in sorted order. */
+export function rawMidranks(model: PreparedModel): Float64Array {
   const n = model.raw.length;
   const ranks = new Float64Array(n);
+  const rankOf = midrankOfBlocks(model);
+  let start = 0;
+  for (let b = 0; b < model.blockEnds.length; b++) {
+    const end = model.blockEnds[b];
+    for (let k = start; k < end; k++) ranks[model.order[k]] = rankOf[b];
+    start = end;
+  }
+  return ranks;
+}
+
+/** The midrank (1-based) of each block of equal scores, in the scores' own orientation. */
+function midrankOfBlocks(model: PreparedModel): Float64Array {
+  const n = model.raw.length;
   const flip = model.higherIs === 'riskier';
+  const rankOf = new Float64Array(model.blockEnds.length);
   let start = 0;
   for (let b = 0; b < model.blockEnds.length; b++) {
     const end = model.blockEnds[b];
     const midrank = (start + 1 + end) / 2;
-    const rank = flip ? n + 1 - midrank : midrank;
-    for (let k = start; k < end; k++) ranks[model.order[k]] = rank;
+    rankOf[b] = flip ? n + 1 - midrank : midrank;
     start = end;
   }
-  return ranks;
+  return rankOf;
+}
+
+/**
+ * Spearman's correlation: Pearson's of the midranks. With the blocks each model was prepared from
+ * (the same order), each row's midrank is its block's, read through its block number (rowBlocks,
+ * order.ts) in row order, and pearsonOfBlocks sums exactly as pearson does on the midranks; else
+ * pearson(rawMidranks(…)), the plain way. The same bits either way.
+ */
+export function spearman(champion: PreparedModel, challenger: PreparedModel, blocks?: Record<'champion' | 'challenger', ScoreBlocks>): number | null {
+  const usable = (model: PreparedModel, given: ScoreBlocks | undefined): given is ScoreBlocks =>
+    given !== undefined && given.order === model.order && given.count === model.blockEnds.length;
+  if (blocks === undefined || !usable(champion, blocks.champion) || !usable(challenger, blocks.challenger)) {
+    return pearson(rawMidranks(champion), rawMidranks(challenger));
+  }
+  return pearsonOfBlocks(midrankOfBlocks(champion), rowBlocks(blocks.champion), midrankOfBlocks(challenger), rowBlocks(blocks.challenger));
+}
+
+/**
+ * pearson(x, y) for x[i] = xOf[xBlock[i]], y[i] = yOf[yBlock[i]], every block holding a row (so
+ * the largest |value| of the table is the rows'): the same operations in the same order.
+ */
+function pearsonOfBlocks(xOf: Float64Array, xBlock: Uint32Array, yOf: Float64Array, yBlock: Uint32Array): number | null {
+  const n = xBlock.length;
+  const ax = scaleOf(xOf);
+  const ay = scaleOf(yOf);
+  let sx = 0;
+  let sy = 0;
+  for (let i = 0; i < n; i++) {
+    sx += xOf[xBlock[i]] / ax;
+    sy += yOf[yBlock[i]] / ay;
+  }
+  const mx = sx / n;
+  const my = sy / n;
+  let sxy = 0;
+  let sxx = 0;
+  let syy = 0;
+  for (let i = 0; i < n; i++) {
+    const dx = xOf[xBlock[i]] / ax - mx;
+    const dy = yOf[yBlock[i]] / ay - my;
+    sxy += dx * dy;
+    sxx += dx * dx;
+    syy += dy * dy;
+  }
+  if (!(sxx > 0 && syy > 0)) return null;
+  return Math.max(-1, Math.min(1, sxy / Math.sqrt(sxx * syy)));
 }
 
 /** The largest |value| (1 when all are 0): dividing by it keeps sums of values and squares finite. */

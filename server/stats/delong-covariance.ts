@@ -1,6 +1,6 @@
 import { auc } from './auc';
-import { placements, type PlacementSums } from './delong';
-import type { ScoreBlocks } from './order';
+import { blockPlacements, type PlacementSums } from './delong';
+import { rowBlocks, type ScoreBlocks } from './order';
 import { StatisticError } from './statistic-error';
 
 /**
@@ -17,8 +17,9 @@ import { StatisticError } from './statistic-error';
  * Beside the matrix, the variance of every difference θ_s − θ_r (r < s) summed from the centred
  * differences (V_s − θ_s) − (V_r − θ_r) as delong.ts does, without the cancellation of
  * S_rr + S_ss − 2·S_rs: the same products in the same order, so the same bits as the paired test.
- * Cost: O(M·n) for the placements after the sorts (none when the caller gives them), and one pass
- * of O(M²) sums per account (M ≤ 6 models).
+ * Cost: O(M·blocks) for the placements after the sorts (each account's read through its block
+ * number, rowBlocks in order.ts), and one pass of O(M²) sums per account
+ * (M ≤ 6 models).
  */
 export interface AucCovariance {
   /** The AUC of each model, in the order given. */
@@ -31,7 +32,7 @@ export interface AucCovariance {
   pairSums: (r: number, s: number) => PlacementSums;
 }
 
-export function delongCovariance(models: readonly ScoreBlocks[], bad: Uint8Array, given?: readonly Float64Array[]): AucCovariance {
+export function delongCovariance(models: readonly ScoreBlocks[], bad: Uint8Array): AucCovariance {
   const n = bad.length;
   const m = models.length;
   if (m === 0) throw new StatisticError('the DeLong covariance needs at least one model');
@@ -45,7 +46,12 @@ export function delongCovariance(models: readonly ScoreBlocks[], bad: Uint8Array
   if (nGood < 2 || nBad < 2) throw new StatisticError('the DeLong covariance needs at least 2 goods and 2 bads');
 
   const theta = models.map((model) => auc(model));
-  const placed = models.map((model, r) => given?.[r] ?? placements(model, n));
+  // Each account's placement is its block's (blockPlacements), read through its block number
+  // (rowBlocks) as the pass goes, without writing a placement per account first.
+  const tables = models.map((model) => blockPlacements(model));
+  const forGood = tables.map((table) => table.forGood);
+  const forBad = tables.map((table) => table.forBad);
+  const rowBlock = models.map((model) => rowBlocks(model));
   const weights = models[0].weights?.row ?? null;
   // One pass over the accounts: for each pair r ≤ s the products of the centred placements and,
   // for r < s, the squared centred differences, each sum in account order (the order of delong.ts,
@@ -57,7 +63,8 @@ export function delongCovariance(models: readonly ScoreBlocks[], bad: Uint8Array
   const differenceBad = new Float64Array(pairs);
   const centred = new Float64Array(m);
   for (let i = 0; i < n; i++) {
-    for (let r = 0; r < m; r++) centred[r] = placed[r][i] - theta[r];
+    if (bad[i]) for (let r = 0; r < m; r++) centred[r] = forBad[r][rowBlock[r][i]] - theta[r];
+    else for (let r = 0; r < m; r++) centred[r] = forGood[r][rowBlock[r][i]] - theta[r];
     const ww = weights === null ? 1 : weights[i] * weights[i];
     const products = bad[i] ? productBad : productGood;
     const differences = bad[i] ? differenceBad : differenceGood;

@@ -1,7 +1,7 @@
 import type { Interval } from '@shared/report';
 import { auc } from './auc';
 import { normalQuantile, normalSf } from './normal';
-import type { ScoreBlocks } from './order';
+import { type BlockCounts, rowBlocks, type ScoreBlocks } from './order';
 import { StatisticError } from './statistic-error';
 
 /**
@@ -93,24 +93,50 @@ export function inferenceGap(nGood: number, nBad: number): string | null {
   return `only ${which}: a variance needs at least 2 goods and 2 bads, so there is no standard error, test or interval`;
 }
 
-/** Each account's placement: V10 for goods, V01 for bads (weighted counts when the blocks have weights). */
-export function placements(blocks: ScoreBlocks, n: number): Float64Array {
-  const { order, sortedBad, count, start } = blocks;
+/**
+ * Each account's placement: V10 for goods, V01 for bads (weighted counts when the blocks have
+ * weights). With the outcome per row (`bad`, the one the blocks were made from), each row looks its
+ * block's two placements up in row order (rowBlocks, order.ts); without it, the plain way: every
+ * block's rows written in sorted order (placementsReference). The same numbers either way.
+ */
+export function placements(blocks: ScoreBlocks, n: number, bad?: Uint8Array): Float64Array {
+  if (bad === undefined) return placementsReference(blocks, n);
+  const { forGood, forBad } = blockPlacements(blocks);
+  const rowBlock = rowBlocks(blocks);
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = bad[i] ? forBad[rowBlock[i]] : forGood[rowBlock[i]];
+  return out;
+}
+
+/** The placement of a good and of a bad in each block. */
+export function blockPlacements(blocks: BlockCounts): { forGood: Float64Array; forBad: Float64Array } {
+  const { count } = blocks;
   const goods = blocks.weights ? blocks.weights.goods : blocks.goods;
   const bads = blocks.weights ? blocks.weights.bads : blocks.bads;
   const nGood = blocks.weights ? blocks.weights.good : blocks.nGood;
   const nBad = blocks.weights ? blocks.weights.bad : blocks.nBad;
-  const out = new Float64Array(n);
+  const forGood = new Float64Array(count);
+  const forBad = new Float64Array(count);
   let badsBelow = 0;
   let goodsAbove = nGood;
   for (let k = 0; k < count; k++) {
     const g = goods[k];
     const b = bads[k];
     goodsAbove -= g;
-    const forGood = (badsBelow + b / 2) / nBad;
-    const forBad = (goodsAbove + g / 2) / nGood;
-    for (let at = start[k]; at < start[k + 1]; at++) out[order[at]] = sortedBad[at] ? forBad : forGood;
+    forGood[k] = (badsBelow + b / 2) / nBad;
+    forBad[k] = (goodsAbove + g / 2) / nGood;
     badsBelow += b;
+  }
+  return { forGood, forBad };
+}
+
+/** placements() the plain way: each block's rows written in sorted order. */
+export function placementsReference(blocks: ScoreBlocks, n: number): Float64Array {
+  const { order, sortedBad, count, start } = blocks;
+  const { forGood, forBad } = blockPlacements(blocks);
+  const out = new Float64Array(n);
+  for (let k = 0; k < count; k++) {
+    for (let at = start[k]; at < start[k + 1]; at++) out[order[at]] = sortedBad[at] ? forBad[k] : forGood[k];
   }
   return out;
 }
@@ -136,31 +162,9 @@ export function pairedDelong(
   const thetaA = auc(champion);
   const thetaB = auc(challenger);
   const gap = inferenceGap(nGood, nBad);
-  if (gap !== null) {
-    const bare = (theta: number): ModelDelong => ({ auc: theta, variance: null, aucSe: null, aucCi: null, gini: 2 * theta - 1, giniCi: null });
-    return {
-      champion: bare(thetaA),
-      challenger: bare(thetaB),
-      difference: {
-        auc: thetaB - thetaA,
-        gini: 2 * (thetaB - thetaA),
-        se: null,
-        giniSe: null,
-        z: null,
-        pTwoSided: null,
-        pOneSided: null,
-        aucCi: null,
-        giniCi: null,
-        varianceChampion: null,
-        varianceChallenger: null,
-        covariance: null,
-        correlation: null,
-        inference: gap,
-      },
-    };
-  }
-  const pa = placements(champion, n);
-  const pb = placements(challenger, n);
+  if (gap !== null) return pairedWithoutVariance(thetaA, thetaB, gap);
+  const pa = placements(champion, n, bad);
+  const pb = placements(challenger, n, bad);
 
   // Sums of squares and cross-products of centred placements, per class.
   let gAA = 0;
@@ -194,6 +198,31 @@ export function pairedDelong(
   return pairedFromSums(champion, thetaA, thetaB, { gAA, gBB, gAB, gDD, bAA, bBB, bAB, bDD }, confidence);
 }
 
+/** The paired result when there is no variance (fewer than 2 goods or 2 bads, `gap` says so): the AUCs and their difference only. */
+export function pairedWithoutVariance(thetaA: number, thetaB: number, gap: string): PairedDelong {
+  const bare = (theta: number): ModelDelong => ({ auc: theta, variance: null, aucSe: null, aucCi: null, gini: 2 * theta - 1, giniCi: null });
+  return {
+    champion: bare(thetaA),
+    challenger: bare(thetaB),
+    difference: {
+      auc: thetaB - thetaA,
+      gini: 2 * (thetaB - thetaA),
+      se: null,
+      giniSe: null,
+      z: null,
+      pTwoSided: null,
+      pOneSided: null,
+      aucCi: null,
+      giniCi: null,
+      varianceChampion: null,
+      varianceChallenger: null,
+      covariance: null,
+      correlation: null,
+      inference: gap,
+    },
+  };
+}
+
 /**
  * Per class (g: goods, b: bads), the weighted sums over the accounts of the centred placements'
  * squares and cross-product, A the champion's, B the challenger's, D = B − A (squared weights).
@@ -213,7 +242,7 @@ export interface PlacementSums {
  * The paired test from its sums (pairedDelong, or several-challengers.ts summing every pair in one
  * pass: the same sums give the same bits). `champion` gives the class sizes and weights.
  */
-export function pairedFromSums(champion: ScoreBlocks, thetaA: number, thetaB: number, sums: PlacementSums, confidence: number): PairedDelong {
+export function pairedFromSums(champion: BlockCounts, thetaA: number, thetaB: number, sums: PlacementSums, confidence: number): PairedDelong {
   const { nGood, nBad } = champion;
   const { gAA, gBB, gAB, gDD, bAA, bBB, bAB, bDD } = sums;
   const delta = thetaB - thetaA;

@@ -4,13 +4,20 @@ import type { HigherIs } from '@shared/report';
  * Orientation and ordering helpers shared by every statistic.
  *
  * - safety(): scores turned to "higher = safer". O(n).
- * - argsortAscending(): stable ascending index order without comparisons: a counting sort for
- *   integer scores over a modest range (points), otherwise an LSD radix sort on the IEEE-754 bit
- *   patterns (16-bit digits; a digit every value shares is skipped). O(n) per pass; at a million
- *   rows about 5× faster than a comparator sort for continuous scores, more for points.
+ * - argsortAscending(): stable ascending index order without comparisons. Scores that are all
+ *   whole multiples of one power of ten, 10^−d for d = 0 … 9 (points: d = 0; PDs given with six
+ *   decimals: d = 6), over a modest range of keys round(v·10^d), are sorted by those integer keys
+ *   (decimalKeys): a counting sort, or for wide ranges two LSD radix passes on the key. Other
+ *   scores take an LSD radix sort on the IEEE-754 bit patterns (16-bit digits; a digit every value
+ *   shares is skipped), the plain path the tests compare the keyed one with. O(n) per pass; at a
+ *   million rows about 5× faster than a comparator sort for continuous scores, more on keys.
  * - scoreBlocks(): the ascending order cut into blocks of equal scores with the goods and bads of
  *   each block — what AUC, DeLong placements, KS, curves and band tables all start from. O(n)
  *   after the sort.
+ * - rowBlocks(): each row's block number, for the passes that go through the rows in their own
+ *   order (DeLong placements, midranks, bands, segments) and look a per-block table up instead of
+ *   writing to every row in sorted order (random writes are what costs most at millions of rows).
+ *   The keyed sort gets it almost free; otherwise one pass in sorted order makes it.
  */
 
 /** Scores turned to "higher = safer": unchanged for points, negated for PD-like scores. */
@@ -22,6 +29,9 @@ export function safety(scores: Float64Array, higherIs: HigherIs): Float64Array {
 }
 
 const RADIX = 1 << 16;
+
+/** Each ScoreBlocks' rows' block numbers, once made (rowBlocks). */
+const rowBlockCache = new WeakMap<ScoreBlocks, Uint32Array>();
 
 /**
  * A stable ascending sort: the order, and optionally the sorted values and a carried byte column
@@ -39,39 +49,60 @@ interface Sorted {
 /**
  * Indices that sort `values` ascending; ties keep index order (a stable sort).
  * −0 and +0 are equal; NaN sorts after +Infinity (the engine never passes NaN: the reader
- * rejects or drops missing scores). Integer scores over a modest range (points) take a counting
- * sort, everything else the radix sort.
+ * rejects or drops missing scores). Scores on a decimal grid over a modest range (points, PDs
+ * with six decimals; decimalKeys) take the keyed sort, everything else the radix sort.
  */
 export function argsortAscending(values: Float64Array): Uint32Array {
-  const range = integerRange(values);
-  if (range !== null) return countingSort(values, range.min, range.size);
+  const keys = decimalKeys(values);
+  if (keys !== null) return keyedBlocks(values, null, keys).order;
   return radixSort(values, false, null).order;
 }
 
-/** Integer values over a range small enough for a counting sort, or null. */
-function integerRange(values: Float64Array): { min: number; size: number } | null {
+/**
+ * Integer keys for values that are all whole multiples of 10^−d for one d in 0 … 9: key =
+ * round(v·10^d), offset by the smallest key, when the keys span fewer than max(2^16, 2n) values;
+ * else null. Every value is checked to be exactly key / 10^d (the double nearest that decimal), so
+ * equal values get equal keys and different values different keys; and since that division is
+ * monotone in the key, the keys sort as the values do (−0 and +0 both get key 0). The smallest d
+ * that fits is taken (a value off the grid usually shows within the first few rows).
+ */
+export function decimalKeys(values: Float64Array): KeyRange | null {
   const n = values.length;
   if (n >= 2 ** 32) throw new RangeError('argsortAscending: more than 2^32 − 1 values');
+  if (n === 0) return null;
   let min = Infinity;
   let max = -Infinity;
   for (let i = 0; i < n; i++) {
     const v = values[i];
     if (v < min) min = v;
     if (v > max) max = v;
-    if (v !== Math.floor(v)) return null;
   }
-  return n > 0 && max - min < Math.max(RADIX, 2 * n) ? { min, size: max - min + 1 } : null;
+  const limit = Math.max(RADIX, 2 * n);
+  for (let d = 0, scale = 1; d <= 9; d++, scale *= 10) {
+    const low = Math.round(min * scale);
+    const high = Math.round(max * scale);
+    // A finer grid only widens the range.
+    if (!(high - low < limit && Math.abs(low) <= MAX_KEY && Math.abs(high) <= MAX_KEY)) return null;
+    if (onGrid(values, scale)) return { low, size: high - low + 1, scale };
+  }
+  return null;
 }
 
-/** Stable counting sort of integer values in [min, min + range). */
-function countingSort(values: Float64Array, min: number, range: number): Uint32Array {
-  const n = values.length;
-  const count = new Uint32Array(range + 1);
-  for (let i = 0; i < n; i++) count[values[i] - min + 1]++;
-  for (let b = 1; b <= range; b++) count[b] += count[b - 1];
-  const index = new Uint32Array(n);
-  for (let i = 0; i < n; i++) index[count[values[i] - min]++] = i;
-  return index;
+const MAX_KEY = 2 ** 52;
+
+/** Keys of values on the 1/scale grid: round(v·scale) − low, an integer in [0, size). */
+export interface KeyRange {
+  low: number;
+  size: number;
+  scale: number;
+}
+
+function onGrid(values: Float64Array, scale: number): boolean {
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (v !== Math.round(v * scale) / scale) return false;
+  }
+  return true;
 }
 
 /** LSD radix sort on order-preserving 64-bit keys, 16 bits per pass. */
@@ -195,6 +226,9 @@ export interface ScoreBlocks {
   weights?: BlockWeights;
 }
 
+/** What AUC, DeLong placements and the paired test read of a ScoreBlocks: the counts per block. */
+export type BlockCounts = Pick<ScoreBlocks, 'count' | 'goods' | 'bads' | 'nGood' | 'nBad' | 'weights'>;
+
 /** The weighted counterpart of a ScoreBlocks' counts. */
 export interface BlockWeights {
   /** Weight of each row, indexed like the rows in `order`. */
@@ -234,7 +268,10 @@ export function weighBlocks(blocks: ScoreBlocks, weight: Float64Array): ScoreBlo
     good += g;
     bad += b;
   }
-  return { ...blocks, weights: { row: weight, sorted, goods, bads, good, bad } };
+  const weighed = { ...blocks, weights: { row: weight, sorted, goods, bads, good, bad } };
+  const rowBlock = rowBlockCache.get(blocks);
+  if (rowBlock !== undefined) rowBlockCache.set(weighed, rowBlock);
+  return weighed;
 }
 
 /**
@@ -248,8 +285,8 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
   let sorted: Float64Array;
   let sortedBad: Uint8Array;
   if (order === undefined) {
-    const range = integerRange(values);
-    if (range !== null) return countingBlocks(values, bad, range.min, range.size);
+    const keys = decimalKeys(values);
+    if (keys !== null) return keyedBlocks(values, bad, keys);
     const result = radixSort(values, true, bad);
     order = result.order;
     sorted = result.sorted!;
@@ -267,48 +304,148 @@ export function scoreBlocks(values: Float64Array, bad: Uint8Array, order?: Uint3
   return blocksFromSorted(order, sorted, sortedBad);
 }
 
+/** Above this many blocks the keyed sort takes two radix passes instead of one counting pass. */
+const ONE_PASS_BLOCKS = 1 << 16;
+
+/** True when scoreBlocks would sort these values in one counting pass (keys over at most 2^16 values, e.g. points). */
+export function sortsInOnePass(values: Float64Array): boolean {
+  const keys = decimalKeys(values);
+  return keys !== null && keys.size <= ONE_PASS_BLOCKS;
+}
+
+/** scoreBlocks the plain way, whatever the scores: the radix sort on their bits (the tests compare the keyed path with it). */
+export function scoreBlocksReference(values: Float64Array, bad: Uint8Array): ScoreBlocks {
+  if (bad.length !== values.length) throw new RangeError('scoreBlocks: scores and outcomes differ in length');
+  const result = radixSort(values, true, bad);
+  return blocksFromSorted(result.order, result.sorted!, result.carried!);
+}
+
 /**
- * Blocks of integer scores straight from their histogram (points): the blocks are the values that
- * occur, their goods and bads counted per value; one scatter places the rows and outcomes.
+ * Blocks of keyed scores (decimalKeys) straight from their histogram: the blocks are the keys that
+ * occur, their goods and bads counted per key. Each row's key then becomes its block number
+ * (rowBlocks), and the rows and outcomes are placed by a stable counting sort on it: one pass, or
+ * two LSD passes of half its bits when there are more than 2^16 blocks, so that each pass writes
+ * to at most a few thousand places at a time. `bad` null: the order only (argsortAscending).
  */
-function countingBlocks(values: Float64Array, bad: Uint8Array, min: number, range: number): ScoreBlocks {
+function keyedBlocks(values: Float64Array, bad: Uint8Array | null, keys: KeyRange): ScoreBlocks {
   const n = values.length;
-  const count = new Uint32Array(range + 1);
-  const badCount = new Uint32Array(range);
+  const { low, size, scale } = keys;
+  // Each row's key (below, its block), counted with its outcome.
+  const rowBlock = new Uint32Array(n);
+  const count = new Uint32Array(size);
+  const badCount = new Uint32Array(size);
   for (let i = 0; i < n; i++) {
-    const b = values[i] - min;
-    count[b + 1]++;
-    badCount[b] += bad[i];
+    const b = scale === 1 ? values[i] - low : Math.round(values[i] * scale) - low;
+    rowBlock[i] = b;
+    count[b]++;
+    if (bad !== null) badCount[b] += bad[i];
   }
   let blocks = 0;
-  for (let b = 0; b < range; b++) if (count[b + 1] !== 0) blocks++;
+  for (let b = 0; b < size; b++) if (count[b] !== 0) blocks++;
   const start = new Uint32Array(blocks + 1);
   const value = new Float64Array(blocks);
   const goods = new Uint32Array(blocks);
   const bads = new Uint32Array(blocks);
   let nBad = 0;
-  for (let b = 0, k = 0, at = 0; b < range; b++) {
-    const c = count[b + 1];
+  // count[b] becomes the block of key b.
+  for (let b = 0, k = 0, at = 0; b < size; b++) {
+    const c = count[b];
     if (c === 0) continue;
-    const v = min + b;
     start[k] = at;
-    value[k] = v === 0 ? 0 : v;
+    value[k] = (low + b) / scale + 0; // the value itself (checked in decimalKeys); −0 reads as +0
     bads[k] = badCount[b];
     goods[k] = c - badCount[b];
     nBad += badCount[b];
+    count[b] = k;
     at += c;
     k++;
   }
   start[blocks] = n;
-  for (let b = 1; b <= range; b++) count[b] += count[b - 1];
+  for (let i = 0; i < n; i++) rowBlock[i] = count[rowBlock[i]];
+  const { order, sortedBad } = sortByBlock(rowBlock, bad, start, blocks);
+  const result: ScoreBlocks = { order, sortedBad, count: blocks, start, value, goods, bads, nGood: n - nBad, nBad };
+  rowBlockCache.set(result, rowBlock);
+  return result;
+}
+
+/** Rows (and outcomes) in order of their block numbers, ties in row order: a stable counting sort. */
+function sortByBlock(rowBlock: Uint32Array, bad: Uint8Array | null, start: Uint32Array, blocks: number): { order: Uint32Array; sortedBad: Uint8Array } {
+  const n = rowBlock.length;
   const order = new Uint32Array(n);
-  const sortedBad = new Uint8Array(n);
-  for (let i = 0; i < n; i++) {
-    const at = count[values[i] - min]++;
-    order[at] = i;
-    sortedBad[at] = bad[i];
+  const sortedBad = new Uint8Array(bad === null ? 0 : n);
+  if (blocks <= ONE_PASS_BLOCKS) {
+    const next = start.slice(0, blocks);
+    for (let i = 0; i < n; i++) {
+      const at = next[rowBlock[i]]++;
+      order[at] = i;
+      if (bad !== null) sortedBad[at] = bad[i];
+    }
+    return { order, sortedBad };
   }
-  return { order, sortedBad, count: blocks, start, value, goods, bads, nGood: n - nBad, nBad };
+  const shift = Math.ceil(Math.ceil(Math.log2(blocks)) / 2);
+  const mask = (1 << shift) - 1;
+  const lowNext = new Uint32Array(mask + 1);
+  const highNext = new Uint32Array((blocks >>> shift) + 1);
+  for (let k = 0; k < blocks; k++) {
+    const c = start[k + 1] - start[k];
+    lowNext[k & mask] += c;
+    highNext[k >>> shift] += c;
+  }
+  toStarts(lowNext);
+  toStarts(highNext);
+  // By the low digit, then (stable) by the high one.
+  const passRow = new Uint32Array(n);
+  const passBlock = new Uint32Array(n);
+  const passBad = new Uint8Array(bad === null ? 0 : n);
+  for (let i = 0; i < n; i++) {
+    const k = rowBlock[i];
+    const at = lowNext[k & mask]++;
+    passRow[at] = i;
+    passBlock[at] = k;
+    if (bad !== null) passBad[at] = bad[i];
+  }
+  for (let at = 0; at < n; at++) {
+    const to = highNext[passBlock[at] >>> shift]++;
+    order[to] = passRow[at];
+    if (bad !== null) sortedBad[to] = passBad[at];
+  }
+  return { order, sortedBad };
+}
+
+/** Counts turned into the start of each bucket, in place. */
+function toStarts(count: Uint32Array): void {
+  let sum = 0;
+  for (let b = 0; b < count.length; b++) {
+    const c = count[b];
+    count[b] = sum;
+    sum += c;
+  }
+}
+
+/**
+ * Blocks made elsewhere (a worker thread, rank.ts) with the row blocks made with them: rowBlocks
+ * then returns those. `rowBlock` must be the blocks' own (rowBlocks of the same blocks there).
+ */
+export function adoptRowBlocks(blocks: ScoreBlocks, rowBlock: Uint32Array): ScoreBlocks {
+  if (rowBlock.length !== blocks.order.length) throw new RangeError('adoptRowBlocks: one block number per row');
+  rowBlockCache.set(blocks, rowBlock);
+  return blocks;
+}
+
+/**
+ * The block of every row: rowBlocks(blocks)[row] = k when the row lies in block k (its position
+ * in `order` is in [start[k], start[k + 1])). Kept from the keyed sort, else made by one pass in
+ * sorted order and kept for the next caller. Blocks weighed by weighBlocks share their source's.
+ */
+export function rowBlocks(blocks: ScoreBlocks): Uint32Array {
+  let rowBlock = rowBlockCache.get(blocks);
+  if (rowBlock === undefined) {
+    const { order, start, count } = blocks;
+    rowBlock = new Uint32Array(order.length);
+    for (let k = 0; k < count; k++) for (let at = start[k]; at < start[k + 1]; at++) rowBlock[order[at]] = k;
+    rowBlockCache.set(blocks, rowBlock);
+  }
+  return rowBlock;
 }
 
 /** The blocks of values already in ascending order (with their rows and outcomes in that order). O(n). */

@@ -1,6 +1,6 @@
 import type { HigherIs, RejectInference } from '@shared/report';
 import type { Holdout, ModelName, SegmentColumn } from './holdout';
-import { argsortAscending, safety, type ScoreBlocks } from './order';
+import { argsortAscending, rowBlocks, safety, type ScoreBlocks } from './order';
 import { inferBads } from './reject-inference';
 
 /**
@@ -103,6 +103,11 @@ export interface PrepareOptions {
    * are still read row by row (in sorted order, summed as the row-by-row pass sums them).
    */
   blocks?: Partial<Record<ModelName, ScoreBlocks>>;
+  /**
+   * Both models' scores already turned to "higher = safer" by safety() (order.ts) for these very
+   * rows, e.g. the ones the blocks were sorted from: used instead of turning them again.
+   */
+  safety?: Partial<Record<ModelName, Float64Array>>;
   /** The further challengers' orders, in holdout.moreChallengers' order (checked as `orders`). */
   moreOrders?: readonly Uint32Array[];
   /** Reject inference for rows without an outcome (default known-only). */
@@ -144,7 +149,7 @@ export function preparePolicyData(holdout: Holdout, options: PrepareOptions): Pr
     }
   }
   const model = (name: ModelName): PreparedModel =>
-    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.blocks?.[name] ?? options.orders?.[name], weight, known);
+    prepareModel(name, holdout[name], holdout.higherIs[name], bad, options.bands, options.blocks?.[name] ?? options.orders?.[name], weight, known, options.safety?.[name]);
   const champion = model('champion');
   const inference = options.inference ?? { method: 'known-only', parcelFactor: 1 };
   const probability = inferBads(inference, { n, bad, known, weight, inferredBad: holdout.inferredBad ?? null }, champion);
@@ -214,12 +219,14 @@ function prepareModel(
   given: Uint32Array | ScoreBlocks | undefined,
   weight: Float64Array | null,
   known: Uint8Array | null,
+  givenSafety?: Float64Array,
 ): PreparedModel {
   const n = raw.length;
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(raw[i])) throw new Error(`${name} score is not a finite number for account ${i + 1}`);
   }
-  const safe = safety(raw, higherIs);
+  if (givenSafety !== undefined && givenSafety.length !== n) throw new Error(`${name} safety scores must have one entry per account`);
+  const safe = givenSafety ?? safety(raw, higherIs);
   const plain = weight === null && known === null;
   const givenBlocks = given !== undefined && !(given instanceof Uint32Array) ? given : null;
   const order = given === undefined ? argsortAscending(safe) : given instanceof Uint32Array ? given : given.order;
@@ -229,7 +236,7 @@ function prepareModel(
   const badsBefore = plain ? new Uint32Array(n + 1) : new Float64Array(n + 1);
   const accountsBefore = weight === null ? null : new Float64Array(n + 1);
   const knownBefore = known === null ? null : new Float64Array(n + 1);
-  const ends = new Uint32Array(n);
+  const ends = new Uint32Array(givenBlocks !== null ? givenBlocks.count : n);
   let blocks = 0;
   if (givenBlocks !== null) blocks = fromBlocks(name, givenBlocks, safe, bad, sorted, ends, plain ? { badsBefore: badsBefore as Uint32Array } : { badsBefore, accountsBefore, knownBefore, weight, known });
   for (let k = 0; givenBlocks === null && k < n; k++) {
@@ -248,10 +255,13 @@ function prepareModel(
     }
   }
   if (givenBlocks === null) ends[blocks++] = n;
-  const blockEnds = ends.slice(0, blocks);
+  const blockEnds = blocks === ends.length ? ends : ends.slice(0, blocks);
 
-  // Band rule (see the header): each block goes wholly to the band its middle falls in.
+  // Band rule (see the header): each block goes wholly to the band its middle falls in. With the
+  // blocks given, each row looks its block's band up in row order (rowBlocks); else each block's
+  // rows are written in sorted order.
   const band = new Uint8Array(n);
+  const bandOfBlock = givenBlocks !== null ? new Uint8Array(blocks) : null;
   const bandEndList: number[] = [];
   let current = -1;
   let start = 0;
@@ -267,8 +277,13 @@ function prepareModel(
       current = ideal;
     }
     const index = bandEndList.length;
-    for (let k = start; k < end; k++) band[order[k]] = index;
+    if (bandOfBlock !== null) bandOfBlock[b] = index;
+    else for (let k = start; k < end; k++) band[order[k]] = index;
     start = end;
+  }
+  if (bandOfBlock !== null) {
+    const rowBlock = rowBlocks(givenBlocks!);
+    for (let i = 0; i < n; i++) band[i] = bandOfBlock[rowBlock[i]];
   }
   bandEndList.push(n);
 

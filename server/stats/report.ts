@@ -23,6 +23,7 @@ import { knownRows, population } from './known-rows';
 import { ks } from './ks';
 import { safety, scoreBlocks, weighBlocks } from './order';
 import { preparePolicyData } from './policy-data';
+import { rankBoth } from './rank';
 import { addChallengerSections } from './report-challengers';
 import { segments } from './segments';
 import { addSegmentPopulation } from './segment-population';
@@ -116,9 +117,14 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
   report(0, 'Ranking both models');
   request.onStage?.('ranking both models');
   const championSafety = safety(knownHoldout.champion, knownHoldout.higherIs.champion);
-  const challengerSafety = safety(knownHoldout.challenger, knownHoldout.higherIs.challenger);
-  let championBlocks = scoreBlocks(championSafety, bad);
-  let challengerBlocks = scoreBlocks(challengerSafety, bad);
+  // The challenger's safety scores may be lent to a thread (rank.ts) when they are a new array.
+  const ranked = await rankBoth(championSafety, safety(knownHoldout.challenger, knownHoldout.higherIs.challenger), bad, {
+    threads: request.threads,
+    lend: knownHoldout.higherIs.challenger !== 'safer',
+  });
+  const challengerSafety = ranked.challengerValues;
+  let championBlocks = ranked.champion;
+  let challengerBlocks = ranked.challenger;
   if (knownHoldout.weight) {
     championBlocks = weighBlocks(championBlocks, knownHoldout.weight);
     challengerBlocks = weighBlocks(challengerBlocks, knownHoldout.weight);
@@ -193,6 +199,7 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
       orders: knownHoldout === holdout ? knownOrders : undefined,
       blocks: knownHoldout === holdout ? { champion: championBlocks, challenger: challengerBlocks } : undefined,
       moreOrders: knownHoldout === holdout ? moreBlocks.map((blocks) => blocks.order) : undefined,
+      safety: knownHoldout === holdout ? { champion: championSafety, challenger: challengerSafety } : undefined,
       inference,
     });
     // Curves and economics need an outcome: the rows with one (the same data when all are known).
@@ -222,7 +229,12 @@ export async function buildReport(request: BuildReportInput): Promise<Report> {
     profit = settings.economics === null ? null : economics(knownData, settings.economics);
     await breathe();
     request.onStage?.('data quality');
-    quality = dataQuality(holdout, data, request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} });
+    quality = dataQuality(
+      holdout,
+      data,
+      request.read ?? { rowsRead: n, rowsDroppedMissingScore: 0, missingByColumn: {} },
+      knownHoldout === holdout ? { champion: championBlocks, challenger: challengerBlocks } : undefined,
+    );
     stage(PROGRESS.policy, 'Segments');
     await breathe();
 
