@@ -68,9 +68,14 @@ export interface LoadedHoldout {
 /**
  * Columns that grow by doubling, or at once to the size the reader expects once it has seen some
  * rows (reserve). finish() hands over the array itself when it is full or nearly so (a view of
- * its first `length` values), else a copy of that length. Two classes, so that each push site
- * sees one kind of array.
+ * its first `length` values), else a copy of that length. "Nearly": at most a quarter unused — a
+ * reserve made from the first lines' length may be that much too large when lines grow longer
+ * (ids A1 … A9999999); the unused end was never written, so it holds no memory (the pages of a
+ * large array are mapped on first touch), while a copy of a 10M-row column costs a fresh 80 MB.
+ * Three classes, so that each push site sees one kind of array.
  */
+const unusedAtMost = (capacity: number) => capacity >> 2;
+
 class Float64Column {
   data = new Float64Array(1 << 16);
   length = 0;
@@ -85,7 +90,7 @@ class Float64Column {
     this.data[this.length++] = value;
   }
   finish(): Float64Array {
-    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
   }
 }
 
@@ -103,7 +108,31 @@ class Uint32Column {
     this.data[this.length++] = value;
   }
   finish(): Uint32Array {
-    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+  }
+}
+
+/** The plain rows of a load (passOver's plainRows). */
+interface PlainRows {
+  take(text: string, from: number, to: number): boolean;
+  takeBytes(bytes: Uint8Array, from: number, to: number): boolean;
+}
+
+class Uint8Column {
+  data = new Uint8Array(1 << 16);
+  length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length) return;
+    const next = new Uint8Array(capacity);
+    next.set(this.data.subarray(0, this.length));
+    this.data = next;
+  }
+  push(value: number): void {
+    if (this.length === this.data.length) this.reserve(this.data.length * 2);
+    this.data[this.length++] = value;
+  }
+  finish(): Uint8Array {
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
   }
 }
 
@@ -210,13 +239,13 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   let wanted: boolean[] = [];
   let plain: PlainRows | null = null;
 
-  const bad = new Uint32Column();
+  const bad = new Uint8Column();
   const champion = new Float64Column();
   const challenger = new Float64Column();
   const extraScores = extras.map(() => new Float64Column());
   const exposure = exposureName === null ? null : new Float64Column();
   const weight = weightName === null ? null : new Float64Column();
-  const known = keepUnknown ? new Uint32Column() : null;
+  const known = keepUnknown ? new Uint8Column() : null;
   const inferred = inferredName === null ? null : new Float64Column();
   let unknownRows = 0;
   let weightTotal = 0;
@@ -730,8 +759,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   }
   if (sink.errors.length > 0) return { loaded: null, errors: sink.errors };
 
-  const badFlags = new Uint8Array(n);
-  for (let i = 0; i < n; i++) badFlags[i] = bad.data[i];
+  const badFlags = bad.finish();
   const categorical: SegmentColumn[] = segmentNames.map((column, s) => ({
     column,
     levels: [...segmentLevels[s].keys()],
@@ -754,9 +782,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   if (periodName !== null) holdout.period = categoricalColumn(periodName);
   if (weight !== null) holdout.weight = weight.finish();
   if (known !== null && unknownRows > 0) {
-    const flags = new Uint8Array(n);
-    for (let i = 0; i < n; i++) flags[i] = known.data[i];
-    holdout.known = flags;
+    holdout.known = known.finish();
   }
   if (inferred !== null && unknownRows > 0) holdout.inferredBad = inferred.finish();
   return {
