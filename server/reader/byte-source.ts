@@ -8,7 +8,7 @@ import { formatCount } from '@shared/format';
 /**
  * Where a holdout's bytes come from: a file on disk (the CLI, and uploads after multer has
  * written them to disk) or bytes already in memory (tests, small inputs). The reader streams
- * either in 1 MB chunks and never holds the whole file as text.
+ * either in 256 KB chunks and never holds the whole file as text.
  */
 export type HoldoutSource = ({ path: string; fileName?: string } | { bytes: Uint8Array; fileName: string }) & {
   /** For an .xlsx workbook: the sheet to read (default: the first). */
@@ -27,7 +27,7 @@ export interface SourceInfo {
 const CHUNK = 1 << 18;
 
 /**
- * One chunk of the source as read (1 MB or less): its bytes, and its text unless the file has
+ * One chunk of the source as read (256 KB or less): its bytes, and its text unless the file has
  * been ASCII so far — an ASCII chunk is its own text (Latin-1 bytes), which the reader then takes
  * straight from the bytes or copies into a string only when it needs one (asText).
  */

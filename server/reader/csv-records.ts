@@ -335,19 +335,28 @@ export async function readCsv(source: HoldoutSource, info: SourceInfo, handlers:
       handlers.onPlainBytes!(input, found.bounds, found.count, line);
       line += found.count;
     }
-    return input.slice(consumed);
+    // A copy (Uint8Array's slice: a Buffer's would be a view of bytes about to be read over).
+    return Uint8Array.prototype.slice.call(input, consumed);
   };
 
   // What is left of the text read so far after its last full line: as text, or (while the file is
   // ASCII and read as bytes) as bytes. At most one of the two is not empty.
   let carry: Uint8Array = new Uint8Array(0);
+  let work = new Uint8Array(0);
   const bytesOf = (text: string) => Buffer.from(text, 'latin1');
   for await (const chunk of sourceChunks(source, info, handlers.onBytes)) {
     if (!sawText) sawText = chunk.text === undefined ? !onlySpaces(chunk.bytes) : chunk.text.trim().length > 0;
     if (chunk.text === undefined && parser !== null && layout!.header.length > 0 && handlers.onPlainBytes && handlers.onPlainLines) {
       // The file is ASCII so far, so is what is left of it.
       const head = carry.length > 0 ? carry : partial.length > 0 ? bytesOf(partial) : null;
-      const input = head === null ? chunk.bytes : Buffer.concat([head, chunk.bytes]);
+      let input = chunk.bytes;
+      if (head !== null) {
+        // What was left, then the chunk, in a buffer used again for every chunk.
+        if (work.length < head.length + input.length) work = new Uint8Array(2 * (head.length + input.length));
+        work.set(head);
+        work.set(input, head.length);
+        input = work.subarray(0, head.length + input.length);
+      }
       partial = '';
       if (input.indexOf(0x22) === -1) {
         carry = takePlainBytes(input);

@@ -1,3 +1,6 @@
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { ColumnMapping } from '@shared/report';
@@ -68,6 +71,19 @@ function file(rows: number, options: { newline?: string; bom?: boolean; line?: (
   }
   const text = lines.join(newline) + newline;
   return new Uint8Array(Buffer.concat([options.bom ? Buffer.from([0xef, 0xbb, 0xbf]) : Buffer.alloc(0), Buffer.from(text, 'utf8')]));
+}
+
+/**
+ * Lines of exactly 64 bytes (a padding column), so that the first chunks end on a line end, but
+ * for one line of 65 bytes in the second chunk: the second chunk then comes alone (nothing left
+ * of the first) and ends within a line, whose start must be kept as a copy (a Buffer's slice()
+ * is a view of the chunk).
+ */
+function aligned(rows: number): Uint8Array {
+  const pad = (line: string, length: number) => `${line},${'x'.repeat(length - line.length - 2)}\n`;
+  const lines = [pad('id,channel,bad,champion,note,challenger,amount', 64)];
+  for (let i = 0; i < rows; i++) lines.push(pad(`A${i},${['web', 'branch'][i % 2]},${i % 7 === 0 ? 1 : 0},${500 + (i % 97)},n,0.25,100`, i === 5_000 ? 65 : 64));
+  return new TextEncoder().encode(lines.join(''));
 }
 
 const mapping: ColumnMapping = {
@@ -154,6 +170,26 @@ describe('files read through the byte path', () => {
     expect(how(15_000)).toBe('rows');
     expect(how(21_000)).toBe('bytes');
     expect(how(28_000)).toBe('text');
+  });
+
+  it('reads a file on disk as the same bytes in memory', async () => {
+    const line = (i: number) => (i === 9_000 ? `A${i},"web",0,512,n,0.5,100` : i === 17_000 ? `A${i},web,0,5O0,n,0.5,100` : null);
+    const dir = mkdtempSync(join(tmpdir(), 'plain-bytes-'));
+    try {
+      for (const [name, bytes] of [
+        ['clean.csv', file(rows, { newline: '\r\n' })],
+        ['quotes-and-a-bad-value.csv', file(rows, { line })],
+        ['bom.csv', file(rows, { bom: true, line: (i) => (i === 27_000 ? `Ä${i},web,0,512,n,0.5,100` : null) })],
+        ['aligned.csv', aligned(rows)],
+      ] as const) {
+        const path = join(dir, name);
+        writeFileSync(path, bytes);
+        const onDisk = await settle(() => loadHoldout({ path }, mapping));
+        expect(onDisk).toEqual(await settle(() => loadHoldout({ bytes, fileName: name }, mapping, { plainRows: false })));
+      }
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('names the row and column of a bad value in the second chunk', async () => {
