@@ -142,6 +142,33 @@ interface PlainRows {
   takeBytes(bytes: Uint8Array, from: number, to: number): boolean;
 }
 
+/**
+ * The ids: an array sized once like the other columns (reserve), then filled in place, instead of
+ * grown by push — on 10M rows a third of the time of building the ids went into growing the
+ * array (each larger copy a fresh allocation of the collector's). finish() gives it its length.
+ * Beyond MAX_SIZED ids V8 would make a preallocated array a slow dictionary; it then grows by
+ * push as before.
+ */
+class IdColumn {
+  static readonly MAX_SIZED = 30_000_000;
+  private data: string[] = [];
+  length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length || capacity > IdColumn.MAX_SIZED) return;
+    const next = new Array<string>(capacity);
+    for (let i = 0; i < this.length; i++) next[i] = this.data[i];
+    this.data = next;
+  }
+  push(id: string): void {
+    if (this.length < this.data.length) this.data[this.length++] = id;
+    else this.length = this.data.push(id);
+  }
+  finish(): string[] {
+    this.data.length = this.length;
+    return this.data;
+  }
+}
+
 class ErrorSink {
   readonly errors: HoldoutInputError[] = [];
   constructor(private readonly limit: number | null) {}
@@ -249,7 +276,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   const inferred = inferredName === null ? null : new Float64Column();
   let unknownRows = 0;
   let weightTotal = 0;
-  const ids: string[] | null = idName === null ? null : [];
+  const ids = idName === null ? null : new IdColumn();
   const segmentLevels = segmentNames.map(() => new Map<string, number>());
   // Each segment column's levels by code (the keys of segmentLevels, for the plain rows).
   const levelNames = segmentNames.map((): string[] => []);
@@ -561,6 +588,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
     const rows = Math.ceil(((info.bytes / Math.max(1, characters)) * lines * 1.015) + 64);
     if (!(rows > bad.length) || rows > 1e9) return;
     for (const column of [bad, known, ...segmentCodes]) column?.reserve(rows);
+    ids?.reserve(rows);
     for (const column of [champion, challenger, ...extraScores, exposure, weight, inferred]) column?.reserve(rows);
   }
 
@@ -774,7 +802,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
     challenger: challenger.finish(),
     higherIs: { champion: mapping.higherIs.champion, challenger: mapping.higherIs.challenger },
     exposure: exposure === null ? null : exposure.finish(),
-    ids,
+    ids: ids === null ? null : ids.finish(),
     segments,
   };
   if (extras.length > 0) holdout.moreChallengers = extras.map((extra, k) => ({ ...extra, scores: extraScores[k].finish() }));
