@@ -55,7 +55,7 @@ export async function* sourceChunks(source: HoldoutSource, info: SourceInfo, onB
   // A UTF-8 BOM at the start is taken off here; the decoder, fed only from the first byte above
   // 127 on, must then keep any later U+FEFF as text (ignoreBOM), as it would have had it been fed
   // the file from its start.
-  let decoder: TextDecoder | null = null;
+  let decoder: InstanceType<typeof TextDecoder> | null = null;
   let bomRemoved = false;
   let read = 0;
   let first = true;

@@ -112,12 +112,6 @@ class Uint32Column {
   }
 }
 
-/** The plain rows of a load (passOver's plainRows). */
-interface PlainRows {
-  take(text: string, from: number, to: number): boolean;
-  takeBytes(bytes: Uint8Array, from: number, to: number): boolean;
-}
-
 class Uint8Column {
   data = new Uint8Array(1 << 16);
   length = 0;
