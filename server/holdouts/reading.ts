@@ -132,12 +132,17 @@ export function replyOf(error: unknown): ReaderReply {
   return { ok: false, kind: 'other', message: error instanceof Error ? error.message : String(error) };
 }
 
-/** Buffers a reply can transfer: the mapped columns' own, whole buffers. */
+/**
+ * Buffers a reply can transfer: the mapped columns' own buffers, whole or nearly (the reader hands
+ * over a column as a view of its first rows when at most a quarter of it is unused: that end was
+ * never written, and moves for nothing, where a copy would write all of it).
+ */
 export function transferList(task: ReaderTask, value: unknown): ArrayBuffer[] {
   if (task.task !== 'map' && task.task !== 'reference') return [];
   const buffers = new Set<ArrayBuffer>();
   for (const { data } of (value as MappedHoldout | MappedReference).columns) {
-    if (data.byteOffset === 0 && data.byteLength === data.buffer.byteLength && data.buffer instanceof ArrayBuffer && data.byteLength > 4096) buffers.add(data.buffer);
+    const own = data.byteOffset === 0 && data.byteLength >= data.buffer.byteLength - (data.buffer.byteLength >> 2);
+    if (own && data.buffer instanceof ArrayBuffer && data.byteLength > 4096) buffers.add(data.buffer);
   }
   return [...buffers];
 }

@@ -5,7 +5,7 @@ import { type HoldoutSource, type SourceInfo, sourceInfo } from './byte-source';
 import { type CsvLayout, type Delimiter, splitLine } from './csv-records';
 import { inSheetOf, namedIn, readRecords } from './records';
 import { columnName, HoldoutInputError, quoteCell, raggedRowMessage, where } from './errors';
-import { detach, INVALID, isMissing, MISSING, parseNumber, plainDecimal, trimCell } from './values';
+import { asciiString, detach, INVALID, isMissing, MISSING, parseNumber, plainDecimal, plainDecimalBytes, trimCell } from './values';
 import { formatCount } from '@shared/format';
 
 /**
@@ -68,9 +68,14 @@ export interface LoadedHoldout {
 /**
  * Columns that grow by doubling, or at once to the size the reader expects once it has seen some
  * rows (reserve). finish() hands over the array itself when it is full or nearly so (a view of
- * its first `length` values), else a copy of that length. Two classes, so that each push site
- * sees one kind of array.
+ * its first `length` values), else a copy of that length. "Nearly": at most a quarter unused — a
+ * reserve made from the first lines' length may be that much too large when lines grow longer
+ * (ids A1 … A9999999); the unused end was never written, so it holds no memory (the pages of a
+ * large array are mapped on first touch), while a copy of a 10M-row column costs a fresh 80 MB.
+ * Three classes, so that each push site sees one kind of array.
  */
+const unusedAtMost = (capacity: number) => capacity >> 2;
+
 class Float64Column {
   data = new Float64Array(1 << 16);
   length = 0;
@@ -85,7 +90,7 @@ class Float64Column {
     this.data[this.length++] = value;
   }
   finish(): Float64Array {
-    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
   }
 }
 
@@ -103,7 +108,58 @@ class Uint32Column {
     this.data[this.length++] = value;
   }
   finish(): Uint32Array {
-    return this.data.length - this.length <= this.data.length >> 5 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+  }
+}
+
+class Uint8Column {
+  data = new Uint8Array(1 << 16);
+  length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length) return;
+    const next = new Uint8Array(capacity);
+    next.set(this.data.subarray(0, this.length));
+    this.data = next;
+  }
+  push(value: number): void {
+    if (this.length === this.data.length) this.reserve(this.data.length * 2);
+    this.data[this.length++] = value;
+  }
+  finish(): Uint8Array {
+    return this.data.length - this.length <= unusedAtMost(this.data.length) ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+  }
+}
+
+/** The plain rows of a load (passOver's plainRows). */
+interface PlainRows {
+  take(text: string, from: number, to: number): boolean;
+  takeBytes(bytes: Uint8Array, from: number, to: number): boolean;
+}
+
+/**
+ * The ids: an array sized once like the other columns (reserve), then filled in place, instead of
+ * grown by push — on 10M rows a third of the time of building the ids went into growing the
+ * array (each larger copy a fresh allocation of the collector's). finish() gives it its length.
+ * Beyond MAX_SIZED ids V8 would make a preallocated array a slow dictionary; it then grows by
+ * push as before.
+ */
+class IdColumn {
+  static readonly MAX_SIZED = 30_000_000;
+  private data: string[] = [];
+  length = 0;
+  reserve(capacity: number): void {
+    if (capacity <= this.data.length || capacity > IdColumn.MAX_SIZED) return;
+    const next = new Array<string>(capacity);
+    for (let i = 0; i < this.length; i++) next[i] = this.data[i];
+    this.data = next;
+  }
+  push(id: string): void {
+    if (this.length < this.data.length) this.data[this.length++] = id;
+    else this.length = this.data.push(id);
+  }
+  finish(): string[] {
+    this.data.length = this.length;
+    return this.data;
   }
 }
 
@@ -202,19 +258,19 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   let newline: CsvLayout['newline'] = '\n';
   let delimiter: Delimiter = ',';
   let wanted: boolean[] = [];
-  let plain: { take(text: string, from: number, to: number): boolean } | null = null;
+  let plain: PlainRows | null = null;
 
-  const bad = new Uint32Column();
+  const bad = new Uint8Column();
   const champion = new Float64Column();
   const challenger = new Float64Column();
   const extraScores = extras.map(() => new Float64Column());
   const exposure = exposureName === null ? null : new Float64Column();
   const weight = weightName === null ? null : new Float64Column();
-  const known = keepUnknown ? new Uint32Column() : null;
+  const known = keepUnknown ? new Uint8Column() : null;
   const inferred = inferredName === null ? null : new Float64Column();
   let unknownRows = 0;
   let weightTotal = 0;
-  const ids: string[] | null = idName === null ? null : [];
+  const ids = idName === null ? null : new IdColumn();
   const segmentLevels = segmentNames.map(() => new Map<string, number>());
   // Each segment column's levels by code (the keys of segmentLevels, for the plain rows).
   const levelNames = segmentNames.map((): string[] => []);
@@ -316,9 +372,10 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
    * decimal (values.ts plainDecimal: Number()'s value, bit for bit), the id without surrounding
    * spaces, each segment a level already met. take() is false for any other row, which then goes
    * through readRow: both give the same holdout and the same errors, in file order. Not used with
-   * an inferred-bad column (read on unknown rows only).
+   * an inferred-bad column (read on unknown rows only). takeBytes() is take() on a line of ASCII
+   * held as bytes (csv-records.ts onPlainBytes), the same rules on the same characters.
    */
-  function plainRows(): { take(text: string, from: number, to: number): boolean } {
+  function plainRows(): PlainRows {
     const starts = new Int32Array(width + 1);
     const separator = delimiter.charCodeAt(0);
     const scoreAt = [championAt, challengerAt, ...extraAt];
@@ -330,6 +387,11 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
       for (let i = 0; i < value.length; i++) if (text.charCodeAt(from + i) !== value.charCodeAt(i)) return false;
       return true;
     };
+    const sameBytes = (bytes: Uint8Array, from: number, to: number, value: string) => {
+      if (to - from !== value.length) return false;
+      for (let i = 0; i < value.length; i++) if (bytes[from + i] !== value.charCodeAt(i)) return false;
+      return true;
+    };
     /** The code of a level already met, or -1. */
     const levelCode = (s: number, text: string, from: number, to: number): number => {
       if (from === to || text.charCodeAt(from) <= 32 || text.charCodeAt(to - 1) <= 32) return -1;
@@ -339,6 +401,33 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
       if (names.length > 64) return segmentLevels[s].get(text.substring(from, to)) ?? -1;
       for (let code = 0; code < names.length; code++) if (same(text, from, to, names[code])) return code;
       return -1;
+    };
+    const levelCodeBytes = (s: number, bytes: Uint8Array, from: number, to: number): number => {
+      if (from === to || bytes[from] <= 32 || bytes[to - 1] <= 32) return -1;
+      const names = levelNames[s];
+      const last = codes[s];
+      if (last < names.length && sameBytes(bytes, from, to, names[last])) return last;
+      if (names.length > 64) return segmentLevels[s].get(asciiString(bytes, from, to)) ?? -1;
+      for (let code = 0; code < names.length; code++) if (sameBytes(bytes, from, to, names[code])) return code;
+      return -1;
+    };
+    /** Stored as readRow stores a row without problems. */
+    const store = (outcome: number, rowWeight: number, amount: number, id: string | null) => {
+      rowsRead++;
+      bad.push(outcome);
+      bads += outcome;
+      if (known !== null) known.push(1);
+      if (weight !== null) {
+        weight.push(rowWeight);
+        weightTotal += rowWeight;
+      }
+      champion.push(scores[0]);
+      challenger.push(scores[1]);
+      for (let k = 2; k < scores.length; k++) extraScores[k - 2].push(scores[k]);
+      if (exposure !== null) exposure.push(amount);
+      if (ids !== null) ids.push(id!);
+      for (let s = 0; s < segmentAt.length; s++) segmentCodes[s].push(codes[s]);
+      return true;
     };
     const take = (text: string, from: number, to: number): boolean => {
       let field = 0;
@@ -380,24 +469,51 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
         if (code < 0) return false;
         codes[s] = code;
       }
-      // Stored as readRow stores a row without problems.
-      rowsRead++;
-      bad.push(outcome);
-      bads += outcome;
-      if (known !== null) known.push(1);
-      if (weight !== null) {
-        weight.push(rowWeight);
-        weightTotal += rowWeight;
-      }
-      champion.push(scores[0]);
-      challenger.push(scores[1]);
-      for (let k = 2; k < scores.length; k++) extraScores[k - 2].push(scores[k]);
-      if (exposure !== null) exposure.push(amount);
-      if (ids !== null) ids.push(detach(text.substring(idFrom, idTo)));
-      for (let s = 0; s < segmentAt.length; s++) segmentCodes[s].push(codes[s]);
-      return true;
+      return store(outcome, rowWeight, amount, ids === null ? null : detach(text.substring(idFrom, idTo)));
     };
-    return { take };
+    const takeBytes = (bytes: Uint8Array, from: number, to: number): boolean => {
+      let field = 0;
+      starts[0] = from;
+      for (let at = from; at < to; at++) {
+        if (bytes[at] === separator) {
+          if (++field === width) return false;
+          starts[field] = at + 1;
+        }
+      }
+      if (field !== width - 1) return false;
+      starts[width] = to + 1;
+      const outcomeFrom = starts[outcomeAt];
+      const outcomeTo = starts[outcomeAt + 1] - 1;
+      let outcome: number;
+      if (sameBytes(bytes, outcomeFrom, outcomeTo, badValue)) outcome = 1;
+      else if (goodValue !== null && sameBytes(bytes, outcomeFrom, outcomeTo, goodValue)) outcome = 0;
+      else return false;
+      for (let k = 0; k < scoreAt.length; k++) {
+        const value = plainDecimalBytes(bytes, starts[scoreAt[k]], starts[scoreAt[k] + 1] - 1);
+        if (value !== value || (probability[k] && !(value >= 0 && value <= 1))) return false;
+        scores[k] = value;
+      }
+      let rowWeight = 1;
+      if (weightAt >= 0) {
+        rowWeight = plainDecimalBytes(bytes, starts[weightAt], starts[weightAt + 1] - 1);
+        if (!(rowWeight > 0)) return false;
+      }
+      let amount = 0;
+      if (exposureAt >= 0) {
+        amount = plainDecimalBytes(bytes, starts[exposureAt], starts[exposureAt + 1] - 1);
+        if (amount !== amount) return false;
+      }
+      const idFrom = idAt >= 0 ? starts[idAt] : 0;
+      const idTo = idAt >= 0 ? starts[idAt + 1] - 1 : 0;
+      if (idAt >= 0 && (idFrom === idTo || bytes[idFrom] <= 32 || bytes[idTo - 1] <= 32)) return false;
+      for (let s = 0; s < segmentAt.length; s++) {
+        const code = levelCodeBytes(s, bytes, starts[segmentAt[s]], starts[segmentAt[s] + 1] - 1);
+        if (code < 0) return false;
+        codes[s] = code;
+      }
+      return store(outcome, rowWeight, amount, ids === null ? null : asciiString(bytes, idFrom, idTo));
+    };
+    return { take, takeBytes };
   }
 
   // In validation mode a problem that stops the reader (a row too long, a quote never closed) is
@@ -440,6 +556,20 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
               if (!readRow(splitLine(text, from, to, delimiter, wanted), firstLine + i)) return;
             }
           },
+    onPlainBytes:
+      options.plainRows === false
+        ? undefined
+        : (bytes, bounds, count, firstLine) => {
+            if (!reserved && count >= 1000) reserve(count, bounds[2 * count - 1] - bounds[0]);
+            for (let i = 0; i < count; i++) {
+              const from = bounds[2 * i];
+              const to = bounds[2 * i + 1];
+              if (plain !== null && !sink.full && plain.takeBytes(bytes, from, to)) continue;
+              // Any other line as text (ASCII: each byte its character), as onPlainLines reads it.
+              const line = asciiString(bytes, from, to);
+              if (!readRow(splitLine(line, 0, line.length, delimiter, wanted), firstLine + i)) return;
+            }
+          },
   });
 
   /**
@@ -452,6 +582,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
     const rows = Math.ceil(((info.bytes / Math.max(1, characters)) * lines * 1.015) + 64);
     if (!(rows > bad.length) || rows > 1e9) return;
     for (const column of [bad, known, ...segmentCodes]) column?.reserve(rows);
+    ids?.reserve(rows);
     for (const column of [champion, challenger, ...extraScores, exposure, weight, inferred]) column?.reserve(rows);
   }
 
@@ -650,8 +781,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   }
   if (sink.errors.length > 0) return { loaded: null, errors: sink.errors };
 
-  const badFlags = new Uint8Array(n);
-  for (let i = 0; i < n; i++) badFlags[i] = bad.data[i];
+  const badFlags = bad.finish();
   const categorical: SegmentColumn[] = segmentNames.map((column, s) => ({
     column,
     levels: [...segmentLevels[s].keys()],
@@ -666,7 +796,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
     challenger: challenger.finish(),
     higherIs: { champion: mapping.higherIs.champion, challenger: mapping.higherIs.challenger },
     exposure: exposure === null ? null : exposure.finish(),
-    ids,
+    ids: ids === null ? null : ids.finish(),
     segments,
   };
   if (extras.length > 0) holdout.moreChallengers = extras.map((extra, k) => ({ ...extra, scores: extraScores[k].finish() }));
@@ -674,9 +804,7 @@ async function passOver(source: HoldoutSource, info: SourceInfo, mapping: Column
   if (periodName !== null) holdout.period = categoricalColumn(periodName);
   if (weight !== null) holdout.weight = weight.finish();
   if (known !== null && unknownRows > 0) {
-    const flags = new Uint8Array(n);
-    for (let i = 0; i < n; i++) flags[i] = known.data[i];
-    holdout.known = flags;
+    holdout.known = known.finish();
   }
   if (inferred !== null && unknownRows > 0) holdout.inferredBad = inferred.finish();
   return {

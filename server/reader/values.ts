@@ -101,3 +101,73 @@ export function plainDecimal(text: string, from: number, to: number): number {
   const value = scale === 0 ? mantissa : mantissa / EXACT_POWERS[scale];
   return negative ? -value : value;
 }
+
+/** plainDecimal on ASCII text held as bytes: the value of bytes[from, to), or NaN (the same rules, the same double). */
+export function plainDecimalBytes(bytes: Uint8Array, from: number, to: number): number {
+  let at = from;
+  if (at >= to) return NaN;
+  let c = bytes[at];
+  const negative = c === 45;
+  if (negative && ++at < to) c = bytes[at];
+  let mantissa = 0;
+  let digits = 0;
+  while (at < to && c >= 48 && c <= 57) {
+    mantissa = mantissa * 10 + (c - 48);
+    digits++;
+    if (++at < to) c = bytes[at];
+  }
+  if (digits === 0) return NaN;
+  let scale = 0;
+  if (at < to) {
+    if (c !== 46) return NaN;
+    at++;
+    if (at === to) return NaN;
+    for (; at < to; at++) {
+      c = bytes[at];
+      if (c < 48 || c > 57) return NaN;
+      mantissa = mantissa * 10 + (c - 48);
+      scale++;
+    }
+    digits += scale;
+  }
+  if (digits > 15) return NaN;
+  const value = scale === 0 ? mantissa : mantissa / EXACT_POWERS[scale];
+  return negative ? -value : value;
+}
+
+const char = String.fromCharCode;
+
+/**
+ * The string of ASCII bytes[from, to): a fresh string of its own (never a view of a larger one),
+ * built from its character codes for the short cells an id usually is, else copied by Buffer.
+ */
+export function asciiString(bytes: Uint8Array, from: number, to: number): string {
+  const b = bytes;
+  const i = from;
+  switch (to - from) {
+    case 0:
+      return '';
+    case 1:
+      return char(b[i]);
+    case 2:
+      return char(b[i], b[i + 1]);
+    case 3:
+      return char(b[i], b[i + 1], b[i + 2]);
+    case 4:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3]);
+    case 5:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4]);
+    case 6:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4], b[i + 5]);
+    case 7:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4], b[i + 5], b[i + 6]);
+    case 8:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4], b[i + 5], b[i + 6], b[i + 7]);
+    case 9:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4], b[i + 5], b[i + 6], b[i + 7], b[i + 8]);
+    case 10:
+      return char(b[i], b[i + 1], b[i + 2], b[i + 3], b[i + 4], b[i + 5], b[i + 6], b[i + 7], b[i + 8], b[i + 9]);
+    default:
+      return Buffer.from(b.buffer, b.byteOffset + from, to - from).toString('latin1');
+  }
+}
