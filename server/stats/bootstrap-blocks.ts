@@ -2,24 +2,21 @@ import type { BootstrapPlan } from './bootstrap-kernel';
 import { shared } from './bootstrap-kernel';
 
 /**
- * The challenger's side of a bootstrap replicate by block totals instead of cell by cell
- * (issue 20).
+ * The challenger's side of a bootstrap replicate by block totals instead of cell by cell, on the
+ * WebAssembly lanes (issue 20; bootstrap-lanes.ts, wasm/bootstrap-lanes.ts blockTotalsFour).
  *
  * AUC and KS of the challenger depend on a replicate only through the good and bad draws in each
  * of its blocks of equal scores. The cells are (champion score, challenger score, outcome)
  * combinations, so where the challenger's blocks hold many cells — points, or PD scores rounded
  * to six decimals on millions of rows (ten million cells in some 630,000 challenger blocks) — the
- * counts need not be laid out in challenger order: the draw writes them in champion order only
- * (drawPoissonCountsOnly), one sequential pass adds each cell's count to its (challenger block,
- * outcome) total after the stratum adjustment (addBlockTotals; the totals are 4 bytes each, 2 per
- * block, a few megabytes at most), and the challenger is scored from the totals
- * (scoreBlockCounts in bootstrap-score.ts). That replaces the scattered or staged writes of the
- * cell-by-cell layout (bootstrap-kernel.ts, bootstrap-scatter.ts) and a scoring pass over every
- * cell in challenger order.
+ * counts need not be laid out in challenger order: one sequential pass adds each cell's counts to
+ * its (challenger block, outcome) totals after the stratum adjustment (a few megabytes at most),
+ * and the challenger is scored from the totals. That replaces a scattered write per cell and a
+ * scoring pass over every cell in challenger order.
  *
  * The totals are integers and the sums that make AUC and KS from them are exact (see
  * bootstrap-score.ts), so both layouts give the same replicate values to the bit; the tests run
- * both on the same plans. With continuous scores nearly every cell is its own block, the totals
+ * both on the same plans, and against the TypeScript kernel, which always goes cell by cell. With continuous scores nearly every cell is its own block, the totals
  * would outweigh the cell counts they replace, and the cell layout stays; with sampling weights
  * the cell layout stays too (the weighted sums depend on the order of their terms).
  */
@@ -60,8 +57,3 @@ export function withChallengerBlocks(plan: BootstrapPlan): BootstrapPlan {
   return { ...plan, challengerBlocks: { key, blocks: block } };
 }
 
-/** The challenger's (block, outcome) totals of a replicate's counts (champion order). */
-export function addBlockTotals(counts: Uint16Array, key: Uint32Array, blockCounts: Uint32Array, cells: number): void {
-  blockCounts.fill(0);
-  for (let c = 0; c < cells; c++) blockCounts[key[c]] += counts[c];
-}

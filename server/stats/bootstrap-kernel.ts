@@ -1,8 +1,8 @@
 import seedrandom from 'seedrandom';
-import { drawPoissonCounts, drawPoissonCountsOnly, INV_TWO_POW_32, poissonTables, TWO_POW_32 } from './bootstrap-poisson';
+import { drawPoissonCounts, INV_TWO_POW_32, poissonTables, TWO_POW_32 } from './bootstrap-poisson';
 import { type StagedScatter, spreadStaged } from './bootstrap-scatter';
-import { addBlockTotals, type ChallengerBlocks } from './bootstrap-blocks';
-import { scoreBlockCounts, scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
+import type { ChallengerBlocks } from './bootstrap-blocks';
+import { scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
 import type { ScoreBlocks } from './order';
 
 export { POISSON_TABLE_MAX, type PoissonTables, poissonOneThreshold, poissonTables } from './bootstrap-poisson';
@@ -82,7 +82,8 @@ export interface BootstrapPlan {
   more: ModelLayout[];
   /** Large plans: the challenger-order writes staged through windows (bootstrap-scatter.ts). */
   scatter?: StagedScatter | null;
-  /** Plans with many cells per challenger block: the challenger by block totals (bootstrap-blocks.ts). */
+  /** Plans with many cells per challenger block: the challenger by block totals on the WebAssembly
+   * lanes (bootstrap-blocks.ts); this file's kernel lays it out cell by cell whatever this holds. */
   challengerBlocks?: ChallengerBlocks | null;
 }
 
@@ -307,13 +308,11 @@ export interface ReplicateOutput {
   ksMore?: Float64Array[];
 }
 
-/** Scratch space for runReplicates: each cell's count, in champion and in challenger order (or
- * the challenger's block totals), and the scoring passes' block totals for each model. */
+/** Scratch space for runReplicates: each cell's count, in champion and in challenger order, and
+ * the scoring passes' block totals for each model. */
 export interface ReplicateScratch {
   counts: Uint16Array;
   countsChallenger: Uint16Array;
-  /** The challenger's (block, outcome) totals of a plan with challengerBlocks, else empty. */
-  blockCounts: Uint32Array;
   scoreChampion: ScoreScratch;
   scoreChallenger: ScoreScratch;
   /** Further challengers: counts in each one's order, and its scoring scratch. */
@@ -330,13 +329,11 @@ const blockEnds = (flags: Uint8Array, cells: number) => {
 };
 
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
-  const byBlocks = plan.challengerBlocks ?? null;
   return {
     counts: new Uint16Array(plan.cells),
-    countsChallenger: new Uint16Array(byBlocks ? 0 : plan.cells),
-    blockCounts: new Uint32Array(byBlocks ? 2 * byBlocks.blocks : 0),
+    countsChallenger: new Uint16Array(plan.cells),
     scoreChampion: scoreScratch(blockEnds(plan.flagsChampion, plan.cells)),
-    scoreChallenger: scoreScratch(byBlocks ? 0 : blockEnds(plan.flagsChallenger, plan.cells)),
+    scoreChallenger: scoreScratch(blockEnds(plan.flagsChallenger, plan.cells)),
     countsMore: plan.more.map(() => new Uint16Array(plan.cells)),
     scoreMore: plan.more.map((layout) => scoreScratch(blockEnds(layout.flags, plan.cells))),
     staged: plan.scatter ? new Uint16Array(plan.cells) : null,
@@ -346,10 +343,8 @@ export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
 /**
  * Runs replicates [from, to) and writes their results at [from − offset, to − offset) of `out`.
  * The counts are written in both orders as they are drawn (a scatter, staged for large plans), so
- * both scoring passes read memory in sequence; or, for a plan with challengerBlocks, in champion
- * order only, the challenger's block totals added up after the stratum adjustment
- * (bootstrap-blocks.ts). Each step is its own small function: V8 keeps their loop variables in
- * registers, which it does not manage in one long function.
+ * both passes read memory in sequence. Each step is its own small function: V8 keeps their loop
+ * variables in registers, which it does not manage in one long function.
  */
 export function runReplicates(
   plan: BootstrapPlan,
@@ -363,37 +358,29 @@ export function runReplicates(
   inspect?: (replicate: number, counts: Uint16Array) => void,
 ): void {
   const { cells, nGood, nBad, size, flagsChampion, positionChallenger, flagsChallenger, goodCells, badCells } = plan;
-  const { counts, countsChallenger, blockCounts } = scratch;
-  const byBlocks = plan.challengerBlocks ?? null;
-  // The challenger's cell counts, which the stratum adjustment changes too; none with block totals.
-  const challenger = byBlocks ? null : countsChallenger;
+  const { counts, countsChallenger } = scratch;
   const tables = poissonTables();
   const totals = new Float64Array(3);
   const scores = new Float64Array(2);
   for (let r = from; r < to; r++) {
     const state = replicateState(seed, r);
     // 1. Poisson(m_c) counts; totals = [all draws, bad draws, max count / size].
-    //    In challenger order directly, or through the staging array of a large plan, or not at all.
-    if (byBlocks) drawPoissonCountsOnly(cells, size, flagsChampion, counts, state, tables, totals);
-    else if (plan.scatter && scratch.staged) {
+    //    In challenger order directly, or through the staging array of a large plan.
+    if (plan.scatter && scratch.staged) {
       drawPoissonCounts(cells, size, flagsChampion, plan.scatter.slot, counts, scratch.staged, state, tables, totals);
       spreadStaged(plan.scatter.position, scratch.staged, countsChallenger, cells);
     } else drawPoissonCounts(cells, size, flagsChampion, positionChallenger, counts, countsChallenger, state, tables, totals);
     // 2. Bring each stratum's total to its size.
     const bound = totals[2] * (1 + 1e-12);
-    adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, challenger, state);
-    adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, challenger, state);
+    adjustStratum(goodCells, nGood, totals[0] - totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
+    adjustStratum(badCells, nBad, totals[1], bound, size, positionChallenger, counts, countsChallenger, state);
     if (inspect) inspect(r, counts);
-    // 3. and 4. Both models, each over the cells in its own order (or the challenger's block
-    //    totals), blocks taken whole.
+    // 3. and 4. Both models, each over the cells in its own order, blocks taken whole.
     if (plan.weightChampion) scoreCellsWeighted(counts, flagsChampion, plan.weightChampion, cells, scores, scratch.scoreChampion);
     else scoreCells(counts, flagsChampion, cells, nGood, nBad, scores, scratch.scoreChampion);
     out.aucChampion[r - offset] = scores[0];
     out.ksChampion[r - offset] = scores[1];
-    if (byBlocks) {
-      addBlockTotals(counts, byBlocks.key, blockCounts, cells);
-      scoreBlockCounts(blockCounts, byBlocks.blocks, nGood, nBad, scores);
-    } else if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores, scratch.scoreChallenger);
+    if (plan.weightChallenger) scoreCellsWeighted(countsChallenger, flagsChallenger, plan.weightChallenger, cells, scores, scratch.scoreChallenger);
     else scoreCells(countsChallenger, flagsChallenger, cells, nGood, nBad, scores, scratch.scoreChallenger);
     out.aucChallenger[r - offset] = scores[0];
     out.ksChallenger[r - offset] = scores[1];
@@ -418,8 +405,9 @@ function scatter(counts: Uint16Array, position: Uint32Array, target: Uint16Array
 /**
  * Brings one stratum's total from `total` to `target`: removes uniformly chosen draws (a cell
  * proposed by a uniform account, accepted with probability (count/size)/bound), or adds draws
- * of uniform accounts. `bound` ≥ every count/size. Each change goes to the cell's count and, in
- * the cell-by-cell layout, to its count in challenger order (countsChallenger null otherwise).
+ * of uniform accounts. `bound` ≥ every count/size. Each change goes to the cell's count and to
+ * its count in challenger order (countsChallenger; null where that is laid out afterwards, as on
+ * the WebAssembly lanes).
  */
 export function adjustStratum(
   urn: Uint32Array,

@@ -111,32 +111,6 @@ function blockSums(good: Float64Array, bad: Float64Array, blocks: number, nGood:
   scores[1] = Math.max(high, -low) / pairs;
 }
 
-/**
- * AUC and KS from a model's (block, outcome) totals (bootstrap-blocks.ts): counts[2j] goods and
- * counts[2j + 1] bads in block j, blocks in the model's order. The sums of blockSums with the
- * running totals taken on the way, so the same bits as scoreCells on the same draws.
- */
-export function scoreBlockCounts(counts: Uint32Array, blocks: number, nGood: number, nBad: number, scores: Float64Array): void {
-  let totalGood = 0;
-  let totalBad = 0;
-  let wins2 = 0;
-  let high = 0;
-  let low = 0;
-  for (let j = 0; j < blocks; j++) {
-    const g = counts[2 * j];
-    const b = counts[2 * j + 1];
-    wins2 += g * (2 * totalBad + b);
-    totalGood += g;
-    totalBad += b;
-    const d = totalBad * nGood - totalGood * nBad;
-    high = Math.max(high, d);
-    low = Math.min(low, d);
-  }
-  const pairs = nGood * nBad;
-  scores[0] = (wins2 * 0.5) / pairs;
-  scores[1] = Math.max(high, -low) / pairs;
-}
-
 /*
  * With sampling weights (bootstrap-kernel.ts): each cell counts count × its rows' weight, and
  * the replicate's total good and bad weights (which vary from replicate to replicate) take the

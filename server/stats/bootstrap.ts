@@ -3,7 +3,7 @@ import type { Worker } from 'node:worker_threads';
 import type { Bootstrap, Histogram, Interval } from '@shared/report';
 import { startWorker } from '@server/runtime';
 import type { BootstrapPlan, ReplicateOutput } from './bootstrap-kernel';
-import { lanesModule, rangeScratch, runReplicateRange } from './bootstrap-lanes';
+import { type CompiledLanes, lanesModule, rangeScratch, runReplicateRange, runsInLanes } from './bootstrap-lanes';
 import { blockTotalsPay, withChallengerBlocks } from './bootstrap-blocks';
 import { planBootstrap } from './bootstrap-plan';
 import { SCATTER_CELLS, stageScatter } from './bootstrap-scatter';
@@ -128,7 +128,7 @@ function allocate(length: number, more: number): ReplicateOutput {
   };
 }
 
-async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, threads: number, out: ReplicateOutput): Promise<void> {
+async function runOnThreads(plan: BootstrapPlan, lanes: CompiledLanes | null, options: BootstrapOptions, threads: number, out: ReplicateOutput): Promise<void> {
   const total = options.replicates;
   const blocks = Math.ceil(total / BLOCK);
   let nextBlock = 0;
@@ -145,7 +145,7 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
     aborted.catch(() => {});
     const run = Promise.all(
       Array.from({ length: Math.min(threads, blocks) }, async () => {
-        const worker = startWorker('server/stats/bootstrap-worker', { workerData: { plan, seed: options.seed, lanes: options.lanes === false ? null : lanesModule() } });
+        const worker = startWorker('server/stats/bootstrap-worker', { workerData: { plan, seed: options.seed, lanes } });
         workers.push(worker);
         let pending = 0;
         await new Promise<void>((resolve, reject) => {
@@ -187,8 +187,8 @@ async function runOnThreads(plan: BootstrapPlan, options: BootstrapOptions, thre
   }
 }
 
-async function runHere(plan: BootstrapPlan, options: BootstrapOptions, out: ReplicateOutput): Promise<void> {
-  const scratch = rangeScratch(plan, options.lanes === false ? null : lanesModule());
+async function runHere(plan: BootstrapPlan, lanes: CompiledLanes | null, options: BootstrapOptions, out: ReplicateOutput): Promise<void> {
+  const scratch = rangeScratch(plan, lanes);
   const total = options.replicates;
   for (let from = 0; from < total; from += BLOCK) {
     const to = Math.min(total, from + BLOCK);
@@ -218,16 +218,23 @@ export async function bootstrap(
   if (champion.nGood === 0 || champion.nBad === 0) throw new StatisticError('the bootstrap requires at least one good and one bad');
 
   const planned = planBootstrap(champion, challenger, bad, champion.weights?.row ?? null, moreModels);
-  // Plans with many cells per challenger block score the challenger from block totals
-  // (bootstrap-blocks.ts); other large plans stage their challenger-order writes
-  // (bootstrap-scatter.ts). The same replicates either way.
-  const byBlocks = blockTotalsPay(planned);
-  const plan = byBlocks ? withChallengerBlocks(planned) : planned.cells >= (options.stageFrom ?? SCATTER_CELLS) ? stageScatter(planned) : planned;
+  // On the WebAssembly lanes the challenger goes by block totals where its blocks hold many cells
+  // (bootstrap-blocks.ts); the TypeScript kernel stages its challenger-order writes in large plans
+  // (bootstrap-scatter.ts). The same replicates every way.
+  const lanes = options.lanes === false ? null : lanesModule();
+  const plan =
+    lanes !== null && runsInLanes(planned)
+      ? blockTotalsPay(planned)
+        ? withChallengerBlocks(planned)
+        : planned
+      : planned.cells >= (options.stageFrom ?? SCATTER_CELLS)
+        ? stageScatter(planned)
+        : planned;
   const out = allocate(replicates, moreModels.length);
   const cores = Math.max(1, availableParallelism());
   const threads = options.threads ?? (plan.cells * replicates >= THREAD_THRESHOLD ? cores : 0);
-  if (threads > 0) await runOnThreads(plan, options, threads, out);
-  else await runHere(plan, options, out);
+  if (threads > 0) await runOnThreads(plan, lanes, options, threads, out);
+  else await runHere(plan, lanes, options, out);
 
   const deltaGini = new Float64Array(replicates);
   const deltaKs = new Float64Array(replicates);
