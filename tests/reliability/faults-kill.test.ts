@@ -135,7 +135,9 @@ describe('SIGKILL during an upload', () => {
 
 describe('SIGKILL during an analysis', () => {
   let holdoutId: number;
-  const settings = { bootstrap: 1000, seed: 11 };
+  // Enough replicates that the bootstrap is still under way when the test looks (a few seconds on
+  // two cores since the engine runs four replicates at a time; 1,000 ended before the first look).
+  const settings = { bootstrap: 10_000, seed: 11 };
 
   beforeAll(async () => {
     const answer = await modeler.streamUpload(small);
