@@ -1,5 +1,4 @@
-import type { BootstrapPlan } from './bootstrap-kernel';
-import { shared } from './bootstrap-kernel';
+import { blockEnds, type BootstrapPlan, shared } from './bootstrap-kernel';
 
 /**
  * The challenger's side of a bootstrap replicate by block totals instead of cell by cell, on the
@@ -33,13 +32,7 @@ export interface ChallengerBlocks {
  */
 export function blockTotalsPay(plan: BootstrapPlan): boolean {
   if (plan.weightChampion !== null) return false;
-  return 2 * challengerBlockCount(plan) * 4 <= plan.cells;
-}
-
-function challengerBlockCount(plan: BootstrapPlan): number {
-  let blocks = 0;
-  for (let j = 0; j < plan.cells; j++) blocks += plan.flagsChallenger[j] >> 1;
-  return blocks;
+  return 2 * blockEnds(plan.flagsChallenger, plan.cells) * 4 <= plan.cells;
 }
 
 /** The plan with the challenger's block totals keyed (see above); O(cells) once per bootstrap. */

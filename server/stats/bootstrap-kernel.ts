@@ -5,8 +5,6 @@ import type { ChallengerBlocks } from './bootstrap-blocks';
 import { scoreCells, scoreCellsWeighted, type ScoreScratch, scoreScratch } from './bootstrap-score';
 import type { ScoreBlocks } from './order';
 
-export { POISSON_TABLE_MAX, type PoissonTables, poissonOneThreshold, poissonTables } from './bootstrap-poisson';
-
 /**
  * The bootstrap's inner loop, shared by the calling thread and the worker threads
  * (bootstrap-worker.ts). See bootstrap.ts for the method; this file holds the data layout and
@@ -322,11 +320,12 @@ export interface ReplicateScratch {
   staged: Uint16Array | null;
 }
 
-const blockEnds = (flags: Uint8Array, cells: number) => {
+/** The number of blocks of a model's order: its cells flagged as a block's last (bit 1). */
+export function blockEnds(flags: Uint8Array, cells: number): number {
   let blocks = 0;
   for (let c = 0; c < cells; c++) blocks += flags[c] >> 1;
   return blocks;
-};
+}
 
 export function replicateScratch(plan: BootstrapPlan): ReplicateScratch {
   return {

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { projectRoot } from '@server/runtime';
-import { adjustStratum, type BootstrapPlan, type ReplicateOutput, type ReplicateScratch, replicateScratch, replicateState, runReplicates } from './bootstrap-kernel';
+import { adjustStratum, blockEnds, type BootstrapPlan, type ReplicateOutput, type ReplicateScratch, replicateScratch, replicateState, runReplicates } from './bootstrap-kernel';
 import { poissonTables } from './bootstrap-poisson';
 
 /**
@@ -88,12 +88,6 @@ export function lanesModule(): CompiledLanes | null {
 /** Whether the plan can run four replicates at a time: two models (no further challengers). */
 export function runsInLanes(plan: BootstrapPlan): boolean {
   return plan.more.length === 0;
-}
-
-function blockEnds(flags: Uint8Array, cells: number): number {
-  let blocks = 0;
-  for (let c = 0; c < cells; c++) blocks += flags[c] >> 1;
-  return blocks;
 }
 
 /** One thread's instance of the kernel, with the plan copied into its memory. */

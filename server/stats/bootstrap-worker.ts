@@ -4,8 +4,8 @@ import { type CompiledLanes, rangeScratch, runReplicateRange } from './bootstrap
 
 /**
  * Worker thread of the bootstrap (started by bootstrap.ts through workerEntry()): receives the
- * cell plan once (shared memory, no copy), then blocks of replicates { from, to }; answers each
- * with its results.
+ * cell plan once (shared memory, no copy) and the compiled WebAssembly kernel (or null; see
+ * bootstrap-lanes.ts), then blocks of replicates { from, to }; answers each with its results.
  */
 const { plan, seed, lanes } = workerData as { plan: BootstrapPlan; seed: number; lanes: CompiledLanes | null };
 const scratch = rangeScratch(plan, lanes);
